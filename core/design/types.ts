@@ -1,0 +1,273 @@
+/**
+ * The Tiltbench design document ("tilt sheet"), format version 1.
+ *
+ * Files use the extension `.tiltsheet` and hold JSON. Every length is in millimetres and
+ * every angle in degrees. Axes follow ISO 8855: x forward, y to the left, z up, with the
+ * origin on the ground midway between the two front contact patches at design position.
+ *
+ * Side-specific values are written for the RIGHT side (y < 0) and mirrored (y -> -y) to
+ * the left, unless a value is written for both sides explicitly as `{ right, left }`.
+ *
+ * These interfaces describe the file as written. `resolveDesign` turns a validated file
+ * into a `ResolvedDesign` with both sides spelled out and every default applied.
+ */
+
+/** A point or direction in millimetres (directions need not be unit length). */
+export interface Vec3Mm {
+  x: number;
+  y: number;
+  z: number;
+}
+
+/** A plan-view point in millimetres. */
+export interface Vec2Mm {
+  x: number;
+  y: number;
+}
+
+/** A right-side value mirrored to the left, or both sides given explicitly. */
+export type Sided<T> = T | { right: T; left: T };
+
+export const DESIGN_FORMAT_KEY = 'tiltsheet';
+export const DESIGN_FORMAT_VERSION = 1;
+export const DESIGN_FILE_EXTENSION = '.tiltsheet';
+
+/** A split (per side) wishbone: two inner pivots on the frame and an outer ball joint. */
+export interface SplitWishbone {
+  frontPivot: Sided<Vec3Mm>;
+  rearPivot: Sided<Vec3Mm>;
+  outerJoint: Sided<Vec3Mm>;
+}
+
+/** A transverse member pivoted on the frame at the centre line, spanning both sides. */
+export interface CentreMember {
+  /** Pivot point on the centre line (y = 0 expected). */
+  pivot: Vec3Mm;
+  /** Direction of the pivot axis (usually along x). */
+  pivotAxis: Vec3Mm;
+  /** Ball joint (or pivot) at the member's end, carrying the upright. */
+  outerJoint: Sided<Vec3Mm>;
+}
+
+export type FrontEnd =
+  | { kind: 'splitWishbones'; upper: SplitWishbone; lower: SplitWishbone }
+  | { kind: 'centrePivot'; upper: CentreMember; lower: CentreMember };
+
+export interface Upright {
+  /** Ball joints (both turn freely) or a kingpin bolt between the two outer joints. */
+  steeringAxis: 'ballJoints' | 'kingpin';
+  /** Ball joint at the end of the steering arm, where the tie rod attaches. */
+  steeringArmJoint: Sided<Vec3Mm>;
+  /** Wheel centre (on the spin axis, in the wheel's mid plane). */
+  wheelCentre: Sided<Vec3Mm>;
+  /** Static toe at design position, toe-in positive, degrees. */
+  staticToeDeg: Sided<number>;
+  /** Static camber at design position, top of wheel outward positive, degrees. */
+  staticCamberDeg: Sided<number>;
+}
+
+/** How the handlebar turns a bell crank. */
+export type CrankInput =
+  | {
+      kind: 'ratio';
+      /** Crank rotation (right-hand rule about its axis) per degree of handlebar. */
+      crankDegPerHandlebarDeg: number;
+    }
+  | {
+      kind: 'dragLink';
+      columnPivot: Vec3Mm;
+      /** Direction of the steering column; positive handlebar turns right-handed about it. */
+      columnAxis: Vec3Mm;
+      /** Ball joint on the column's arm. */
+      columnArmJoint: Vec3Mm;
+      /** Ball joint on the crank's input arm. */
+      crankArmJoint: Vec3Mm;
+    };
+
+export type Steering =
+  | {
+      kind: 'bellCrank';
+      pivot: Vec3Mm;
+      /** Pivot axis direction, anywhere from horizontal to vertical. */
+      axis: Vec3Mm;
+      /** The crank's ball joint for each side's tie rod. */
+      tieRodJoint: Sided<Vec3Mm>;
+      input: CrankInput;
+    }
+  | {
+      kind: 'rack';
+      /** Direction the rack slides (usually y). Positive handlebar moves it along +axis. */
+      axis: Vec3Mm;
+      /** Ball joint at each end of the rack (inner tie-rod joint). */
+      tieRodJoint: Sided<Vec3Mm>;
+      /** Rack travel per degree of handlebar. */
+      mmPerHandlebarDeg: number;
+    }
+  | {
+      kind: 'direct';
+      /** The steering column carries one lever with both tie rods' joints. */
+      pivot: Vec3Mm;
+      axis: Vec3Mm;
+      tieRodJoint: Sided<Vec3Mm>;
+    };
+
+export interface Tyre {
+  /** Centre to ground, upright wheel, mm. */
+  rollingRadiusMm: number;
+  tyreWidthMm: number;
+  /** Radius of the tread's cross-section (crown); the contact point rolls around it. */
+  crownRadiusMm: number;
+}
+
+export interface Wheels {
+  front: Tyre;
+  rear: Tyre;
+}
+
+export type Rear = { kind: 'single' } | { kind: 'pair'; trackMm: number };
+
+export type JointKind = 'ballJoint' | 'rodEnd';
+
+/**
+ * A ball joint or rod end. The stud (ball joint) or bolt (rod end) is fixed in one body and
+ * the housing in the other; at design position the housing axis lies along `studAxis`, so
+ * articulation is zero there and grows as the two bodies rotate relative to each other.
+ */
+export interface JointSpec {
+  kind: JointKind;
+  /** Rated articulation (half cone angle) from the maker's data, degrees. */
+  ratedDeg: number;
+  /** Stud or bolt direction at design position. */
+  studAxis: Sided<Vec3Mm>;
+}
+
+export interface Joints {
+  /** Upper outer joint between wishbone (or member) and upright; stud in the upright. */
+  upperOuter: JointSpec;
+  /** Lower outer joint; stud in the upright. */
+  lowerOuter: JointSpec;
+  /** Tie rod's outer end; bolt or stud fixed in the steering arm, housing in the tie rod. */
+  tieRodOuter: JointSpec;
+  /** Tie rod's inner end; bolt or stud fixed in the crank, rack or lever. */
+  tieRodInner: JointSpec;
+}
+
+/** Allowed errors; every warning in the tool measures against these. */
+export interface Tolerances {
+  toeErrorDeg: number;
+  slipDeg: number;
+  jointMarginDeg: number;
+  clearanceMm: number;
+}
+
+/** The operating range the design must cover. */
+export interface Envelope {
+  /** Largest lean each way, degrees (0 for a non-tilting vehicle). */
+  leanDeg: number;
+  /** Handlebar lock each way, degrees. */
+  handlebarDeg: number;
+  bumpMm: number;
+  reboundMm: number;
+}
+
+/** A spring or damper between the frame and a wishbone (or member). */
+export interface SpringMount {
+  on: 'upper' | 'lower';
+  frameMount: Sided<Vec3Mm>;
+  armMount: Sided<Vec3Mm>;
+}
+
+/** Radii used to model parts as capsules for clearance checks. */
+export interface PartSizes {
+  wishboneTubeRadiusMm: number;
+  tieRodRadiusMm: number;
+  steeringArmRadiusMm: number;
+}
+
+export interface Vehicle {
+  wheelbaseMm: number;
+  /** Whether the frame leans (false: lean stays at 0). */
+  tilting: boolean;
+  rear: Rear;
+  /** Plan-view outline of the body for wall-to-wall turning; optional. */
+  bodyOutline?: Vec2Mm[];
+}
+
+export interface DesignFile {
+  tiltsheet: 1;
+  name: string;
+  notes?: string;
+  vehicle: Vehicle;
+  frontEnd: FrontEnd;
+  upright: Upright;
+  steering: Steering;
+  wheels: Wheels;
+  joints: Joints;
+  envelope: Envelope;
+  tolerances?: Partial<Tolerances>;
+  spring?: SpringMount;
+  parts?: Partial<PartSizes>;
+}
+
+export type Side = 'left' | 'right';
+export const SIDES: readonly Side[] = ['right', 'left'];
+
+/** Both sides spelled out. */
+export interface PerSide<T> {
+  right: T;
+  left: T;
+}
+
+/** A design after validation and resolution: explicit sides, defaults applied. */
+export interface ResolvedDesign {
+  name: string;
+  notes: string;
+  vehicle: Vehicle;
+  frontEnd:
+    | {
+        kind: 'splitWishbones';
+        upper: { frontPivot: PerSide<Vec3Mm>; rearPivot: PerSide<Vec3Mm>; outerJoint: PerSide<Vec3Mm> };
+        lower: { frontPivot: PerSide<Vec3Mm>; rearPivot: PerSide<Vec3Mm>; outerJoint: PerSide<Vec3Mm> };
+      }
+    | {
+        kind: 'centrePivot';
+        upper: { pivot: Vec3Mm; pivotAxis: Vec3Mm; outerJoint: PerSide<Vec3Mm> };
+        lower: { pivot: Vec3Mm; pivotAxis: Vec3Mm; outerJoint: PerSide<Vec3Mm> };
+      };
+  upright: {
+    steeringAxis: 'ballJoints' | 'kingpin';
+    steeringArmJoint: PerSide<Vec3Mm>;
+    wheelCentre: PerSide<Vec3Mm>;
+    staticToeDeg: PerSide<number>;
+    staticCamberDeg: PerSide<number>;
+  };
+  steering:
+    | { kind: 'bellCrank'; pivot: Vec3Mm; axis: Vec3Mm; tieRodJoint: PerSide<Vec3Mm>; input: CrankInput }
+    | { kind: 'rack'; axis: Vec3Mm; tieRodJoint: PerSide<Vec3Mm>; mmPerHandlebarDeg: number }
+    | { kind: 'direct'; pivot: Vec3Mm; axis: Vec3Mm; tieRodJoint: PerSide<Vec3Mm> };
+  wheels: Wheels;
+  joints: Record<keyof Joints, { kind: JointKind; ratedDeg: number; studAxis: PerSide<Vec3Mm> }>;
+  envelope: Envelope;
+  tolerances: Tolerances;
+  spring?: { on: 'upper' | 'lower'; frameMount: PerSide<Vec3Mm>; armMount: PerSide<Vec3Mm> };
+  parts: PartSizes;
+}
+
+/**
+ * Defaults for tolerances and part sizes. Common practice, no source: a toe error of
+ * 0.25 degrees and 1 degree of slip are what a careful builder would accept on a
+ * human-powered trike; 3 degrees of joint margin and 10 mm of clearance leave room for
+ * build tolerances.
+ */
+export const DEFAULT_TOLERANCES: Tolerances = {
+  toeErrorDeg: 0.25,
+  slipDeg: 1,
+  jointMarginDeg: 3,
+  clearanceMm: 10,
+};
+
+export const DEFAULT_PART_SIZES: PartSizes = {
+  wishboneTubeRadiusMm: 10,
+  tieRodRadiusMm: 6,
+  steeringArmRadiusMm: 8,
+};

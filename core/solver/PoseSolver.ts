@@ -1,0 +1,295 @@
+/**
+ * Solves poses of a mechanism graph: Levenberg-Marquardt on the closed-loop constraints,
+ * warm-started from the previous pose, with continuation (sub-stepping the inputs) so the
+ * linkage stays on the assembly branch it started on. A solve never throws for failing to
+ * converge and never lets NaN out: it returns a result with a named status and, on failure,
+ * keeps the last good pose so a sweep can continue from it.
+ */
+
+import { CompiledMechanism } from './CompiledMechanism';
+import { LevenbergMarquardt, type LmOutcome } from './levenbergMarquardt';
+import { INPUT_NAMES, type MechanismGraph, type PoseInputs } from '../mechanism/MechanismGraph';
+
+export type SolveStatus = 'converged' | 'cannot-assemble' | 'singular' | 'did-not-converge' | 'invalid-input';
+
+export interface SolveResult {
+  status: SolveStatus;
+  /**
+   * Largest constraint residual at the returned pose, mm (heading rows scaled to mm);
+   * null when no residual was evaluated (invalid input).
+   */
+  residualMm: number | null;
+  iterations: number;
+  evaluations: number;
+  /** Continuation sub-steps taken to reach the inputs. */
+  substeps: number;
+  message: string;
+  /** The loop or joint that would not close, when one is to blame. */
+  culprit?: string;
+}
+
+export interface PoseSolverOptions {
+  /** Converged when every residual is below this, mm. */
+  toleranceMm: number;
+  maxIterations: number;
+  /** Largest input change per continuation sub-step. */
+  maxStepDeg: number;
+  maxStepMm: number;
+  /** Sub-steps are halved at most this many times when a step fails or jumps. */
+  maxBisections: number;
+  /** A residual left above this at a stationary point means the loop cannot close. */
+  assemblyGapMm: number;
+  /** Below this scaled pivot ratio (about 1/cond(J)^2) the pose is called singular. */
+  singularPivotRatio: number;
+}
+
+export const DEFAULT_SOLVER_OPTIONS: PoseSolverOptions = {
+  toleranceMm: 1e-9,
+  maxIterations: 60,
+  maxStepDeg: 4,
+  maxStepMm: 20,
+  maxBisections: 8,
+  assemblyGapMm: 1e-6,
+  singularPivotRatio: 1e-20,
+};
+
+const DEG = Math.PI / 180;
+
+export class PoseSolver {
+  readonly mechanism: CompiledMechanism;
+  readonly options: PoseSolverOptions;
+  private readonly lm: LevenbergMarquardt;
+  private readonly goodCoord: Float64Array;
+  private readonly goodSph: Float64Array;
+  private readonly stepCoord: Float64Array;
+  private readonly stepSph: Float64Array;
+  private goodInputs: PoseInputs;
+  private hasGood = false;
+  /** The good pose before the last one, for the secant predictor. */
+  private readonly prevCoord: Float64Array;
+  private readonly prevSph: Float64Array;
+  private prevInputs: PoseInputs;
+  private hasPrev = false;
+  private readonly work: PoseInputs;
+
+  constructor(graph: MechanismGraph, options: Partial<PoseSolverOptions> = {}) {
+    this.options = { ...DEFAULT_SOLVER_OPTIONS, ...options };
+    this.mechanism = new CompiledMechanism(graph);
+    this.lm = new LevenbergMarquardt(this.mechanism);
+    const nb = this.mechanism.nBodies;
+    this.goodCoord = new Float64Array(nb);
+    this.goodSph = new Float64Array(9 * nb);
+    this.stepCoord = new Float64Array(nb);
+    this.stepSph = new Float64Array(9 * nb);
+    this.goodInputs = { ...this.mechanism.currentInputs };
+    this.prevCoord = new Float64Array(nb);
+    this.prevSph = new Float64Array(9 * nb);
+    this.prevInputs = { ...this.goodInputs };
+    this.work = { ...this.goodInputs };
+  }
+
+  /** The inputs of the last good pose. */
+  get inputs(): Readonly<PoseInputs> {
+    return this.goodInputs;
+  }
+
+  /** Forget the warm start: the next solve starts from the design pose. */
+  reset(): void {
+    this.hasGood = false;
+    this.hasPrev = false;
+  }
+
+  /**
+   * Solve the pose at `target`. With `warm` (default) it continues from the last good
+   * pose; otherwise from the design pose with all inputs zero.
+   */
+  solve(target: PoseInputs, warm = true): SolveResult {
+    for (const name of INPUT_NAMES) {
+      if (!Number.isFinite(target[name])) {
+        return this.fail('invalid-input', `input ${name} is ${String(target[name])}; every input must be a finite number`);
+      }
+    }
+    const m = this.mechanism;
+    let from: PoseInputs;
+    let predicted = false;
+    if (warm && this.hasGood) {
+      from = this.goodInputs;
+      m.setState(this.goodCoord, this.goodSph);
+      predicted = this.predict(target);
+    } else {
+      from = zeroLike(target);
+      m.applyInputs(from);
+      m.resetToDesign();
+    }
+    const opts = this.options;
+    // How many sub-steps the input change needs.
+    let span = 0;
+    for (const name of INPUT_NAMES) {
+      const d = Math.abs(target[name] - from[name]);
+      span = Math.max(span, name.endsWith('Deg') ? d / opts.maxStepDeg : d / opts.maxStepMm);
+    }
+    let pieces = Math.max(1, Math.ceil(span - 1e-12));
+    let done = 0; // fraction of the way reached, in units of 1/pieces
+    let iterations = 0;
+    let evaluations = 0;
+    let substeps = 0;
+    let bisections = 0;
+    let last: LmOutcome | undefined;
+    let reached = 0; // fraction in [0, 1]
+    while (reached < 1) {
+      const next = Math.min(1, reached + 1 / pieces);
+      interpolateInputs(this.work, from, target, next);
+      m.getState(this.stepCoord, this.stepSph);
+      m.applyInputs(this.work);
+      const out = this.lm.solve({ tolerance: opts.toleranceMm, maxIterations: opts.maxIterations, tau: 1e-10 });
+      last = out;
+      iterations += out.iterations;
+      evaluations += out.evaluations;
+      substeps++;
+      const stepSize = next - reached;
+      const jump = this.jumped(stepSize, from, target);
+      if (out.ending === 'converged' && !jump) {
+        reached = next;
+        done++;
+        continue;
+      }
+      // Failed or jumped: retry this stretch in smaller pieces, from where it started.
+      m.setState(this.stepCoord, this.stepSph);
+      if (bisections >= opts.maxBisections) {
+        interpolateInputs(this.work, from, target, reached);
+        m.applyInputs(this.work);
+        return this.finishFailure(out, jump, target, reached);
+      }
+      bisections++;
+      pieces = Math.round(1 / stepSize) * 2;
+      // keep `reached` on the new grid
+      reached = Math.round(reached * pieces) / pieces;
+    }
+    void done;
+    const res = last!;
+    // Accept and remember as the warm start; the previous one feeds the predictor.
+    if (this.hasGood && warm) {
+      this.prevCoord.set(this.goodCoord);
+      this.prevSph.set(this.goodSph);
+      this.prevInputs = this.goodInputs;
+      this.hasPrev = true;
+    } else {
+      this.hasPrev = false;
+    }
+    m.getState(this.goodCoord, this.goodSph);
+    this.goodInputs = { ...target };
+    this.hasGood = true;
+    void predicted;
+    const singular = res.pivotRatio < opts.singularPivotRatio;
+    if (singular) {
+      return {
+        status: 'singular',
+        residualMm: res.maxResidual,
+        iterations,
+        evaluations,
+        substeps,
+        message: `the linkage is at a dead centre or has lost a degree of freedom here (conditioning ${res.pivotRatio.toExponential(1)})`,
+      };
+    }
+    return { status: 'converged', residualMm: res.maxResidual, iterations, evaluations, substeps, message: 'converged' };
+  }
+
+  /**
+   * Secant predictor along a sweep: when the inputs keep moving in the same direction,
+   * extrapolate the last two good poses (rotations on their manifold). A good guess halves
+   * the iterations; a bad one is harmless because the corrector and the jump check follow.
+   */
+  private predict(target: PoseInputs): boolean {
+    if (!this.hasPrev) return false;
+    let dot = 0;
+    let n1 = 0;
+    let n2 = 0;
+    for (const name of INPUT_NAMES) {
+      const d1 = this.goodInputs[name] - this.prevInputs[name];
+      const d2 = target[name] - this.goodInputs[name];
+      dot += d1 * d2;
+      n1 += d1 * d1;
+      n2 += d2 * d2;
+    }
+    if (!(n1 > 0) || !(n2 > 0) || dot < 0.9999 * Math.sqrt(n1 * n2)) return false;
+    const ratio = Math.sqrt(n2 / n1);
+    if (ratio > 2) return false;
+    this.mechanism.extrapolate(this.prevCoord, this.prevSph, ratio);
+    return true;
+  }
+
+  /** A converged sub-step that moved some joint far more than the input change allows. */
+  private jumped(stepFraction: number, from: PoseInputs, target: PoseInputs): boolean {
+    let inputRad = 0;
+    let inputMm = 0;
+    for (const name of INPUT_NAMES) {
+      const d = Math.abs(target[name] - from[name]) * stepFraction;
+      if (name.endsWith('Deg')) inputRad = Math.max(inputRad, d * DEG);
+      else inputMm = Math.max(inputMm, d);
+    }
+    const change = this.mechanism.largestChange(this.stepCoord, this.stepSph);
+    // A branch switch moves joints by a finite amount however small the step; a steep but
+    // continuous motion shrinks with it. Allow generous gearing: 25 degrees, or 12 times
+    // the input change (radians), plus the mm change of an input travelling 1:1.
+    const allowedRad = Math.max(25 * DEG, 12 * (inputRad + inputMm / 100));
+    return change.rad > allowedRad;
+  }
+
+  private finishFailure(out: LmOutcome, jump: boolean, target: PoseInputs, reached: number): SolveResult {
+    const m = this.mechanism;
+    // Back to the last good pose so the caller (a sweep) can go on from it.
+    if (this.hasGood) m.setState(this.goodCoord, this.goodSph);
+    const culprit = out.worstResidual >= 0 ? m.constraintLabelOfRow(out.worstResidual) : undefined;
+    const where = describeInputs(target);
+    const gap = out.maxResidual;
+    if (jump) {
+      return this.fail(
+        'singular',
+        `the linkage passes a dead centre or would switch assembly branch before reaching ${where} (${Math.round(reached * 100)} % of the way)`,
+        culprit,
+        gap,
+        out,
+      );
+    }
+    if (out.ending === 'non-finite') {
+      return this.fail('did-not-converge', `the constraints could not be evaluated at ${where}`, culprit, gap, out);
+    }
+    if (out.ending === 'max-iterations') {
+      return this.fail('did-not-converge', `no convergence in ${this.options.maxIterations} iterations at ${where}; worst: ${culprit} (${fmt(gap)} mm)`, culprit, gap, out);
+    }
+    if (gap > this.options.assemblyGapMm) {
+      return this.fail('cannot-assemble', `${culprit} cannot close at ${where}: gap ${fmt(gap)} mm`, culprit, gap, out);
+    }
+    return this.fail('did-not-converge', `stalled ${fmt(gap)} mm short of closure at ${where}; worst: ${culprit}`, culprit, gap, out);
+  }
+
+  private fail(status: SolveStatus, message: string, culprit?: string, gap = NaN, out?: LmOutcome): SolveResult {
+    return {
+      status,
+      residualMm: Number.isFinite(gap) ? gap : null,
+      iterations: out?.iterations ?? 0,
+      evaluations: out?.evaluations ?? 0,
+      substeps: 0,
+      message,
+      ...(culprit ? { culprit } : {}),
+    };
+  }
+}
+
+function zeroLike(t: PoseInputs): PoseInputs {
+  const z = { ...t };
+  for (const name of INPUT_NAMES) z[name] = 0;
+  return z;
+}
+
+function interpolateInputs(out: PoseInputs, a: PoseInputs, b: PoseInputs, s: number): void {
+  for (const name of INPUT_NAMES) out[name] = s >= 1 ? b[name] : a[name] + (b[name] - a[name]) * s;
+}
+
+function describeInputs(t: PoseInputs): string {
+  return `lean ${t.leanDeg.toFixed(1)} deg, handlebar ${t.handlebarDeg.toFixed(1)} deg, heave ${t.heaveMm.toFixed(1)} mm, travel R/L ${t.travelRightMm.toFixed(1)}/${t.travelLeftMm.toFixed(1)} mm`;
+}
+
+function fmt(x: number): string {
+  return Number.isFinite(x) ? (Math.abs(x) >= 0.01 ? x.toFixed(3) : x.toExponential(2)) : String(x);
+}

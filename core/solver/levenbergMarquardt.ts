@@ -1,0 +1,258 @@
+/**
+ * A small dense Levenberg-Marquardt solver for nonlinear least squares, min 1/2 |r(x)|^2.
+ *
+ * Damping update and stopping rules follow K. Madsen, H. B. Nielsen, O. Tingleff, "Methods
+ * for Non-Linear Least Squares Problems", DTU 2004 (Algorithm 3.16, with Marquardt's diagonal
+ * scaling as in J. J. Moré, 1978). Works on a problem object that owns its state, so
+ * rotations can be updated on their manifold. Every array is allocated once per problem size.
+ * It never throws for failing to converge: it reports how it ended.
+ */
+
+import { choleskyFactor, choleskySolve } from './denseCholesky';
+
+export interface LeastSquaresProblem {
+  readonly nVars: number;
+  readonly nResiduals: number;
+  /** Residuals at the current state; false if any is not finite. */
+  residuals(r: Float64Array): boolean;
+  /** Row-major nResiduals x nVars Jacobian at the state of the last `residuals` call. */
+  jacobian(jac: Float64Array): void;
+  /** Apply an increment to the state. */
+  step(h: Float64Array): void;
+  save(): void;
+  restore(): void;
+}
+
+export type LmEnding =
+  | 'converged' // max |r| below the tolerance
+  | 'stationary' // gradient vanished with the residual still above tolerance (no closure)
+  | 'small-step' // the step shrank to nothing
+  | 'max-iterations'
+  | 'non-finite'; // the residual could not be evaluated at the start
+
+export interface LmOptions {
+  /** Converged when max |r_i| is below this. */
+  tolerance: number;
+  maxIterations: number;
+  /** Initial damping relative to diag(J^T J) (Madsen's tau, with Marquardt scaling). */
+  tau: number;
+}
+
+export interface LmOutcome {
+  ending: LmEnding;
+  iterations: number;
+  evaluations: number;
+  maxResidual: number;
+  /** Smallest/largest pivot of the scaled normal matrix at the end: a conditioning measure. */
+  pivotRatio: number;
+  /** Index of the residual with the largest magnitude at the end. */
+  worstResidual: number;
+}
+
+export class LevenbergMarquardt {
+  private readonly n: number;
+  private readonly m: number;
+  private readonly r: Float64Array;
+  private readonly rTrial: Float64Array;
+  private readonly jac: Float64Array;
+  private readonly a: Float64Array;
+  private readonly aDamped: Float64Array;
+  private readonly g: Float64Array;
+  private readonly negG: Float64Array;
+  private readonly h: Float64Array;
+  private readonly scale: Float64Array;
+  private readonly pivots: Float64Array;
+  private normalValid = false;
+
+  constructor(private readonly problem: LeastSquaresProblem) {
+    const n = problem.nVars;
+    const m = problem.nResiduals;
+    this.n = n;
+    this.m = m;
+    this.r = new Float64Array(m);
+    this.rTrial = new Float64Array(m);
+    this.jac = new Float64Array(m * n);
+    this.a = new Float64Array(n * n);
+    this.aDamped = new Float64Array(n * n);
+    this.g = new Float64Array(n);
+    this.negG = new Float64Array(n);
+    this.h = new Float64Array(n);
+    this.scale = new Float64Array(n);
+    this.pivots = new Float64Array(n);
+  }
+
+  /** The residual vector at the end of the last solve. */
+  get lastResiduals(): Float64Array {
+    return this.r;
+  }
+
+  solve(opts: LmOptions): LmOutcome {
+    const { n, m, r, rTrial, jac, a, aDamped, g, negG, h, scale } = this;
+    const p = this.problem;
+    let evaluations = 1;
+    this.normalValid = false;
+    if (!p.residuals(r)) {
+      return { ending: 'non-finite', iterations: 0, evaluations, maxResidual: Infinity, pivotRatio: 0, worstResidual: worstIndex(r) };
+    }
+    let cost = halfSquaredNorm(r);
+    let maxR = maxAbs(r);
+    if (n === 0 || maxR < opts.tolerance) {
+      return this.finish(maxR < opts.tolerance ? 'converged' : 'stationary', 0, evaluations, maxR);
+    }
+    this.normalEquations();
+    // With Marquardt's scaling D = diag(J^T J) the damping is dimensionless: mu = tau.
+    let mu = opts.tau;
+    let nu = 2;
+    let iterations = 0;
+    while (iterations < opts.maxIterations) {
+      iterations++;
+      // Stationary point with residual left: the loop cannot close here.
+      if (maxAbs(g) < 1e-15 * Math.max(1, maxDiagonal(a, n))) {
+        return this.finish('stationary', iterations, evaluations, maxR);
+      }
+      // Solve (A + mu D) h = -g, D = diag(A) floored (Marquardt scaling keeps mm and
+      // radian variables on an equal footing).
+      for (let i = 0; i < n * n; i++) aDamped[i] = a[i];
+      for (let i = 0; i < n; i++) {
+        aDamped[i * n + i] += mu * scale[i];
+        negG[i] = -g[i];
+      }
+      if (!choleskyFactor(aDamped, n)) {
+        mu *= nu;
+        nu *= 2;
+        continue;
+      }
+      choleskySolve(aDamped, n, negG, h);
+      let hNorm = 0;
+      for (let i = 0; i < n; i++) hNorm += h[i] * h[i];
+      if (Math.sqrt(hNorm) < 1e-15) {
+        return this.finish(maxR < opts.tolerance ? 'converged' : 'small-step', iterations, evaluations, maxR);
+      }
+      p.save();
+      p.step(h);
+      evaluations++;
+      const finite = p.residuals(rTrial);
+      const newCost = finite ? halfSquaredNorm(rTrial) : Infinity;
+      // Predicted decrease L(0) - L(h) = 1/2 h^T (mu D h - g).
+      let predicted = 0;
+      for (let i = 0; i < n; i++) predicted += h[i] * (mu * scale[i] * h[i] - g[i]);
+      predicted *= 0.5;
+      const rho = predicted > 0 ? (cost - newCost) / predicted : -1;
+      if (finite && rho > 0) {
+        r.set(rTrial);
+        cost = newCost;
+        maxR = maxAbs(r);
+        if (maxR < opts.tolerance) return this.finish('converged', iterations, evaluations, maxR);
+        this.normalEquations();
+        const t = 2 * rho - 1;
+        mu *= Math.max(1 / 3, 1 - t * t * t);
+        nu = 2;
+      } else {
+        // Rejected (or non-finite, which only shrinks the step): back to the saved state.
+        p.restore();
+        p.residuals(r);
+        evaluations++;
+        mu *= nu;
+        nu *= 2;
+        if (!Number.isFinite(mu) || mu > 1e30) {
+          return this.finish('stationary', iterations, evaluations, maxR);
+        }
+      }
+    }
+    void m;
+    return this.finish('max-iterations', iterations, evaluations, maxR);
+  }
+
+  /** A = J^T J, g = J^T r at the current state, and the Marquardt scaling diag(A). */
+  private normalEquations(): void {
+    const { n, m, r, jac, a, g, scale } = this;
+    this.problem.jacobian(jac);
+    this.normalValid = true;
+    for (let i = 0; i < n; i++) {
+      let gi = 0;
+      for (let k = 0; k < m; k++) gi += jac[k * n + i] * r[k];
+      g[i] = gi;
+      for (let j = 0; j <= i; j++) {
+        let s = 0;
+        for (let k = 0; k < m; k++) s += jac[k * n + i] * jac[k * n + j];
+        a[i * n + j] = s;
+        a[j * n + i] = s;
+      }
+    }
+    let maxD = 0;
+    for (let i = 0; i < n; i++) maxD = Math.max(maxD, a[i * n + i]);
+    for (let i = 0; i < n; i++) scale[i] = Math.max(a[i * n + i], 1e-12 * maxD, 1e-300);
+  }
+
+  private finish(ending: LmEnding, iterations: number, evaluations: number, maxResidual: number): LmOutcome {
+    return {
+      ending,
+      iterations,
+      evaluations,
+      maxResidual,
+      pivotRatio: this.conditioning(),
+      worstResidual: worstIndex(this.r),
+    };
+  }
+
+  /**
+   * Conditioning of J at the current state: factor the normal matrix scaled to unit
+   * diagonal and return the smallest pivot over the largest (about 1 / cond(J)^2).
+   * Zero means J lost rank: a dead centre or a degenerate linkage.
+   */
+  private conditioning(): number {
+    const { n, a, aDamped, pivots } = this;
+    if (n === 0) return 1;
+    // The normal matrix from the last accepted step is close enough to the end state for a
+    // conditioning check; recompute only when none was formed yet.
+    if (!this.normalValid) this.normalEquations();
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        const d = Math.sqrt(a[i * n + i] * a[j * n + j]);
+        aDamped[i * n + j] = d > 0 ? a[i * n + j] / d : i === j ? 0 : 0;
+      }
+    }
+    if (!choleskyFactor(aDamped, n, pivots)) return 0;
+    let lo = Infinity;
+    let hi = 0;
+    for (let i = 0; i < n; i++) {
+      lo = Math.min(lo, pivots[i]);
+      hi = Math.max(hi, pivots[i]);
+    }
+    return hi > 0 ? lo / hi : 0;
+  }
+}
+
+function halfSquaredNorm(v: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < v.length; i++) s += v[i] * v[i];
+  return 0.5 * s;
+}
+
+function maxAbs(v: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < v.length; i++) {
+    const x = Math.abs(v[i]);
+    if (!(x <= s)) s = x; // NaN propagates as "large"
+  }
+  return s;
+}
+
+function worstIndex(v: Float64Array): number {
+  let best = -1;
+  let s = -1;
+  for (let i = 0; i < v.length; i++) {
+    const x = Number.isFinite(v[i]) ? Math.abs(v[i]) : Infinity;
+    if (x > s) {
+      s = x;
+      best = i;
+    }
+  }
+  return best;
+}
+
+function maxDiagonal(a: Float64Array, n: number): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) s = Math.max(s, a[i * n + i]);
+  return s;
+}
