@@ -1,0 +1,63 @@
+/**
+ * A small argument parser: positionals, `--flag`, `--name value` and `--name=value`.
+ * Unknown options are errors that name the option, so a typo never runs a wrong job.
+ */
+
+export interface ParsedArgs {
+  positionals: string[];
+  options: Map<string, string | true>;
+}
+
+export class ArgError extends Error {}
+
+export function parseArgs(argv: string[], spec: { flags: string[]; values: string[] }): ParsedArgs {
+  const positionals: string[] = [];
+  const options = new Map<string, string | true>();
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (!a.startsWith('--') || a === '--') {
+      positionals.push(a);
+      continue;
+    }
+    const eq = a.indexOf('=');
+    const name = eq > 0 ? a.slice(2, eq) : a.slice(2);
+    if (spec.flags.includes(name)) {
+      if (eq > 0) throw new ArgError(`option --${name} takes no value`);
+      options.set(name, true);
+    } else if (spec.values.includes(name)) {
+      const value = eq > 0 ? a.slice(eq + 1) : argv[++i];
+      if (value === undefined) throw new ArgError(`option --${name} needs a value`);
+      options.set(name, value);
+    } else {
+      throw new ArgError(`unknown option --${name}`);
+    }
+  }
+  return { positionals, options };
+}
+
+/** A finite number option, with the unit named in the error. */
+export function numberOption(args: ParsedArgs, name: string, unit: string, fallback: number): number {
+  const raw = args.options.get(name);
+  if (raw === undefined) return fallback;
+  if (raw === true) throw new ArgError(`option --${name} needs a value in ${unit}`);
+  const value = Number(raw);
+  if (raw.trim() === '' || !Number.isFinite(value)) throw new ArgError(`option --${name}: expected a number in ${unit}, found "${raw}"`);
+  return value;
+}
+
+/** A range `A:B:STEP` (inclusive), with the unit named in errors. */
+export function rangeOption(args: ParsedArgs, name: string, unit: string): number[] | undefined {
+  const raw = args.options.get(name);
+  if (raw === undefined) return undefined;
+  if (raw === true) throw new ArgError(`option --${name} needs a range A:B:STEP in ${unit}`);
+  const parts = raw.split(':').map((p) => Number(p));
+  if (parts.length !== 3 || parts.some((p) => !Number.isFinite(p))) {
+    throw new ArgError(`option --${name}: expected A:B:STEP in ${unit}, found "${raw}"`);
+  }
+  const [a, b, step] = parts;
+  if (!(step > 0)) throw new ArgError(`option --${name}: STEP must be positive, found ${step}`);
+  const count = Math.floor(Math.abs(b - a) / step + 1e-9) + 1;
+  if (count > 100000) throw new ArgError(`option --${name}: ${count} values is too many (at most 100000)`);
+  const dir = b >= a ? 1 : -1;
+  return Array.from({ length: count }, (_, i) => a + dir * i * step);
+}

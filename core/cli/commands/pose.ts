@@ -1,0 +1,73 @@
+import type { CliIo } from '../io';
+import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { ArgError, numberOption, parseArgs } from '../args';
+import { loadDesignFile } from '../loadDesignFile';
+import { formatIssue } from '../formatIssue';
+import { solveSinglePose, type PoseRequest } from '../../analysis/solveSinglePose';
+
+export const poseHelp = `tiltbench pose [design.tiltsheet] --lean DEG --steer DEG [--travel MM | --on-ground] [--json]
+  Solves one pose of the closed linkage and prints every hardpoint's posed position and,
+  per wheel, toe and camber. Without a design it uses the bundled demo.
+  --lean DEG          frame roll, positive lowers the right side (leaning into a right turn)
+  --steer DEG         handlebar angle, positive turns left
+  --wheel-angle DEG   instead of --steer: target road-wheel angle of the wheel named by --wheel
+  --wheel left|right  which wheel --wheel-angle sets (default left)
+  --on-ground         both tyres on the ground (the default)
+  --travel MM         wheel-centre travel relative to the frame instead of ground contact
+                      (positive up; a centre-pivot design takes it on the right wheel)
+  --travel-left MM, --travel-right MM   per-side travel (split wishbones)
+  --heave MM          frame height change (ignored where ground contact sets it)
+  --json              machine-readable output
+  Exit 0 when solved, 1 when the linkage cannot be assembled there, 2 for bad input.`;
+
+export async function runPose(argv: string[], io: CliIo): Promise<number> {
+  let request: PoseRequest;
+  let json: boolean;
+  let designPath: string | undefined;
+  try {
+    const args = parseArgs(argv, {
+      flags: ['json', 'on-ground'],
+      values: ['lean', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel'],
+    });
+    if (args.positionals.length > 1) throw new ArgError(`expected at most one design file, found ${args.positionals.length}`);
+    designPath = args.positionals[0];
+    json = args.options.has('json');
+    const travelGiven = ['travel', 'travel-left', 'travel-right'].some((n) => args.options.has(n));
+    if (travelGiven && args.options.has('on-ground')) throw new ArgError('give either --travel or --on-ground, not both');
+    const travel = numberOption(args, 'travel', 'mm', 0);
+    const wheel = args.options.get('wheel') ?? 'left';
+    if (wheel !== 'left' && wheel !== 'right') throw new ArgError(`option --wheel: expected left or right, found "${String(wheel)}"`);
+    if (args.options.has('wheel-angle') && args.options.has('steer')) throw new ArgError('give either --steer or --wheel-angle, not both');
+    request = {
+      leanDeg: numberOption(args, 'lean', 'degrees', 0),
+      handlebarDeg: numberOption(args, 'steer', 'degrees', 0),
+      heaveMm: numberOption(args, 'heave', 'mm', 0),
+      contact: travelGiven ? 'travel' : 'ground',
+      travelRightMm: numberOption(args, 'travel-right', 'mm', travel),
+      travelLeftMm: numberOption(args, 'travel-left', 'mm', travel),
+      ...(args.options.has('wheel-angle')
+        ? { steerBy: wheel === 'left' ? 'leftWheel' : 'rightWheel', wheelAngleDeg: numberOption(args, 'wheel-angle', 'degrees', 0) }
+        : { steerBy: 'handlebar', wheelAngleDeg: 0 }),
+    } as PoseRequest;
+  } catch (e) {
+    if (e instanceof ArgError) {
+      io.err(`tiltbench pose: ${e.message}\nusage:\n${poseHelp}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw e;
+  }
+  const loaded = loadDesignFile(designPath);
+  if (!loaded.ok) {
+    for (const issue of loaded.issues) io.err(formatIssue(issue) + '\n');
+    return EXIT_BAD_INPUT;
+  }
+  const out = solveSinglePose(loaded.design, request);
+  const solved = out.result.status === 'converged' || out.result.status === 'singular';
+  if (json) {
+    io.out(JSON.stringify({ design: loaded.path, ...out.report, caution: SAFETY_CAUTION }, null, 2) + '\n');
+  } else {
+    io.out(out.text + '\n' + SAFETY_CAUTION + '\n');
+  }
+  if (out.result.status === 'invalid-input') return EXIT_BAD_INPUT;
+  return solved ? EXIT_OK : EXIT_FAILED;
+}
