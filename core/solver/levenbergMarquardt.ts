@@ -87,7 +87,7 @@ export class LevenbergMarquardt {
   }
 
   solve(opts: LmOptions): LmOutcome {
-    const { n, m, r, rTrial, jac, a, aDamped, g, negG, h, scale } = this;
+    const { n, m, r, rTrial, a, aDamped, g, negG, h, scale } = this;
     const p = this.problem;
     let evaluations = 1;
     this.normalValid = false;

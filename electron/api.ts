@@ -1,0 +1,53 @@
+/**
+ * The one contract between the Electron main process, the preload script and the renderer:
+ * the IPC channel names and the typed API that the preload exposes as `window.tiltbench`.
+ *
+ * No runtime imports here: the sandboxed preload bundles this file, and the renderer may
+ * import its types.
+ */
+
+/** IPC channel names, one per message. Main handles each with `ipcMain.handle`. */
+export const IPC = {
+  designOpen: 'design:open',
+  designInitial: 'design:initial',
+  designSave: 'design:save',
+  designSaveAs: 'design:saveAs',
+  recoveryWrite: 'recovery:write',
+  recoveryRead: 'recovery:read',
+  recoveryClear: 'recovery:clear',
+  appRecent: 'app:recent',
+} as const;
+
+export type IpcChannel = (typeof IPC)[keyof typeof IPC];
+
+/** A design file as read from disk: its absolute path and its text (JSON). */
+export interface DesignFile {
+  path: string;
+  text: string;
+}
+
+/** What the preload exposes to the renderer as `window.tiltbench`. */
+export interface TiltbenchApi {
+  /** Native open dialog; null when the user cancels. Files over 5 MiB are refused. */
+  openDesign(): Promise<DesignFile | null>;
+  /** The design named on the command line (`--design FILE`), or null. */
+  initialDesign(): Promise<DesignFile | null>;
+  /** Atomic save to a path this session opened or chose with "save as". */
+  saveDesign(path: string, text: string): Promise<void>;
+  /** Native save dialog then atomic save; resolves to the chosen path, or null on cancel. */
+  saveDesignAs(text: string, suggestedName?: string): Promise<string | null>;
+  /** Writes the crash-recovery autosave (in the user-data folder). */
+  writeRecovery(text: string): Promise<void>;
+  /** The recovery autosave, or null when there is none. */
+  readRecovery(): Promise<string | null>;
+  clearRecovery(): Promise<void>;
+  /** Recently opened or saved design paths, newest first, existing files only. */
+  recentDesigns(): Promise<string[]>;
+}
+
+declare global {
+  interface Window {
+    /** Present only inside the Electron shell; undefined in a plain browser. */
+    tiltbench?: TiltbenchApi;
+  }
+}

@@ -1,0 +1,51 @@
+// Test projects. `npx vitest run` runs them all; `npx vitest run --project core` runs one.
+// Independent of vite.config.ts (whose root is renderer/).
+import { defineConfig } from 'vitest/config';
+
+const BENCH = ['test/bench/**', '**/node_modules/**', '**/dist/**', '**/dist-electron/**'];
+
+export default defineConfig({
+  test: {
+    // Some projects have no tests yet; an empty project must not fail the run.
+    passWithNoTests: true,
+    reporters: ['default'],
+    exclude: BENCH,
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'core',
+          environment: 'node',
+          include: ['test/core/**/*.test.ts', 'test/cli/**/*.test.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'renderer',
+          environment: 'jsdom',
+          include: ['test/renderer/**/*.test.ts', 'test/renderer/**/*.test.tsx'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'electron',
+          environment: 'node',
+          include: ['test/electron/**/*.test.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['test/e2e/**/*.test.ts'],
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
