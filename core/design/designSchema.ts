@@ -1,0 +1,195 @@
+/**
+ * The schema of a design file, format 1, written in the schema DSL. The validator and the
+ * published JSON Schema (assets/tiltsheet.schema.json) are both generated from this one tree.
+ *
+ * Bounds are sanity limits that catch slips (a unit mix-up, a sign error), not design advice.
+ * Rules that involve more than one field (crown radius vs rolling radius, coincident points,
+ * the steering axis vs the spin axis, ...) are in validateDesign.ts.
+ */
+import {
+  array,
+  boolean,
+  direction3,
+  discriminatedUnion,
+  enumOf,
+  literal,
+  number,
+  object,
+  optional,
+  sided,
+  string,
+  vec2mm,
+  vec3mm,
+  type Infer,
+} from './schemaDsl';
+import { DESIGN_FORMAT_VERSION, type DesignFile } from './types';
+
+const mm = (description: string, bounds: { min?: number; max?: number; exclusiveMin?: number } = {}) =>
+  number({ unit: 'mm', description, ...bounds });
+const positiveMm = (description: string) => mm(description, { exclusiveMin: 0 });
+const positiveDeg = (description: string) => number({ unit: 'deg', description, exclusiveMin: 0 });
+const point = vec3mm;
+const sidedPoint = (description: string) => sided(vec3mm(description));
+
+const splitWishbone = (which: string) =>
+  object(`${which} wishbone of each side: two inner pivots on the frame and an outer ball joint`, {
+    frontPivot: sidedPoint(`Front inner pivot of the ${which} wishbone`),
+    rearPivot: sidedPoint(`Rear inner pivot of the ${which} wishbone`),
+    outerJoint: sidedPoint(`Outer ball joint of the ${which} wishbone, on the upright`),
+  });
+
+const centreMember = (which: string) =>
+  object(`${which} transverse member, pivoted on the frame at the centre line and spanning both sides`, {
+    pivot: point(`Pivot of the ${which} member on the centre line (y = 0)`),
+    pivotAxis: direction3(`Direction of the ${which} member's pivot axis (usually along x)`),
+    outerJoint: sidedPoint(`Ball joint or pivot at the end of the ${which} member, carrying the upright`),
+  });
+
+const frontEnd = discriminatedUnion('Front suspension linkage', [
+  object('Separate upper and lower wishbones on each side', {
+    kind: literal('splitWishbones', 'Split wishbones'),
+    upper: splitWishbone('upper'),
+    lower: splitWishbone('lower'),
+  }),
+  object('One upper and one lower member pivoted at the centre line (tilting parallelogram)', {
+    kind: literal('centrePivot', 'Centre-pivot members'),
+    upper: centreMember('upper'),
+    lower: centreMember('lower'),
+  }),
+]);
+
+const upright = object('Upright (knuckle) carrying the wheel', {
+  steeringAxis: enumOf(['ballJoints', 'kingpin'], 'The steering axis runs through two ball joints or a kingpin bolt between the outer joints'),
+  steeringArmJoint: sidedPoint('Ball joint at the end of the steering arm, where the tie rod attaches'),
+  wheelCentre: sidedPoint("Wheel centre, on the spin axis in the wheel's mid plane"),
+  staticToeDeg: sided(number({ unit: 'deg', description: 'Static toe at design position, toe-in positive', min: -10, max: 10 })),
+  staticCamberDeg: sided(
+    number({ unit: 'deg', description: 'Static camber at design position, top of wheel outward positive', min: -30, max: 30 }),
+  ),
+});
+
+const crankInput = discriminatedUnion('How the handlebar turns the bell crank', [
+  object('A fixed ratio between handlebar and crank rotation', {
+    kind: literal('ratio', 'Fixed ratio'),
+    crankDegPerHandlebarDeg: number({
+      unit: 'ratio',
+      description: 'Crank rotation (right-hand rule about its axis) per degree of handlebar',
+      min: -10,
+      max: 10,
+      nonZero: true,
+    }),
+  }),
+  object('A steering column whose arm drives the crank through a drag link', {
+    kind: literal('dragLink', 'Drag link'),
+    columnPivot: point('A point on the steering column axis'),
+    columnAxis: direction3('Direction of the steering column; positive handlebar turns right-handed about it'),
+    columnArmJoint: point("Ball joint on the column's arm"),
+    crankArmJoint: point("Ball joint on the crank's input arm"),
+  }),
+]);
+
+const steering = discriminatedUnion('Steering linkage that moves the inner tie-rod joints', [
+  object('A bell crank pivoted on the frame', {
+    kind: literal('bellCrank', 'Bell crank'),
+    pivot: point('A point on the bell crank pivot axis'),
+    axis: direction3('Bell crank pivot axis direction, anywhere from horizontal to vertical'),
+    tieRodJoint: sidedPoint("The crank's ball joint for the tie rod"),
+    input: crankInput,
+  }),
+  object('A rack sliding across the frame', {
+    kind: literal('rack', 'Rack'),
+    axis: direction3('Direction the rack slides (usually y); positive handlebar moves it along +axis'),
+    tieRodJoint: sidedPoint('Ball joint at the end of the rack (inner tie-rod joint)'),
+    mmPerHandlebarDeg: number({ unit: 'mm/deg', description: 'Rack travel per degree of handlebar', min: -20, max: 20, nonZero: true }),
+  }),
+  object('One lever on the steering column carrying both tie rods', {
+    kind: literal('direct', 'Direct lever'),
+    pivot: point('A point on the steering column axis'),
+    axis: direction3('Steering column axis direction'),
+    tieRodJoint: sidedPoint("The lever's ball joint for the tie rod"),
+  }),
+]);
+
+const tyre = (which: string) =>
+  object(`${which} tyre`, {
+    rollingRadiusMm: positiveMm('Centre to ground, upright wheel'),
+    tyreWidthMm: positiveMm('Tyre width'),
+    crownRadiusMm: positiveMm("Radius of the tread's cross-section (crown); at most the rolling radius"),
+  });
+
+const rear = discriminatedUnion('Rear wheel layout', [
+  object('One rear wheel', { kind: literal('single', 'Single rear wheel') }),
+  object('Two rear wheels', {
+    kind: literal('pair', 'Rear wheel pair'),
+    trackMm: positiveMm('Rear track, contact patch centre to centre'),
+  }),
+]);
+
+const vehicle = object('The vehicle as a whole', {
+  wheelbaseMm: mm('Wheelbase, front axle line to rear axle line', { min: 300, max: 5000 }),
+  tilting: boolean('Whether the frame leans (false: lean stays at 0)'),
+  rear,
+  bodyOutline: optional(array(vec2mm('A corner of the plan-view body outline'), 'Plan-view outline of the body, for the wall-to-wall turning circle', { minItems: 3 })),
+});
+
+const joint = (which: string) =>
+  object(which, {
+    kind: enumOf(['ballJoint', 'rodEnd'], 'Ball joint or rod end'),
+    ratedDeg: number({ unit: 'deg', description: "Rated articulation (half cone angle) from the maker's data", exclusiveMin: 0, exclusiveMax: 90 }),
+    studAxis: sided(direction3('Stud or bolt direction at design position')),
+  });
+
+const joints = object('Ball joints and rod ends whose articulation is checked', {
+  upperOuter: joint('Upper outer joint between wishbone (or member) and upright; stud in the upright'),
+  lowerOuter: joint('Lower outer joint; stud in the upright'),
+  tieRodOuter: joint("Tie rod's outer end; bolt or stud fixed in the steering arm"),
+  tieRodInner: joint("Tie rod's inner end; bolt or stud fixed in the crank, rack or lever"),
+});
+
+const envelope = object('The operating range the design must cover', {
+  leanDeg: number({ unit: 'deg', description: 'Largest lean each way (0 for a non-tilting vehicle)', min: 0, max: 60 }),
+  handlebarDeg: number({ unit: 'deg', description: 'Handlebar lock each way', min: 0, max: 180 }),
+  bumpMm: mm('Suspension compression from design position', { min: 0, max: 500 }),
+  reboundMm: mm('Suspension extension from design position', { min: 0, max: 500 }),
+});
+
+const tolerances = object('Allowed errors; missing ones take the defaults', {
+  toeErrorDeg: optional(positiveDeg('Allowed toe error')),
+  slipDeg: optional(positiveDeg('Allowed slip angle')),
+  jointMarginDeg: optional(positiveDeg('Required margin below a joint’s rated articulation')),
+  clearanceMm: optional(positiveMm('Required clearance between parts')),
+});
+
+const spring = object('A spring or damper between the frame and a wishbone (or member)', {
+  on: enumOf(['upper', 'lower'], 'Which wishbone (or member) carries the spring'),
+  frameMount: sidedPoint('Spring mount on the frame'),
+  armMount: sidedPoint('Spring mount on the wishbone (or member)'),
+});
+
+const parts = object('Radii used to model parts as capsules for clearance checks; missing ones take the defaults', {
+  wishboneTubeRadiusMm: optional(positiveMm('Wishbone tube radius')),
+  tieRodRadiusMm: optional(positiveMm('Tie rod radius')),
+  steeringArmRadiusMm: optional(positiveMm('Steering arm radius')),
+});
+
+export const designFileSchema = object('A Tiltbench design ("tilt sheet"). Lengths in mm, angles in degrees; ISO 8855 axes: x forward, y left, z up.', {
+  tiltsheet: literal(DESIGN_FORMAT_VERSION, 'Format version of this file'),
+  name: string('Name of the design', { minLength: 1 }),
+  notes: optional(string('Free notes')),
+  vehicle,
+  frontEnd,
+  upright,
+  steering,
+  wheels: object('Front and rear tyres', { front: tyre('Front'), rear: tyre('Rear') }),
+  joints,
+  envelope,
+  tolerances: optional(tolerances),
+  spring: optional(spring),
+  parts: optional(parts),
+});
+
+// Compile-time guard: the schema and the hand-written DesignFile interface must describe the
+// same values. If either changes alone, this line stops compiling.
+type MutuallyAssignable<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
+const schemaMatchesDesignFile: MutuallyAssignable<Infer<typeof designFileSchema>, DesignFile> = true;
+void schemaMatchesDesignFile;

@@ -1,0 +1,266 @@
+/**
+ * Resolution: a validated design file -> both sides spelled out, every default applied.
+ * And back: `unresolveDesign` writes a side as a single value wherever the left is the exact
+ * mirror of the right, so a saved file stays as compact as a hand-written one.
+ *
+ * Mirroring is y -> -y, for points and directions alike (a direction is mirrored like the
+ * difference of two points). Numbers (toe, camber) are copied: toe-in and camber-out are
+ * already defined per side, so the same number means the mirror-image wheel.
+ */
+import {
+  DEFAULT_PART_SIZES,
+  DEFAULT_TOLERANCES,
+  DESIGN_FORMAT_VERSION,
+  type CrankInput,
+  type DesignFile,
+  type JointSpec,
+  type Joints,
+  type PartSizes,
+  type PerSide,
+  type ResolvedDesign,
+  type Sided,
+  type Tolerances,
+  type Vec3Mm,
+  type Vehicle,
+} from './types';
+
+export function isTwoSided<T>(value: Sided<T>): value is { right: T; left: T } {
+  return typeof value === 'object' && value !== null && 'right' in value && 'left' in value;
+}
+
+/** y -> -y, never producing -0 (so mirrored zeros compare and print as plain 0). */
+export function mirrorY(v: Vec3Mm): Vec3Mm {
+  return { x: v.x, y: v.y === 0 ? 0 : -v.y, z: v.z };
+}
+
+function copyVec(v: Vec3Mm): Vec3Mm {
+  return { x: v.x, y: v.y, z: v.z };
+}
+
+/** Points and directions: a single value is the right side, mirrored to the left. */
+export function resolveSidedVec(value: Sided<Vec3Mm>): PerSide<Vec3Mm> {
+  if (isTwoSided(value)) return { right: copyVec(value.right), left: copyVec(value.left) };
+  return { right: copyVec(value), left: mirrorY(value) };
+}
+
+/** Per-side numbers (toe, camber): a single value applies to both sides unchanged. */
+export function resolveSidedNumber(value: Sided<number>): PerSide<number> {
+  return isTwoSided(value) ? { right: value.right, left: value.left } : { right: value, left: value };
+}
+
+function copyVehicle(v: Vehicle): Vehicle {
+  return {
+    wheelbaseMm: v.wheelbaseMm,
+    tilting: v.tilting,
+    rear: v.rear.kind === 'pair' ? { kind: 'pair', trackMm: v.rear.trackMm } : { kind: 'single' },
+    ...(v.bodyOutline ? { bodyOutline: v.bodyOutline.map((p) => ({ x: p.x, y: p.y })) } : {}),
+  };
+}
+
+function copyCrankInput(input: CrankInput): CrankInput {
+  if (input.kind === 'ratio') return { kind: 'ratio', crankDegPerHandlebarDeg: input.crankDegPerHandlebarDeg };
+  return {
+    kind: 'dragLink',
+    columnPivot: copyVec(input.columnPivot),
+    columnAxis: copyVec(input.columnAxis),
+    columnArmJoint: copyVec(input.columnArmJoint),
+    crankArmJoint: copyVec(input.crankArmJoint),
+  };
+}
+
+/** Defaults for the keys a file leaves out (a key present with `undefined` counts as left out). */
+function withDefaults<T extends object>(defaults: T, given: Partial<T> | undefined): T {
+  const result = { ...defaults };
+  for (const key of Object.keys(defaults) as (keyof T)[]) {
+    const value = given?.[key];
+    if (value !== undefined) result[key] = value as T[keyof T];
+  }
+  return result;
+}
+
+const JOINT_NAMES: readonly (keyof Joints)[] = ['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'];
+
+function resolveJoint(j: JointSpec): ResolvedDesign['joints'][keyof Joints] {
+  return { kind: j.kind, ratedDeg: j.ratedDeg, studAxis: resolveSidedVec(j.studAxis) };
+}
+
+/** Expects a design that passed `validateDesign`. */
+export function resolveDesign(d: DesignFile): ResolvedDesign {
+  const frontEnd: ResolvedDesign['frontEnd'] =
+    d.frontEnd.kind === 'splitWishbones'
+      ? {
+          kind: 'splitWishbones',
+          upper: {
+            frontPivot: resolveSidedVec(d.frontEnd.upper.frontPivot),
+            rearPivot: resolveSidedVec(d.frontEnd.upper.rearPivot),
+            outerJoint: resolveSidedVec(d.frontEnd.upper.outerJoint),
+          },
+          lower: {
+            frontPivot: resolveSidedVec(d.frontEnd.lower.frontPivot),
+            rearPivot: resolveSidedVec(d.frontEnd.lower.rearPivot),
+            outerJoint: resolveSidedVec(d.frontEnd.lower.outerJoint),
+          },
+        }
+      : {
+          kind: 'centrePivot',
+          upper: {
+            pivot: copyVec(d.frontEnd.upper.pivot),
+            pivotAxis: copyVec(d.frontEnd.upper.pivotAxis),
+            outerJoint: resolveSidedVec(d.frontEnd.upper.outerJoint),
+          },
+          lower: {
+            pivot: copyVec(d.frontEnd.lower.pivot),
+            pivotAxis: copyVec(d.frontEnd.lower.pivotAxis),
+            outerJoint: resolveSidedVec(d.frontEnd.lower.outerJoint),
+          },
+        };
+
+  const s = d.steering;
+  const steering: ResolvedDesign['steering'] =
+    s.kind === 'bellCrank'
+      ? { kind: 'bellCrank', pivot: copyVec(s.pivot), axis: copyVec(s.axis), tieRodJoint: resolveSidedVec(s.tieRodJoint), input: copyCrankInput(s.input) }
+      : s.kind === 'rack'
+        ? { kind: 'rack', axis: copyVec(s.axis), tieRodJoint: resolveSidedVec(s.tieRodJoint), mmPerHandlebarDeg: s.mmPerHandlebarDeg }
+        : { kind: 'direct', pivot: copyVec(s.pivot), axis: copyVec(s.axis), tieRodJoint: resolveSidedVec(s.tieRodJoint) };
+
+  const joints = {} as ResolvedDesign['joints'];
+  for (const name of JOINT_NAMES) joints[name] = resolveJoint(d.joints[name]);
+
+  return {
+    name: d.name,
+    notes: d.notes ?? '',
+    vehicle: copyVehicle(d.vehicle),
+    frontEnd,
+    upright: {
+      steeringAxis: d.upright.steeringAxis,
+      steeringArmJoint: resolveSidedVec(d.upright.steeringArmJoint),
+      wheelCentre: resolveSidedVec(d.upright.wheelCentre),
+      staticToeDeg: resolveSidedNumber(d.upright.staticToeDeg),
+      staticCamberDeg: resolveSidedNumber(d.upright.staticCamberDeg),
+    },
+    steering,
+    wheels: { front: { ...d.wheels.front }, rear: { ...d.wheels.rear } },
+    joints,
+    envelope: { ...d.envelope },
+    tolerances: withDefaults<Tolerances>(DEFAULT_TOLERANCES, d.tolerances),
+    ...(d.spring
+      ? { spring: { on: d.spring.on, frameMount: resolveSidedVec(d.spring.frameMount), armMount: resolveSidedVec(d.spring.armMount) } }
+      : {}),
+    parts: withDefaults<PartSizes>(DEFAULT_PART_SIZES, d.parts),
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Back to the file form
+// ---------------------------------------------------------------------------------------------
+
+function isMirror(right: Vec3Mm, left: Vec3Mm): boolean {
+  return left.x === right.x && left.y === -right.y && left.z === right.z;
+}
+
+/**
+ * A point pair as a single value when the left mirrors the right. Only if the right point has
+ * y <= 0: the file format reads a single point as the right side and refuses y > 0 there.
+ */
+export function compactPoint(p: PerSide<Vec3Mm>): Sided<Vec3Mm> {
+  return isMirror(p.right, p.left) && p.right.y <= 0 ? copyVec(p.right) : { right: copyVec(p.right), left: copyVec(p.left) };
+}
+
+/** Directions have no side restriction on y. */
+export function compactDirection(p: PerSide<Vec3Mm>): Sided<Vec3Mm> {
+  return isMirror(p.right, p.left) ? copyVec(p.right) : { right: copyVec(p.right), left: copyVec(p.left) };
+}
+
+export function compactNumber(p: PerSide<number>): Sided<number> {
+  return p.right === p.left ? p.right : { right: p.right, left: p.left };
+}
+
+/**
+ * Only values that differ from the defaults are written: a file that leaves a tolerance out
+ * means "the default", so writing defaults back would change nothing but the file's size.
+ * Returns undefined when everything is default, so the whole key can be left out.
+ */
+function differencesFrom<T extends object>(defaults: T, values: T): Partial<T> | undefined {
+  const result: Partial<T> = {};
+  let any = false;
+  for (const key of Object.keys(defaults) as (keyof T)[]) {
+    if (values[key] !== defaults[key]) {
+      result[key] = values[key];
+      any = true;
+    }
+  }
+  return any ? result : undefined;
+}
+
+/** The inverse of `resolveDesign`: resolveDesign(unresolveDesign(r)) equals r. */
+export function unresolveDesign(r: ResolvedDesign): DesignFile {
+  const frontEnd: DesignFile['frontEnd'] =
+    r.frontEnd.kind === 'splitWishbones'
+      ? {
+          kind: 'splitWishbones',
+          upper: {
+            frontPivot: compactPoint(r.frontEnd.upper.frontPivot),
+            rearPivot: compactPoint(r.frontEnd.upper.rearPivot),
+            outerJoint: compactPoint(r.frontEnd.upper.outerJoint),
+          },
+          lower: {
+            frontPivot: compactPoint(r.frontEnd.lower.frontPivot),
+            rearPivot: compactPoint(r.frontEnd.lower.rearPivot),
+            outerJoint: compactPoint(r.frontEnd.lower.outerJoint),
+          },
+        }
+      : {
+          kind: 'centrePivot',
+          upper: {
+            pivot: copyVec(r.frontEnd.upper.pivot),
+            pivotAxis: copyVec(r.frontEnd.upper.pivotAxis),
+            outerJoint: compactPoint(r.frontEnd.upper.outerJoint),
+          },
+          lower: {
+            pivot: copyVec(r.frontEnd.lower.pivot),
+            pivotAxis: copyVec(r.frontEnd.lower.pivotAxis),
+            outerJoint: compactPoint(r.frontEnd.lower.outerJoint),
+          },
+        };
+
+  const s = r.steering;
+  const steering: DesignFile['steering'] =
+    s.kind === 'bellCrank'
+      ? { kind: 'bellCrank', pivot: copyVec(s.pivot), axis: copyVec(s.axis), tieRodJoint: compactPoint(s.tieRodJoint), input: copyCrankInput(s.input) }
+      : s.kind === 'rack'
+        ? { kind: 'rack', axis: copyVec(s.axis), tieRodJoint: compactPoint(s.tieRodJoint), mmPerHandlebarDeg: s.mmPerHandlebarDeg }
+        : { kind: 'direct', pivot: copyVec(s.pivot), axis: copyVec(s.axis), tieRodJoint: compactPoint(s.tieRodJoint) };
+
+  const joints = {} as Joints;
+  for (const name of JOINT_NAMES) {
+    const j = r.joints[name];
+    joints[name] = { kind: j.kind, ratedDeg: j.ratedDeg, studAxis: compactDirection(j.studAxis) };
+  }
+
+  const tolerances = differencesFrom<Tolerances>(DEFAULT_TOLERANCES, r.tolerances);
+  const parts = differencesFrom<PartSizes>(DEFAULT_PART_SIZES, r.parts);
+
+  return {
+    tiltsheet: DESIGN_FORMAT_VERSION,
+    name: r.name,
+    ...(r.notes !== '' ? { notes: r.notes } : {}),
+    vehicle: copyVehicle(r.vehicle),
+    frontEnd,
+    upright: {
+      steeringAxis: r.upright.steeringAxis,
+      steeringArmJoint: compactPoint(r.upright.steeringArmJoint),
+      wheelCentre: compactPoint(r.upright.wheelCentre),
+      staticToeDeg: compactNumber(r.upright.staticToeDeg),
+      staticCamberDeg: compactNumber(r.upright.staticCamberDeg),
+    },
+    steering,
+    wheels: { front: { ...r.wheels.front }, rear: { ...r.wheels.rear } },
+    joints,
+    envelope: { ...r.envelope },
+    ...(tolerances ? { tolerances } : {}),
+    ...(r.spring
+      ? { spring: { on: r.spring.on, frameMount: compactPoint(r.spring.frameMount), armMount: compactPoint(r.spring.armMount) } }
+      : {}),
+    ...(parts ? { parts } : {}),
+  };
+}
