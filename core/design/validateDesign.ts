@@ -6,6 +6,7 @@
  * valid design, so they run only once the schema check has passed.
  */
 import { designFileSchema } from './designSchema';
+import { wheelSpinAxisAtDesign } from '../mechanism/wheelAxis';
 import { isTwoSided, resolveDesign } from './resolveDesign';
 import { describeFound, roundForMessage, validateAgainst, type SchemaIssue } from './schemaDsl';
 import {
@@ -410,20 +411,13 @@ function fixed(at: Vec3Mm, path: string): Located {
 }
 
 /**
- * The wheel's spin axis at design position from static toe and camber, pointing outward.
- * Right side: heading (cos toe, sin toe, 0) turns the front toward +y for toe-in; camber tilts
- * the top outward (-y), so the axis tips down at its outer end.
+ * The wheel's spin axis at design position from static toe and camber, pointing outward
+ * (the mechanism's convention, which points left on both sides, turned outward here).
  */
 export function spinAxis(side: Side, toeDeg: number, camberDeg: number): Vec3Mm {
-  const toe = (toeDeg * Math.PI) / 180;
-  const camber = (camberDeg * Math.PI) / 180;
-  const outwardY = side === 'right' ? -1 : 1;
-  const outwardHorizontal = { x: Math.sin(toe), y: outwardY * Math.cos(toe), z: 0 };
-  return {
-    x: Math.cos(camber) * outwardHorizontal.x,
-    y: Math.cos(camber) * outwardHorizontal.y,
-    z: -Math.sin(camber),
-  };
+  const [x, y, z] = wheelSpinAxisAtDesign(side, toeDeg, camberDeg);
+  const s = side === 'right' ? -1 : 1;
+  return { x: s * x, y: s * y, z: s * z };
 }
 
 /**
