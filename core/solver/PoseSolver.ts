@@ -147,7 +147,8 @@ export class PoseSolver {
       evaluations += out.evaluations;
       substeps++;
       const stepSize = next - reached;
-      const jump = this.jumped(stepSize, from, target);
+      // Only a converged step can have jumped branch; a failed one is handled as a failure.
+      const jump = out.ending === 'converged' && this.jumped(stepSize, from, target);
       if (out.ending === 'converged' && !jump) {
         reached = next;
         done++;
@@ -238,7 +239,11 @@ export class PoseSolver {
   private finishFailure(out: LmOutcome, jump: boolean, target: PoseInputs, reached: number): SolveResult {
     const m = this.mechanism;
     // Back to the last good pose so the caller (a sweep) can go on from it.
-    if (this.hasGood) m.setState(this.goodCoord, this.goodSph);
+    if (this.hasGood) {
+      // the good pose's inputs too: its coordinates with the partly reached inputs close no loop
+      m.applyInputs(this.goodInputs);
+      m.setState(this.goodCoord, this.goodSph);
+    }
     const culprit = out.worstResidual >= 0 ? m.constraintLabelOfRow(out.worstResidual) : undefined;
     const where = describeInputs(target);
     const gap = out.maxResidual;

@@ -49,6 +49,8 @@ export interface LmOutcome {
   worstResidual: number;
 }
 
+const STAGNATION_WINDOW = 10;
+
 export class LevenbergMarquardt {
   private readonly n: number;
   private readonly m: number;
@@ -63,6 +65,7 @@ export class LevenbergMarquardt {
   private readonly scale: Float64Array;
   private readonly pivots: Float64Array;
   private normalValid = false;
+  private readonly costHistory = new Float64Array(STAGNATION_WINDOW);
 
   constructor(private readonly problem: LeastSquaresProblem) {
     const n = problem.nVars;
@@ -104,7 +107,15 @@ export class LevenbergMarquardt {
     let mu = opts.tau;
     let nu = 2;
     let iterations = 0;
+    const costHistory = this.costHistory;
     while (iterations < opts.maxIterations) {
+      // Stagnation: a run that creeps (cost down by less than 1e-4 relative over the last
+      // STAGNATION_WINDOW iterations) is stuck at a gap, not converging; say so early
+      // instead of burning the iteration budget.
+      costHistory[iterations % STAGNATION_WINDOW] = cost;
+      if (iterations >= STAGNATION_WINDOW && cost > (1 - 1e-4) * costHistory[(iterations + 1) % STAGNATION_WINDOW]) {
+        return this.finish('stationary', iterations, evaluations, maxR);
+      }
       iterations++;
       // Stationary point with residual left: the loop cannot close here.
       if (maxAbs(g) < 1e-15 * Math.max(1, maxDiagonal(a, n))) {
