@@ -1,0 +1,235 @@
+/**
+ * Solver speed bench: `npm run bench` (tsx test/bench/run.ts).
+ *
+ * Prints one table, both tilting demos side by side (ground contact, steer by handlebar):
+ *   - warm-started poses/s along a lean x steer serpentine (median of 5 timed passes after a
+ *     warm-up pass), with iterations per pose, non-converged poses and the worst residual;
+ *   - cold-start solves/s at random poses inside the design's envelope;
+ *   - the same serpentine through ml-levenberg-marquardt (the general-purpose path), its
+ *     accuracy, and the ratio ours / general;
+ *   - a 91 x 61 x 9 lean x steer x travel envelope ('travel' mode), solver only, with a place
+ *     for the "with every measure" figure (see everyMeasureHook below).
+ * Targets are printed beside the figures with PASS / MISS as measured.
+ *
+ * Importing this module runs nothing; the measurement functions are re-exported from
+ * ./measure for reuse. Profile with (the directory keeps .cpuprofile files out of the repo):
+ *   node --import tsx --cpu-prof --cpu-prof-dir=/tmp/tiltbench-prof test/bench/run.ts
+ */
+
+import os from 'node:os';
+import { pathToFileURL } from 'node:url';
+import type { ResolvedDesign } from '../../core/design/types';
+import type { PoseSolver } from '../../core/solver/PoseSolver';
+import {
+  CPU_CLOCK,
+  GROUND_MODE,
+  TILTING_DEMOS,
+  TRAVEL_MODE,
+  envelopeGrid,
+  loadDemoDesign,
+  makeSolver,
+  median,
+  randomEnvelopePoses,
+  serpentineSweep,
+  timeColdSolves,
+  timeEnvelope,
+  timeGeneralSweep,
+  timeWarmSweep,
+  type EnvelopeGrid,
+  type GeneralStats,
+  type PoseHook,
+  type SweepStats,
+} from './measure';
+
+export * from './measure';
+export { FlatParameters } from './flatParameters';
+
+/** Project targets. */
+export const TARGETS = {
+  warmPosesPerSecond: 50_000,
+  ratioOverGeneral: 30,
+};
+
+// =============================================================================================
+// ANALYSIS OVERHEAD COLUMN ("with every measure") -- to be filled in by the analysis work.
+// Return a hook that computes every measure of the pose the solver has just solved; it runs
+// inside the timed loop of the envelope sweep, right after each solve, and must not change
+// the solver's state. While this returns undefined the column prints "not wired yet".
+// =============================================================================================
+export function everyMeasureHook(_design: ResolvedDesign, _solver: PoseSolver): PoseHook | undefined {
+  return undefined;
+}
+
+export interface BenchConfig {
+  passes: number;
+  warmupPasses: number;
+  coldPoses: number;
+  generalPasses: number;
+  envelopePasses: number;
+  /** Also run the general-purpose path with our analytic Jacobian (informative row). */
+  generalWithAnalyticJacobian: boolean;
+}
+
+export const DEFAULT_CONFIG: BenchConfig = {
+  passes: 5,
+  warmupPasses: 1,
+  coldPoses: 1000,
+  generalPasses: 5,
+  envelopePasses: 3,
+  generalWithAnalyticJacobian: true,
+};
+
+export interface DesignBench {
+  name: string;
+  label: string;
+  nVars: number;
+  nResiduals: number;
+  warm: SweepStats;
+  cold: SweepStats;
+  general: GeneralStats;
+  generalAnalytic?: GeneralStats;
+  envelope: SweepStats;
+  envelopeGrid: Omit<EnvelopeGrid, 'poses'>;
+  /** Envelope with every measure; undefined until everyMeasureHook returns a hook. */
+  envelopeWithMeasures?: SweepStats;
+}
+
+export function benchDesign(name: string, cfg: BenchConfig = DEFAULT_CONFIG): DesignBench {
+  const design = loadDemoDesign(name);
+  const solver = makeSolver(design, GROUND_MODE);
+  const sweep = serpentineSweep();
+  const warm = timeWarmSweep(solver, sweep, { passes: cfg.passes, warmupPasses: cfg.warmupPasses });
+  const cold = timeColdSolves(solver, randomEnvelopePoses(design, solver, cfg.coldPoses), {
+    passes: cfg.passes,
+    warmupPasses: cfg.warmupPasses,
+  });
+  const general = timeGeneralSweep(solver, sweep, {
+    jacobian: 'finite-difference',
+    passes: cfg.generalPasses,
+    warmupPasses: cfg.warmupPasses,
+  });
+  const generalAnalytic = cfg.generalWithAnalyticJacobian
+    ? timeGeneralSweep(solver, sweep, { jacobian: 'analytic', passes: cfg.generalPasses, warmupPasses: cfg.warmupPasses })
+    : undefined;
+  const travelSolver = makeSolver(design, TRAVEL_MODE);
+  const grid = envelopeGrid(design);
+  const envelope = timeEnvelope(travelSolver, grid, { passes: cfg.envelopePasses, warmupPasses: cfg.warmupPasses });
+  const hook = everyMeasureHook(design, travelSolver);
+  const envelopeWithMeasures = hook
+    ? timeEnvelope(travelSolver, grid, { passes: cfg.envelopePasses, warmupPasses: cfg.warmupPasses, hook })
+    : undefined;
+  const { poses: _poses, ...gridShape } = grid;
+  return {
+    name,
+    label: design.name.replace(/\s*\(demo\)\s*$/, ''),
+    nVars: solver.mechanism.nVars,
+    nResiduals: solver.mechanism.nResiduals,
+    warm,
+    cold,
+    general,
+    ...(generalAnalytic ? { generalAnalytic } : {}),
+    envelope,
+    envelopeGrid: gridShape,
+    ...(envelopeWithMeasures ? { envelopeWithMeasures } : {}),
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Formatting
+// ---------------------------------------------------------------------------------------------
+
+const int = (x: number) => Math.round(x).toLocaleString('en-US');
+const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(1) : String(x));
+const verdict = (ok: boolean) => (ok ? 'PASS' : 'MISS');
+/** Spread of the timed passes, as min..max in thousands. */
+const spread = (rates: number[]) => `${(Math.min(...rates) / 1000).toFixed(1)}k..${(Math.max(...rates) / 1000).toFixed(1)}k`;
+
+export function formatTable(results: DesignBench[], cfg: BenchConfig = DEFAULT_CONFIG): string {
+  type Row = [string, ...string[]];
+  const rows: Row[] = [];
+  const add = (label: string, cell: (r: DesignBench) => string, target = '') => rows.push([label, ...results.map(cell), target]);
+  const sep = () => rows.push(['']);
+  const sweepPoses = results[0].warm.poses;
+
+  rows.push(['', ...results.map((r) => r.label), 'target']);
+  add('unknowns x residuals (ground mode)', (r) => `${r.nVars} x ${r.nResiduals}`);
+  sep();
+  const warmCell = (x: number) => `${int(x)}  ${verdict(x >= TARGETS.warmPosesPerSecond)}`;
+  const ratioCell = (q: number) => `${q.toFixed(1)}x  ${verdict(q >= TARGETS.ratioOverGeneral)}`;
+  add(`WARM serpentine, ${sweepPoses} poses/pass: poses/s`, (r) => warmCell(r.warm.posesPerSecond), `>= ${int(TARGETS.warmPosesPerSecond)}`);
+  add(`  median of ${cfg.passes} passes; pass spread`, (r) => spread(r.warm.passRates));
+  add('  same, per CPU-second (see header)', (r) => warmCell(r.warm.cpuPosesPerSecond), `>= ${int(TARGETS.warmPosesPerSecond)}`);
+  add('  avg iterations / pose', (r) => r.warm.avgIterations.toFixed(2));
+  add('  non-converged poses', (r) => `${r.warm.nonConverged} / ${r.warm.poses}`);
+  add('  max residual, mm', (r) => sci(r.warm.maxResidualMm), '< 1e-9');
+  sep();
+  add(`COLD solve(x, false), ${results[0].cold.poses} random: solves/s`, (r) => int(r.cold.posesPerSecond));
+  add('  same, per CPU-second', (r) => int(r.cold.cpuPosesPerSecond));
+  add('  avg iterations / solve', (r) => r.cold.avgIterations.toFixed(1));
+  add('  non-converged', (r) => `${r.cold.nonConverged} / ${r.cold.poses}`);
+  sep();
+  add('GENERAL ml-levenberg-marquardt 5.1.0, same sweep', () => '');
+  add('  (its own finite-difference Jacobian): poses/s', (r) => int(r.general.posesPerSecond));
+  add(`  median of ${cfg.generalPasses} passes; pass spread`, (r) => spread(r.general.passRates));
+  add('  same, per CPU-second', (r) => int(r.general.cpuPosesPerSecond));
+  add('  avg iterations / pose', (r) => r.general.avgIterations.toFixed(2));
+  add('  avg residual-vector evaluations / pose', (r) => r.general.avgEvaluations.toFixed(1));
+  add('  max residual reached, mm (ours beside)', (r) => `${sci(r.general.maxResidualMm)} (${sci(r.warm.maxResidualMm)})`, '< 1e-9');
+  add('  poses above 1e-9 mm', (r) => `${r.general.nonConverged} / ${r.general.poses}`);
+  add('  max |p_general - p_ours| (rad or mm)', (r) => sci(r.general.maxDeviationFromOurs));
+  add(
+    `RATIO ours / general (finite-difference J)`,
+    (r) => ratioCell(r.general.pairedRatio),
+    `>= ${TARGETS.ratioOverGeneral}x`,
+  );
+  add('  same, per CPU-second', (r) => ratioCell(r.general.cpuPairedRatio), `>= ${TARGETS.ratioOverGeneral}x`);
+  add('  (ours in the paired passes: poses/s)', (r) => int(median(r.general.pairedOursRates)));
+  if (results.every((r) => r.generalAnalytic)) {
+    add('general with OUR analytic Jacobian: poses/s', (r) => int(r.generalAnalytic!.posesPerSecond));
+    add('  same, per CPU-second', (r) => int(r.generalAnalytic!.cpuPosesPerSecond));
+    add('  avg iterations; max residual, mm', (r) => `${r.generalAnalytic!.avgIterations.toFixed(2)}; ${sci(r.generalAnalytic!.maxResidualMm)}`);
+    add('  ratio ours / general (analytic J)', (r) => ratioCell(r.generalAnalytic!.pairedRatio), `>= ${TARGETS.ratioOverGeneral}x`);
+    add('  same, per CPU-second', (r) => ratioCell(r.generalAnalytic!.cpuPairedRatio), `>= ${TARGETS.ratioOverGeneral}x`);
+  }
+  sep();
+  const g = results[0].envelopeGrid;
+  add(`ENVELOPE ${g.leanDeg[2]} lean x ${g.handlebarDeg[2]} steer x ${g.travelMm[2]} travel ('travel' mode)`, () => '');
+  add('  lean / handlebar range, deg', (r) => `+-${r.envelopeGrid.leanDeg[1]} / +-${r.envelopeGrid.handlebarDeg[1]}`);
+  add(`  travel ${g.travelMm[0]}..${g.travelMm[1]} mm, both wheels: poses`, (r) => int(r.envelope.poses));
+  add(`  solver only: poses/s (median of ${cfg.envelopePasses})`, (r) => int(r.envelope.posesPerSecond));
+  add('  same, per CPU-second', (r) => int(r.envelope.cpuPosesPerSecond));
+  add('  solver only: seconds per envelope', (r) => (r.envelope.poses / r.envelope.posesPerSecond).toFixed(2));
+  add('  avg iterations; non-converged', (r) => `${r.envelope.avgIterations.toFixed(2)}; ${r.envelope.nonConverged}`);
+  // ---- "with every measure" column: filled once everyMeasureHook (above) returns a hook ----
+  add('  WITH EVERY MEASURE: poses/s', (r) =>
+    r.envelopeWithMeasures ? int(r.envelopeWithMeasures.posesPerSecond) : 'not wired yet',
+  );
+  add('  with every measure: seconds per envelope', (r) =>
+    r.envelopeWithMeasures ? (r.envelopeWithMeasures.poses / r.envelopeWithMeasures.posesPerSecond).toFixed(2) : '-',
+  );
+
+  const widths: number[] = [];
+  for (const row of rows) row.forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
+  return rows
+    .map((row) => row.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('   ').trimEnd())
+    .join('\n');
+}
+
+export function runBench(cfg: BenchConfig = DEFAULT_CONFIG): DesignBench[] {
+  return TILTING_DEMOS.map((name) => benchDesign(name, cfg));
+}
+
+function main(): void {
+  const t0 = performance.now();
+  const load = os.loadavg().map((x) => x.toFixed(2)).join(' ');
+  console.log(`Tiltbench solver bench -- node ${process.version}, ${os.cpus().length} CPU(s), load average ${load}`);
+  console.log("Ground contact, steer by handlebar; serpentine lean -20..20 step 0.5 x handlebar -20..20 in 61 steps.");
+  console.log('Each timed figure follows one untimed warm-up pass of the same work. Wall-clock figures are the');
+  console.log(`headline; per-CPU-second figures use ${CPU_CLOCK}, so they leave out time spent waiting for a CPU.`);
+  console.log('Ratios are medians over pairs of passes (a pose-solver pass right before each general pass).\n');
+  const results = runBench();
+  console.log(formatTable(results));
+  console.log(`\nbench time ${((performance.now() - t0) / 1000).toFixed(1)} s, load average after ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`);
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main();
