@@ -67,12 +67,12 @@ export function angleBetweenRotations(a: Mat3Like, ao: number, b: Mat3Like, bo: 
 /** Re-orthonormalise a rotation matrix in place (Gram-Schmidt on columns) to stop drift. */
 export function orthonormalize(m: Mat3Like, o: number): void {
   let x0 = m[o], x1 = m[o + 1], x2 = m[o + 2];
-  let n = Math.hypot(x0, x1, x2);
+  let n = Math.sqrt(x0 * x0 + x1 * x1 + x2 * x2);
   x0 /= n; x1 /= n; x2 /= n;
   let y0 = m[o + 3], y1 = m[o + 4], y2 = m[o + 5];
   const d = x0 * y0 + x1 * y1 + x2 * y2;
   y0 -= d * x0; y1 -= d * x1; y2 -= d * x2;
-  n = Math.hypot(y0, y1, y2);
+  n = Math.sqrt(y0 * y0 + y1 * y1 + y2 * y2);
   y0 /= n; y1 /= n; y2 /= n;
   m[o] = x0; m[o + 1] = x1; m[o + 2] = x2;
   m[o + 3] = y0; m[o + 4] = y1; m[o + 5] = y2;

@@ -78,6 +78,8 @@ export class CompiledMechanism implements LeastSquaresProblem {
   private readonly jointRot: Float64Array;
   private readonly inputs: PoseInputs;
 
+  /** The angle each revolute joint's cached rotation in jointRot was made for. */
+  private readonly rotCoord: Float64Array;
   private readonly savedCoord: Float64Array;
   private readonly savedSph: Float64Array;
   private readonly scratch = new Float64Array(9);
@@ -92,6 +94,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
     this.coord = new Float64Array(nb);
     this.sph = new Float64Array(9 * nb);
     this.jointRot = new Float64Array(9 * nb);
+    this.rotCoord = new Float64Array(nb).fill(NaN);
     this.parent = new Int32Array(nb);
     this.kind = new Int32Array(nb);
     this.origin = new Float64Array(3 * nb);
@@ -202,7 +205,11 @@ export class CompiledMechanism implements LeastSquaresProblem {
         tj2 = axis[3 * b + 2] * s;
       } else {
         if (k === KIND_REVOLUTE) {
-          rotationAboutAxis(jointRot, o, axis[3 * b], axis[3 * b + 1], axis[3 * b + 2], coord[b]);
+          // Driven joints keep their angle through a whole solve: reuse the rotation.
+          if (this.rotCoord[b] !== coord[b]) {
+            rotationAboutAxis(jointRot, o, axis[3 * b], axis[3 * b + 1], axis[3 * b + 2], coord[b]);
+            this.rotCoord[b] = coord[b];
+          }
         } else {
           for (let i = 0; i < 9; i++) jointRot[o + i] = sph[o + i];
         }
@@ -225,7 +232,16 @@ export class CompiledMechanism implements LeastSquaresProblem {
         trans[3 * b + 1] = rot[po + 1] * tj0 + rot[po + 4] * tj1 + rot[po + 7] * tj2 + trans[3 * p + 1];
         trans[3 * b + 2] = rot[po + 2] * tj0 + rot[po + 5] * tj1 + rot[po + 8] * tj2 + trans[3 * p + 2];
       }
-      // World screw axes of this joint's unknowns.
+    }
+  }
+
+  /** World screw axis and origin of every unknown, from the current body poses. */
+  private screwAxes(): void {
+    const { rot, trans, parent, kind, origin, axis } = this;
+    for (let b = 0; b < this.nBodies; b++) {
+      const k = kind[b];
+      const p = parent[b];
+      const ox = origin[3 * b], oy = origin[3 * b + 1], oz = origin[3 * b + 2];
       const v0 = this.firstVar[b];
       if (v0 >= 0) {
         // World position of the joint origin (fixed in the parent).
@@ -327,7 +343,10 @@ export class CompiledMechanism implements LeastSquaresProblem {
         case C_DISTANCE:
           this.worldPoint(c.bodyA, c.pA, pa);
           this.worldPoint(c.bodyB, c.pB, pb);
-          r[i] = Math.hypot(pa[0] - pb[0], pa[1] - pb[1], pa[2] - pb[2]) - c.length;
+          {
+            const dx = pa[0] - pb[0], dy = pa[1] - pb[1], dz = pa[2] - pb[2];
+            r[i] = Math.sqrt(dx * dx + dy * dy + dz * dz) - c.length;
+          }
           break;
         case C_GROUND: {
           this.worldPoint(c.bodyA, c.pA, pa);
@@ -362,6 +381,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
 
   jacobian(jac: Float64Array): void {
     const n = this.nVars;
+    this.screwAxes();
     jac.fill(0);
     const { pa, pb, dir, chainStart, chainVars, varAxis: A, varOrigin: O, varRot } = this;
     const nb = this.nBodies;
@@ -377,7 +397,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
             ux = pa[0] - pb[0];
             uy = pa[1] - pb[1];
             uz = pa[2] - pb[2];
-            const l = Math.hypot(ux, uy, uz);
+            const l = Math.sqrt(ux * ux + uy * uy + uz * uz);
             if (l > 0) {
               ux /= l; uy /= l; uz /= l;
             }
@@ -535,10 +555,10 @@ export class CompiledMechanism implements LeastSquaresProblem {
   }
 
   /**
-   * Largest change (radians for rotations, mm for slides) of any unknown between a stored
-   * state and the current one: the measure continuation uses to spot a branch jump.
+   * Largest rotation change (radians) of any unknown between a stored state and the current
+   * one (slides are left in lastChangeMm): the measure continuation uses to spot a branch jump.
    */
-  largestChange(coordRef: Float64Array, sphRef: Float64Array): { rad: number; mm: number } {
+  largestChange(coordRef: Float64Array, sphRef: Float64Array): number {
     let rad = 0;
     let mm = 0;
     for (let b = 0; b < this.nBodies; b++) {
@@ -547,8 +567,12 @@ export class CompiledMechanism implements LeastSquaresProblem {
       else if (this.kind[b] === KIND_REVOLUTE) rad = Math.max(rad, Math.abs(this.coord[b] - coordRef[b]));
       else mm = Math.max(mm, Math.abs(this.coord[b] - coordRef[b]));
     }
-    return { rad, mm };
+    this.lastChangeMm = mm;
+    return rad;
   }
+
+  /** The largest slide change (mm) found by the last `largestChange` call. */
+  lastChangeMm = 0;
 
   /**
    * Move the unknowns from the current state further along the step from a previous
@@ -579,6 +603,22 @@ export class CompiledMechanism implements LeastSquaresProblem {
         coord[b] += ratio * (coord[b] - prevCoord[b]);
       }
     }
+  }
+
+  /** Columns each residual row can touch: the unknowns in the chains of its bodies. */
+  jacobianPattern(): Int32Array[] {
+    const nb = this.nBodies;
+    const rows: Int32Array[] = [];
+    const chain = (b: number): number[] => {
+      const c = b < 0 ? nb + 1 : b;
+      return Array.from(this.chainVars.subarray(this.chainStart[c], this.chainStart[c + 1]));
+    };
+    for (const c of this.constraints) {
+      const cols = new Set<number>([...chain(c.bodyA), ...(c.code === C_COINCIDENT || c.code === C_DISTANCE || c.code === C_HEIGHT ? chain(c.bodyB) : [])]);
+      const arr = Int32Array.from([...cols].sort((x, y) => x - y));
+      for (let k = 0; k < c.rows; k++) rows.push(arr);
+    }
+    return rows;
   }
 
   /** Label of the constraint owning a residual row. */

@@ -70,6 +70,7 @@ export class PoseSolver {
   private readonly prevSph: Float64Array;
   private prevInputs: PoseInputs;
   private hasPrev = false;
+  private readonly lmOptions: { tolerance: number; maxIterations: number; tau: number };
   private readonly work: PoseInputs;
 
   constructor(graph: MechanismGraph, options: Partial<PoseSolverOptions> = {}) {
@@ -85,6 +86,7 @@ export class PoseSolver {
     this.prevCoord = new Float64Array(nb);
     this.prevSph = new Float64Array(9 * nb);
     this.prevInputs = { ...this.goodInputs };
+    this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10 };
     this.work = { ...this.goodInputs };
   }
 
@@ -141,7 +143,7 @@ export class PoseSolver {
       interpolateInputs(this.work, from, target, next);
       m.getState(this.stepCoord, this.stepSph);
       m.applyInputs(this.work);
-      const out = this.lm.solve({ tolerance: opts.toleranceMm, maxIterations: opts.maxIterations, tau: 1e-10 });
+      const out = this.lm.solve(this.lmOptions);
       last = out;
       iterations += out.iterations;
       evaluations += out.evaluations;
@@ -159,7 +161,7 @@ export class PoseSolver {
       if (bisections >= opts.maxBisections) {
         interpolateInputs(this.work, from, target, reached);
         m.applyInputs(this.work);
-        return this.finishFailure(out, jump, target, reached);
+        return this.finishFailure(out, jump, target, reached, iterations, evaluations, substeps);
       }
       bisections++;
       pieces = Math.round(1 / stepSize) * 2;
@@ -168,17 +170,21 @@ export class PoseSolver {
     }
     void done;
     const res = last!;
-    // Accept and remember as the warm start; the previous one feeds the predictor.
+    // Accept and remember as the warm start; the previous one feeds the predictor. The two
+    // input records swap roles instead of a new object per pose.
+    const other = this.prevInputs;
     if (this.hasGood && warm) {
       this.prevCoord.set(this.goodCoord);
       this.prevSph.set(this.goodSph);
       this.prevInputs = this.goodInputs;
       this.hasPrev = true;
     } else {
+      this.prevInputs = this.goodInputs;
       this.hasPrev = false;
     }
     m.getState(this.goodCoord, this.goodSph);
-    this.goodInputs = { ...target };
+    copyInputs(other, target);
+    this.goodInputs = other;
     this.hasGood = true;
     void predicted;
     const singular = res.pivotRatio < opts.singularPivotRatio;
@@ -228,15 +234,32 @@ export class PoseSolver {
       if (name.endsWith('Deg')) inputRad = Math.max(inputRad, d * DEG);
       else inputMm = Math.max(inputMm, d);
     }
-    const change = this.mechanism.largestChange(this.stepCoord, this.stepSph);
+    const changeRad = this.mechanism.largestChange(this.stepCoord, this.stepSph);
     // A branch switch moves joints by a finite amount however small the step; a steep but
     // continuous motion shrinks with it. Allow generous gearing: 25 degrees, or 12 times
     // the input change (radians), plus the mm change of an input travelling 1:1.
     const allowedRad = Math.max(25 * DEG, 12 * (inputRad + inputMm / 100));
-    return change.rad > allowedRad;
+    return changeRad > allowedRad;
   }
 
-  private finishFailure(out: LmOutcome, jump: boolean, target: PoseInputs, reached: number): SolveResult {
+  private finishFailure(
+    out: LmOutcome,
+    jump: boolean,
+    target: PoseInputs,
+    reached: number,
+    iterations: number,
+    evaluations: number,
+    substeps: number,
+  ): SolveResult {
+    const result = this.describeFailure(out, jump, target, reached);
+    // Count the whole attempt, every sub-step and retry, not only the last LM run.
+    result.iterations = iterations;
+    result.evaluations = evaluations;
+    result.substeps = substeps;
+    return result;
+  }
+
+  private describeFailure(out: LmOutcome, jump: boolean, target: PoseInputs, reached: number): SolveResult {
     const m = this.mechanism;
     // Back to the last good pose so the caller (a sweep) can go on from it.
     if (this.hasGood) {
@@ -279,6 +302,10 @@ export class PoseSolver {
       ...(culprit ? { culprit } : {}),
     };
   }
+}
+
+function copyInputs(out: PoseInputs, from: PoseInputs): void {
+  for (const name of INPUT_NAMES) out[name] = from[name];
 }
 
 function zeroLike(t: PoseInputs): PoseInputs {

@@ -17,6 +17,12 @@ export interface LeastSquaresProblem {
   residuals(r: Float64Array): boolean;
   /** Row-major nResiduals x nVars Jacobian at the state of the last `residuals` call. */
   jacobian(jac: Float64Array): void;
+  /**
+   * Optional static sparsity: for each residual row, the columns that can be non-zero.
+   * With it, J^T J is accumulated from the non-zeros only (the block-sparse structure of a
+   * linkage: each loop touches few joints).
+   */
+  jacobianPattern?(): Int32Array[];
   /** Apply an increment to the state. */
   step(h: Float64Array): void;
   save(): void;
@@ -66,6 +72,8 @@ export class LevenbergMarquardt {
   private readonly pivots: Float64Array;
   private normalValid = false;
   private readonly costHistory = new Float64Array(STAGNATION_WINDOW);
+  private readonly pattern: Int32Array[] | undefined;
+  private readonly invSqrtDiag: Float64Array;
 
   constructor(private readonly problem: LeastSquaresProblem) {
     const n = problem.nVars;
@@ -82,6 +90,8 @@ export class LevenbergMarquardt {
     this.h = new Float64Array(n);
     this.scale = new Float64Array(n);
     this.pivots = new Float64Array(n);
+    this.invSqrtDiag = new Float64Array(n);
+    this.pattern = problem.jacobianPattern?.();
   }
 
   /** The residual vector at the end of the last solve. */
@@ -89,13 +99,21 @@ export class LevenbergMarquardt {
     return this.r;
   }
 
+  /** Solve from the problem's current state. The outcome record is reused by the next solve. */
   solve(opts: LmOptions): LmOutcome {
     const { n, m, r, rTrial, a, aDamped, g, negG, h, scale } = this;
     const p = this.problem;
     let evaluations = 1;
     this.normalValid = false;
     if (!p.residuals(r)) {
-      return { ending: 'non-finite', iterations: 0, evaluations, maxResidual: Infinity, pivotRatio: 0, worstResidual: worstIndex(r) };
+      const o = this.outcome;
+      o.ending = 'non-finite';
+      o.iterations = 0;
+      o.evaluations = evaluations;
+      o.maxResidual = Infinity;
+      o.pivotRatio = 0;
+      o.worstResidual = worstIndex(r);
+      return o;
     }
     let cost = halfSquaredNorm(r);
     let maxR = maxAbs(r);
@@ -176,18 +194,46 @@ export class LevenbergMarquardt {
 
   /** A = J^T J, g = J^T r at the current state, and the Marquardt scaling diag(A). */
   private normalEquations(): void {
-    const { n, m, r, jac, a, g, scale } = this;
+    const { n, m, r, jac, a, g, scale, pattern } = this;
     this.problem.jacobian(jac);
     this.normalValid = true;
-    for (let i = 0; i < n; i++) {
-      let gi = 0;
-      for (let k = 0; k < m; k++) gi += jac[k * n + i] * r[k];
-      g[i] = gi;
-      for (let j = 0; j <= i; j++) {
-        let s = 0;
-        for (let k = 0; k < m; k++) s += jac[k * n + i] * jac[k * n + j];
-        a[i * n + j] = s;
-        a[j * n + i] = s;
+    if (pattern) {
+      a.fill(0);
+      g.fill(0);
+      for (let k = 0; k < m; k++) {
+        const cols = pattern[k];
+        const row = k * n;
+        const rk = r[k];
+        for (let p = 0; p < cols.length; p++) {
+          const i = cols[p];
+          const ji = jac[row + i];
+          if (ji === 0) continue;
+          g[i] += ji * rk;
+          for (let q = 0; q <= p; q++) {
+            const j = cols[q];
+            a[i * n + j] += ji * jac[row + j];
+          }
+        }
+      }
+      // The pattern's column order need not be sorted: fold both triangles, then mirror.
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < i; j++) {
+          const s = a[i * n + j] + a[j * n + i];
+          a[i * n + j] = s;
+          a[j * n + i] = s;
+        }
+      }
+    } else {
+      for (let i = 0; i < n; i++) {
+        let gi = 0;
+        for (let k = 0; k < m; k++) gi += jac[k * n + i] * r[k];
+        g[i] = gi;
+        for (let j = 0; j <= i; j++) {
+          let s = 0;
+          for (let k = 0; k < m; k++) s += jac[k * n + i] * jac[k * n + j];
+          a[i * n + j] = s;
+          a[j * n + i] = s;
+        }
       }
     }
     let maxD = 0;
@@ -195,15 +241,18 @@ export class LevenbergMarquardt {
     for (let i = 0; i < n; i++) scale[i] = Math.max(a[i * n + i], 1e-12 * maxD, 1e-300);
   }
 
+  /** One outcome record per solver, overwritten by each solve (no allocation per pose). */
+  private readonly outcome: LmOutcome = { ending: 'converged', iterations: 0, evaluations: 0, maxResidual: 0, pivotRatio: 1, worstResidual: -1 };
+
   private finish(ending: LmEnding, iterations: number, evaluations: number, maxResidual: number): LmOutcome {
-    return {
-      ending,
-      iterations,
-      evaluations,
-      maxResidual,
-      pivotRatio: this.conditioning(),
-      worstResidual: worstIndex(this.r),
-    };
+    const o = this.outcome;
+    o.ending = ending;
+    o.iterations = iterations;
+    o.evaluations = evaluations;
+    o.maxResidual = maxResidual;
+    o.pivotRatio = this.conditioning();
+    o.worstResidual = worstIndex(this.r);
+    return o;
   }
 
   /**
@@ -212,16 +261,18 @@ export class LevenbergMarquardt {
    * Zero means J lost rank: a dead centre or a degenerate linkage.
    */
   private conditioning(): number {
-    const { n, a, aDamped, pivots } = this;
+    const { n, a, aDamped, pivots, invSqrtDiag } = this;
     if (n === 0) return 1;
     // The normal matrix from the last accepted step is close enough to the end state for a
     // conditioning check; recompute only when none was formed yet.
     if (!this.normalValid) this.normalEquations();
     for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        const d = Math.sqrt(a[i * n + i] * a[j * n + j]);
-        aDamped[i * n + j] = d > 0 ? a[i * n + j] / d : i === j ? 0 : 0;
-      }
+      const d = a[i * n + i];
+      invSqrtDiag[i] = d > 0 ? 1 / Math.sqrt(d) : 0;
+    }
+    for (let i = 0; i < n; i++) {
+      const di = invSqrtDiag[i];
+      for (let j = 0; j <= i; j++) aDamped[i * n + j] = a[i * n + j] * di * invSqrtDiag[j];
     }
     if (!choleskyFactor(aDamped, n, pivots)) return 0;
     let lo = Infinity;
