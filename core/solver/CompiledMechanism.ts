@@ -575,32 +575,34 @@ export class CompiledMechanism implements LeastSquaresProblem {
   lastChangeMm = 0;
 
   /**
-   * Move the unknowns from the current state further along the step from a previous
-   * state: x <- x + ratio (x - prev); rotations by the same fraction of their relative
-   * rotation. Driven coordinates are left to the inputs.
+   * Extrapolate the unknowns from the current state x0 using earlier states x1 and x2:
+   * x <- x0 + l1 (x1 - x0) + l2 (x2 - x0), the Lagrange form with weights l1, l2 (l2 = 0 for a
+   * secant step). Rotations use rotation vectors relative to the current rotation, which
+   * is accurate for the small spans of a sweep. Driven coordinates are left to the inputs.
    */
-  extrapolate(prevCoord: Float64Array, prevSph: Float64Array, ratio: number): void {
+  extrapolate(c1: Float64Array, s1: Float64Array, l1: number, c2: Float64Array, s2: Float64Array, l2: number): void {
     const { coord, sph, kind, firstVar, tmp9, scratch } = this;
     const w = this.pa;
+    const w2 = this.pb;
     for (let b = 0; b < this.nBodies; b++) {
       if (firstVar[b] < 0) continue;
       if (kind[b] === KIND_SPHERICAL) {
         const o = 9 * b;
-        // relative rotation D = S prev^T; S <- exp(ratio log D) S
-        for (let c = 0; c < 3; c++) {
-          for (let r = 0; r < 3; r++) {
-            let s = 0;
-            for (let k = 0; k < 3; k++) s += sph[o + k * 3 + r] * prevSph[o + k * 3 + c];
-            tmp9[c * 3 + r] = s;
-          }
+        relativeRotationVector(w, s1, sph, o, tmp9);
+        let wx = l1 * w[0], wy = l1 * w[1], wz = l1 * w[2];
+        if (l2 !== 0) {
+          relativeRotationVector(w2, s2, sph, o, tmp9);
+          wx += l2 * w2[0];
+          wy += l2 * w2[1];
+          wz += l2 * w2[2];
         }
-        vectorFromRotation(w, tmp9, 0);
-        rotationFromVector(scratch, 0, ratio * w[0], ratio * w[1], ratio * w[2]);
+        rotationFromVector(scratch, 0, wx, wy, wz);
         multiplyMat3(tmp9, 0, scratch, 0, sph, o);
         for (let i = 0; i < 9; i++) sph[o + i] = tmp9[i];
         orthonormalize(sph, o);
       } else {
-        coord[b] += ratio * (coord[b] - prevCoord[b]);
+        const x0 = coord[b];
+        coord[b] = x0 + l1 * (c1[b] - x0) + (l2 !== 0 ? l2 * (c2[b] - x0) : 0);
       }
     }
   }
@@ -699,6 +701,19 @@ function compileConstraint(c: Constraint, row: number, nb: number): CompiledCons
       break;
   }
   return base;
+}
+
+/** Rotation vector of other * current^T (the rotation taking the current state to another). */
+function relativeRotationVector(out: Float64Array, other: Float64Array, current: Float64Array, o: number, tmp: Float64Array): void {
+  // (other current^T)_rc = sum_k other_rk current_ck, column-major m_rc = m[o + c*3 + r]
+  for (let c = 0; c < 3; c++) {
+    for (let r = 0; r < 3; r++) {
+      let s = 0;
+      for (let k = 0; k < 3; k++) s += other[o + k * 3 + r] * current[o + k * 3 + c];
+      tmp[c * 3 + r] = s;
+    }
+  }
+  vectorFromRotation(out, tmp, 0);
 }
 
 function unit(v: Vec3): Vec3 {

@@ -70,6 +70,11 @@ export class PoseSolver {
   private readonly prevSph: Float64Array;
   private prevInputs: PoseInputs;
   private hasPrev = false;
+  /** The good pose before that, for the quadratic predictor. */
+  private readonly prev2Coord: Float64Array;
+  private readonly prev2Sph: Float64Array;
+  private prev2Inputs: PoseInputs;
+  private hasPrev2 = false;
   private readonly lmOptions: { tolerance: number; maxIterations: number; tau: number };
   private readonly work: PoseInputs;
 
@@ -86,6 +91,9 @@ export class PoseSolver {
     this.prevCoord = new Float64Array(nb);
     this.prevSph = new Float64Array(9 * nb);
     this.prevInputs = { ...this.goodInputs };
+    this.prev2Coord = new Float64Array(nb);
+    this.prev2Sph = new Float64Array(9 * nb);
+    this.prev2Inputs = { ...this.goodInputs };
     this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10 };
     this.work = { ...this.goodInputs };
   }
@@ -99,6 +107,7 @@ export class PoseSolver {
   reset(): void {
     this.hasGood = false;
     this.hasPrev = false;
+    this.hasPrev2 = false;
   }
 
   /**
@@ -172,15 +181,24 @@ export class PoseSolver {
     const res = last!;
     // Accept and remember as the warm start; the previous one feeds the predictor. The two
     // input records swap roles instead of a new object per pose.
-    const other = this.prevInputs;
+    // The three input records rotate roles instead of a new object per pose.
+    const other = this.prev2Inputs;
     if (this.hasGood && warm) {
+      if (this.hasPrev) {
+        this.prev2Coord.set(this.prevCoord);
+        this.prev2Sph.set(this.prevSph);
+      }
+      this.prev2Inputs = this.prevInputs;
+      this.hasPrev2 = this.hasPrev;
       this.prevCoord.set(this.goodCoord);
       this.prevSph.set(this.goodSph);
       this.prevInputs = this.goodInputs;
       this.hasPrev = true;
     } else {
+      this.prev2Inputs = this.prevInputs;
       this.prevInputs = this.goodInputs;
       this.hasPrev = false;
+      this.hasPrev2 = false;
     }
     m.getState(this.goodCoord, this.goodSph);
     copyInputs(other, target);
@@ -202,26 +220,30 @@ export class PoseSolver {
   }
 
   /**
-   * Secant predictor along a sweep: when the inputs keep moving in the same direction,
-   * extrapolate the last two good poses (rotations on their manifold). A good guess halves
-   * the iterations; a bad one is harmless because the corrector and the jump check follow.
+   * Predictor along a sweep: when the inputs keep moving along one line, extrapolate the
+   * last good poses to the target (rotations on their manifold) by Lagrange polynomials in
+   * the distance along that line: quadratic through the last three poses, or linear (secant)
+   * through the last two. A good guess saves Newton iterations; a bad one is harmless because
+   * the corrector and the jump check follow.
    */
   private predict(target: PoseInputs): boolean {
     if (!this.hasPrev) return false;
-    let dot = 0;
-    let n1 = 0;
-    let n2 = 0;
-    for (const name of INPUT_NAMES) {
-      const d1 = this.goodInputs[name] - this.prevInputs[name];
-      const d2 = target[name] - this.goodInputs[name];
-      dot += d1 * d2;
-      n1 += d1 * d1;
-      n2 += d2 * d2;
+    const d1 = collinearStep(this.prevInputs, this.goodInputs, target);
+    if (d1 === null || d1.ratio > 2) return false;
+    // positions along the line: good at 0, prev at -1 (in units of the last step), target at T
+    const T = d1.ratio;
+    let l1 = -T; // secant: x = x0 + T (x0 - x1)
+    let l2 = 0;
+    if (this.hasPrev2) {
+      const d2 = collinearStep(this.prev2Inputs, this.prevInputs, target);
+      if (d2 !== null && d2.ratio > 0) {
+        const t1 = -1;
+        const t2 = -1 - d2.length / d1.length;
+        l1 = (T * (T - t2)) / (t1 * (t1 - t2));
+        l2 = (T * (T - t1)) / (t2 * (t2 - t1));
+      }
     }
-    if (!(n1 > 0) || !(n2 > 0) || dot < 0.9999 * Math.sqrt(n1 * n2)) return false;
-    const ratio = Math.sqrt(n2 / n1);
-    if (ratio > 2) return false;
-    this.mechanism.extrapolate(this.prevCoord, this.prevSph, ratio);
+    this.mechanism.extrapolate(this.prevCoord, this.prevSph, l1, this.prev2Coord, this.prev2Sph, l2);
     return true;
   }
 
@@ -302,6 +324,25 @@ export class PoseSolver {
       ...(culprit ? { culprit } : {}),
     };
   }
+}
+
+/**
+ * Whether the step a -> b and the step b -> target point the same way; if so the length of
+ * a -> b and the ratio |b -> target| / |a -> b|.
+ */
+function collinearStep(a: PoseInputs, b: PoseInputs, target: PoseInputs): { length: number; ratio: number } | null {
+  let dot = 0;
+  let n1 = 0;
+  let n2 = 0;
+  for (const name of INPUT_NAMES) {
+    const s1 = b[name] - a[name];
+    const s2 = target[name] - b[name];
+    dot += s1 * s2;
+    n1 += s1 * s1;
+    n2 += s2 * s2;
+  }
+  if (!(n1 > 0) || !(n2 > 0) || dot < 0.9999 * Math.sqrt(n1 * n2)) return null;
+  return { length: Math.sqrt(n1), ratio: Math.sqrt(n2 / n1) };
 }
 
 function copyInputs(out: PoseInputs, from: PoseInputs): void {
