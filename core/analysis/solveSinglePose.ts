@@ -1,7 +1,12 @@
 /**
  * One pose, start to finish: build the mechanism for the requested mode, solve from the
  * design pose with continuation (so the design's assembly branch is kept), and report the
- * result as plain data and as text.
+ * result as plain data and as text, with every analysis measure (PoseAnalyser).
+ *
+ * The measures that need other poses come from a few extra solves with a second solver
+ * (steer by handlebar, same contact), each from the design pose: the reference pose for the
+ * toe error (zero lean and travel, same handlebar), the handlebar +-0.25 deg either side for
+ * the local steering ratio, and straight ahead at the same lean and travel for the front lift.
  */
 
 import type { ResolvedDesign } from '../design/types';
@@ -9,6 +14,11 @@ import { buildMechanism, type PoseMode } from '../mechanism/templates/buildMecha
 import { zeroInputs, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
 import { PoseSolver, type SolveResult } from '../solver/PoseSolver';
 import { takeSnapshot, type PoseSnapshot } from './poseSnapshot';
+import type { PoseAnalysis } from './analysisTypes';
+import { PoseAnalyser, frontLift, type ToeReference } from './PoseAnalyser';
+import { localSteeringRatio } from './steeringLinkage';
+import { formatPoseAnalysis } from './formatPoseAnalysis';
+import { ANALYSIS_DEFINITIONS } from './definitions';
 
 export interface PoseRequest extends PoseMode {
   leanDeg: number;
@@ -38,7 +48,14 @@ export interface PoseReport {
   inputs: PoseInputs;
   wheels?: { left: WheelReport; right: WheelReport };
   points?: Record<string, { x: number; y: number; z: number }>;
+  /** Every analysis measure of the pose (see analysisTypes.ts), when it was solved. */
+  analysis?: PoseAnalysis;
+  /** Sign conventions and definitions of the measures. */
+  definitions?: typeof ANALYSIS_DEFINITIONS;
 }
+
+/** Half the handlebar step used for the local steering ratio, degrees. */
+export const LOCAL_RATIO_STEP_DEG = 0.25;
 
 export function requestInputs(r: PoseRequest): PoseInputs {
   return {
@@ -86,7 +103,43 @@ export function solveSinglePose(
   });
   report.wheels = { left: wheel(snapshot.wheels.left), right: wheel(snapshot.wheels.right) };
   report.points = Object.fromEntries(Object.entries(snapshot.points).map(([k, p]) => [k, xyz(p)]));
+  report.analysis = analyseSinglePose(design, mode, solver, result);
+  report.definitions = ANALYSIS_DEFINITIONS;
   return { result, snapshot, report, text: poseText(design, report, result) };
+}
+
+/** The analysis of the pose `solver` has just solved, with the extra solves its neighbour measures need. */
+function analyseSinglePose(design: ResolvedDesign, mode: PoseMode, solver: PoseSolver, result: SolveResult): PoseAnalysis {
+  const here = { ...solver.mechanism.currentInputs, ...solver.mechanism.reportedInputs() };
+  const aux = new PoseSolver(buildMechanism(design, { contact: mode.contact, steerBy: 'handlebar' }));
+  const auxAnalyser = new PoseAnalyser(design, aux.mechanism, { findings: false });
+  const at = (patch: Partial<PoseInputs>): PoseAnalysis | null => {
+    const r = aux.solve({ ...here, wheelAngleDeg: 0, ...patch }, false);
+    return r.status === 'converged' || r.status === 'singular' ? auxAnalyser.analyse(r) : null;
+  };
+  const ref = at({ leanDeg: 0, heaveMm: 0, travelLeftMm: 0, travelRightMm: 0 });
+  const toeRef: ToeReference = ref
+    ? { leftDeg: ref.wheels.left.toeDeg, rightDeg: ref.wheels.right.toeDeg }
+    : { reason: 'the reference pose (zero lean and travel, same handlebar) could not be solved' };
+  const analysis = new PoseAnalyser(design, solver.mechanism).analyse(result, toeRef);
+  const lo = at({ handlebarDeg: here.handlebarDeg - LOCAL_RATIO_STEP_DEG });
+  const hi = at({ handlebarDeg: here.handlebarDeg + LOCAL_RATIO_STEP_DEG });
+  const st = analysis.steering;
+  if (lo && hi) {
+    st.localRatio = localSteeringRatio(lo.steering.handlebarDeg, lo.steering.meanWheelDeg, hi.steering.handlebarDeg, hi.steering.meanWheelDeg);
+    st.localRatioReason = st.localRatio === null ? 'the road wheels did not turn between the neighbouring poses' : undefined;
+  } else {
+    st.localRatioReason = `a pose ${LOCAL_RATIO_STEP_DEG} deg of handlebar either side could not be solved`;
+  }
+  const straight = here.handlebarDeg === 0 && mode.steerBy === 'handlebar' ? analysis : at({ handlebarDeg: 0 });
+  const su = analysis.suspension;
+  if (straight) {
+    su.frontLiftMm = frontLift(analysis, straight);
+    su.frontLiftReason = undefined;
+  } else {
+    su.frontLiftReason = 'the straight-ahead pose at this lean and travel could not be solved';
+  }
+  return analysis;
 }
 
 function statusLine(r: SolveResult): string {
@@ -112,7 +165,9 @@ function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult): stri
         `${w.centreMm.x.toFixed(2)}, ${w.centreMm.y.toFixed(2)}, ${w.centreMm.z.toFixed(2)}`,
     );
   }
-  lines.push('  (toe-in positive; steer = road-wheel angle, positive left; camber top-outward positive)', '', 'hardpoint                                   x(mm)      y(mm)      z(mm)');
+  lines.push('  (toe-in positive; steer = road-wheel angle, positive left; camber top-outward positive)', '');
+  if (rep.analysis) lines.push(formatPoseAnalysis(rep.analysis, design));
+  lines.push('hardpoint                                   x(mm)      y(mm)      z(mm)');
   for (const [id, p] of Object.entries(rep.points!)) {
     lines.push(`${id.padEnd(38)} ${f(p.x)}  ${f(p.y)}  ${f(p.z)}`);
   }

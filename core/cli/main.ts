@@ -5,6 +5,8 @@
 import { processIo, type CliIo, EXIT_BAD_INPUT, SAFETY_CAUTION } from './io';
 import { runValidate, validateHelp } from './commands/validate';
 import { runPose, poseHelp } from './commands/pose';
+import { runSweepCommand, sweepHelp } from './commands/sweep';
+import { runCheck, checkHelp } from './commands/check';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -15,6 +17,8 @@ export interface CliCommand {
 export const COMMANDS: Record<string, CliCommand> = {
   validate: { run: runValidate, help: validateHelp },
   pose: { run: runPose, help: poseHelp },
+  sweep: { run: runSweepCommand, help: sweepHelp },
+  check: { run: runCheck, help: checkHelp },
 };
 
 function usage(): string {

@@ -168,7 +168,9 @@ function jsonSyntaxIssue(text: string, error: unknown, fileName: string): Design
   // Engines word JSON.parse errors differently and some give no position (V8 in Node 20:
   // "Unexpected token '}', ... is not valid JSON"), so find the position ourselves and use the
   // engine's "position N" only if our scanner disagrees with the engine.
-  const located = findJsonSyntaxError(text);
+  const scanned = findJsonSyntaxError(text);
+  // Past MAX_JSON_DEPTH the scanner stops looking; the engine (which has no such limit) knows where the error is.
+  const located = scanned?.reason === 'nested too deeply' && /position \d+/.test(error instanceof Error ? error.message : '') ? undefined : scanned;
   const engineMessage = error instanceof Error ? error.message : String(error);
   const enginePosition = /position (\d+)/.exec(engineMessage);
   const offset = located?.offset ?? (enginePosition ? Number(enginePosition[1]) : undefined);

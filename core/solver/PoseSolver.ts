@@ -87,6 +87,8 @@ export class PoseSolver {
     this.goodSph = new Float64Array(9 * nb);
     this.stepCoord = new Float64Array(nb);
     this.stepSph = new Float64Array(9 * nb);
+    this.turnCoord = new Float64Array(nb);
+    this.turnSph = new Float64Array(9 * nb);
     this.goodInputs = { ...this.mechanism.currentInputs };
     this.prevCoord = new Float64Array(nb);
     this.prevSph = new Float64Array(9 * nb);
@@ -105,6 +107,7 @@ export class PoseSolver {
 
   /** Forget the warm start: the next solve starts from the design pose. */
   reset(): void {
+    this.failedAt = undefined;
     this.hasGood = false;
     this.hasPrev = false;
     this.hasPrev2 = false;
@@ -121,16 +124,63 @@ export class PoseSolver {
       }
     }
     const m = this.mechanism;
+    // Past a boundary already found from this good pose: the loop broke there, so anything
+    // further along the same line is on no branch reachable from here.
+    if (warm && this.hasGood && this.failedAt && this.beyond(this.failedAt.inputs, target)) {
+      return { ...this.failedAt.result, message: `${this.failedAt.result.message}; ${describeInputs(target)} lies beyond it`, iterations: 0, evaluations: 0, substeps: 1 };
+    }
     let from: PoseInputs;
     let predicted = false;
-    if (warm && this.hasGood) {
+    const opts0 = this.options;
+    this.startedCold = false;
+    let turning = false;
+    if (warm && this.hasGood && this.hasPrev && this.reverses(target)) {
+      // Going back the way the last step came: start from the previous good pose when the
+      // target is at or past it, else from between the two, so the linkage retraces its own
+      // branch instead of being solved afresh next to a turning point.
+      const back = this.backFraction(target);
+      turning = true;
+      if (back >= 1 - 1e-12) {
+        from = this.prevInputs;
+        m.applyInputs(this.prevInputs);
+        m.setState(this.prevCoord, this.prevSph);
+      } else {
+        from = this.goodInputs;
+        m.setState(this.goodCoord, this.goodSph);
+        m.extrapolate(this.prevCoord, this.prevSph, back, this.prevCoord, this.prevSph, 0);
+      }
+    } else if (warm && this.hasGood) {
       from = this.goodInputs;
       m.setState(this.goodCoord, this.goodSph);
+      // The first stretch starts at the good pose, whatever the predictor guesses: the jump
+      // check measures from here, and a retry starts from here.
+      m.getState(this.stepCoord, this.stepSph);
       predicted = this.predict(target);
     } else {
+      this.startedCold = true;
       from = zeroLike(target);
       m.applyInputs(from);
       m.resetToDesign();
+      // Settle at zero inputs first: a design position that does not quite close in this
+      // mode (a wheel centre whose height does not match the tyre, for ground contact) is
+      // brought to the nearest closed pose before continuation, with no jump check, since
+      // no input has moved yet.
+      const settle = this.lm.solve(this.lmOptions);
+      if (settle.ending === 'non-finite') {
+        return this.fail('did-not-converge', 'the constraints could not be evaluated at the design position (does the design hold a non-finite number?)');
+      }
+      if (settle.ending !== 'converged') {
+        const culprit = settle.worstResidual >= 0 ? m.constraintLabelOfRow(settle.worstResidual) : undefined;
+        const result = this.fail(
+          settle.maxResidual > opts0.assemblyGapMm ? 'cannot-assemble' : 'did-not-converge',
+          `the design position cannot be closed in this mode at zero inputs; worst: ${culprit} (${fmt(settle.maxResidual)} mm)`,
+          culprit,
+          settle.maxResidual,
+          settle,
+        );
+        result.substeps = 1;
+        return result;
+      }
     }
     const opts = this.options;
     // How many sub-steps the input change needs.
@@ -147,10 +197,16 @@ export class PoseSolver {
     let bisections = 0;
     let last: LmOutcome | undefined;
     let reached = 0; // fraction in [0, 1]
+    // Coming back along the line the last step came in on: the first sub-step must move the
+    // linkage back the way it came; one that carries on through a turning point has crossed
+    // onto the other assembly branch (near a dead centre both branches are close, so the jump
+    // check cannot see it).
+    let checkTurn = turning && from === this.goodInputs;
     while (reached < 1) {
       const next = Math.min(1, reached + 1 / pieces);
       interpolateInputs(this.work, from, target, next);
-      m.getState(this.stepCoord, this.stepSph);
+      if (predicted) predicted = false;
+      else m.getState(this.stepCoord, this.stepSph);
       m.applyInputs(this.work);
       const out = this.lm.solve(this.lmOptions);
       last = out;
@@ -159,8 +215,21 @@ export class PoseSolver {
       substeps++;
       const stepSize = next - reached;
       // Only a converged step can have jumped branch; a failed one is handled as a failure.
-      const jump = out.ending === 'converged' && this.jumped(stepSize, from, target);
-      if (out.ending === 'converged' && !jump) {
+      let jump = out.ending === 'converged' && this.jumped(stepSize, from, target);
+      if (checkTurn && out.ending === 'converged' && !jump && this.carriedOn()) {
+        // Try again from the mirror image of that solution about the good pose: the same
+        // branch lies on the other side.
+        m.getState(this.turnCoord, this.turnSph);
+        m.setState(this.stepCoord, this.stepSph);
+        m.extrapolate(this.turnCoord, this.turnSph, -1, this.turnCoord, this.turnSph, 0);
+        const again = this.lm.solve(this.lmOptions);
+        iterations += again.iterations;
+        evaluations += again.evaluations;
+        last = again;
+        jump = !(again.ending === 'converged' && !this.jumped(stepSize, from, target) && !this.carriedOn());
+      }
+      checkTurn = false;
+      if (last!.ending === 'converged' && !jump) {
         reached = next;
         done++;
         continue;
@@ -170,7 +239,7 @@ export class PoseSolver {
       if (bisections >= opts.maxBisections) {
         interpolateInputs(this.work, from, target, reached);
         m.applyInputs(this.work);
-        return this.finishFailure(out, jump, target, reached, iterations, evaluations, substeps);
+        return this.finishFailure(last!, jump, target, reached, iterations, evaluations, substeps);
       }
       bisections++;
       pieces = Math.round(1 / stepSize) * 2;
@@ -183,7 +252,20 @@ export class PoseSolver {
     // input records swap roles instead of a new object per pose.
     // The three input records rotate roles instead of a new object per pose.
     const other = this.prev2Inputs;
-    if (this.hasGood && warm) {
+    const same = this.hasGood && warm && INPUT_NAMES.every((k) => target[k] === this.goodInputs[k]);
+    this.failedAt = undefined;
+    if (same) {
+      // The same pose again: keep the direction the sweep came from.
+      m.getState(this.goodCoord, this.goodSph);
+      return this.finishSuccess(res, iterations, evaluations, substeps);
+    }
+    if (this.hasGood && warm && turning) {
+      // After retracing, the old good poses are not on the line behind the new one: no predictor.
+      this.prev2Inputs = this.prevInputs;
+      this.prevInputs = this.goodInputs;
+      this.hasPrev = false;
+      this.hasPrev2 = false;
+    } else if (this.hasGood && warm) {
       if (this.hasPrev) {
         this.prev2Coord.set(this.prevCoord);
         this.prev2Sph.set(this.prevSph);
@@ -204,7 +286,11 @@ export class PoseSolver {
     copyInputs(other, target);
     this.goodInputs = other;
     this.hasGood = true;
-    void predicted;
+    return this.finishSuccess(res, iterations, evaluations, substeps);
+  }
+
+  private finishSuccess(res: LmOutcome, iterations: number, evaluations: number, substeps: number): SolveResult {
+    const opts = this.options;
     const singular = res.pivotRatio < opts.singularPivotRatio;
     if (singular) {
       return {
@@ -247,6 +333,98 @@ export class PoseSolver {
     return true;
   }
 
+  private failedAt: { inputs: PoseInputs; result: SolveResult } | undefined;
+  /** Whether the solve under way started from the design pose. */
+  private startedCold = false;
+
+  /** Whether `target` lies on the ray from the good pose through `failed`, at or past it. */
+  private beyond(failed: PoseInputs, target: PoseInputs): boolean {
+    let dot = 0;
+    let nf = 0;
+    let nt = 0;
+    for (const name of INPUT_NAMES) {
+      const f = failed[name] - this.goodInputs[name];
+      const t = target[name] - this.goodInputs[name];
+      dot += f * t;
+      nf += f * f;
+      nt += t * t;
+    }
+    return nf > 0 && dot >= 0.9999 * Math.sqrt(nf * nt) && nt >= nf;
+  }
+
+  /** How far back toward the previous good pose the target lies: |target - good| / |prev - good|. */
+  private backFraction(target: PoseInputs): number {
+    let n1 = 0;
+    let n2 = 0;
+    for (const name of INPUT_NAMES) {
+      const d1 = this.goodInputs[name] - this.prevInputs[name];
+      const d2 = target[name] - this.goodInputs[name];
+      n1 += d1 * d1;
+      n2 += d2 * d2;
+    }
+    return Math.sqrt(n2 / n1);
+  }
+
+  /** The target lies back along the line of the last accepted step (inputs antiparallel). */
+  private reverses(target: PoseInputs): boolean {
+    let dot = 0;
+    let n1 = 0;
+    let n2 = 0;
+    for (const name of INPUT_NAMES) {
+      const d1 = this.goodInputs[name] - this.prevInputs[name];
+      const d2 = target[name] - this.goodInputs[name];
+      dot += d1 * d2;
+      n1 += d1 * d1;
+      n2 += d2 * d2;
+    }
+    return n1 > 0 && n2 > 0 && dot <= -0.9999 * Math.sqrt(n1 * n2);
+  }
+
+  /**
+   * Whether the sub-step just solved moved the linkage on in the direction of the last accepted
+   * step (prev -> good) instead of back: the dot product of the two motions of the named
+   * points, each measured with the driven joints at the current inputs.
+   */
+  private carriedOn(): boolean {
+    const m = this.mechanism;
+    const pts = m.graph.points;
+    const n = 3 * pts.length;
+    if (n === 0) return false;
+    const at = (out: Float64Array) => {
+      m.forward();
+      for (let i = 0; i < pts.length; i++) m.worldPoint(pts[i].body, pts[i].design, out, 3 * i);
+    };
+    if (this.pNow.length !== n) {
+      this.pNow = new Float64Array(n);
+      this.pGood = new Float64Array(n);
+      this.pPrev = new Float64Array(n);
+    }
+    m.getState(this.turnCoord, this.turnSph);
+    at(this.pNow);
+    m.setState(this.goodCoord, this.goodSph);
+    at(this.pGood);
+    m.setState(this.prevCoord, this.prevSph);
+    at(this.pPrev);
+    m.setState(this.turnCoord, this.turnSph);
+    let dot = 0;
+    let a2 = 0;
+    let b2 = 0;
+    for (let i = 0; i < n; i++) {
+      const a = this.pNow[i] - this.pGood[i];
+      const b = this.pGood[i] - this.pPrev[i];
+      dot += a * b;
+      a2 += a * a;
+      b2 += b * b;
+    }
+    // Ignore motions lost in rounding (a pose that barely moves has no direction).
+    return a2 > 1e-18 && b2 > 1e-18 && dot > 0;
+  }
+  private pNow = new Float64Array(0);
+  private pGood = new Float64Array(0);
+  private pPrev = new Float64Array(0);
+  private turnCoord = new Float64Array(0);
+  private turnSph = new Float64Array(0);
+
   /** A converged sub-step that moved some joint far more than the input change allows. */
   private jumped(stepFraction: number, from: PoseInputs, target: PoseInputs): boolean {
     let inputRad = 0;
@@ -278,6 +456,8 @@ export class PoseSolver {
     result.iterations = iterations;
     result.evaluations = evaluations;
     result.substeps = substeps;
+    // A boundary (the loop cannot close) is remembered; a refused jump is not one.
+    if (this.hasGood && !jump) this.failedAt = { inputs: { ...target }, result: { ...result } };
     return result;
   }
 
@@ -292,6 +472,16 @@ export class PoseSolver {
     const culprit = out.worstResidual >= 0 ? m.constraintLabelOfRow(out.worstResidual) : undefined;
     const where = describeInputs(target);
     const gap = out.maxResidual;
+    if (jump && reached === 0 && this.startedCold) {
+      return this.fail(
+        'singular',
+        `from the design position the first step toward ${where} moves a joint far more than the inputs allow: ` +
+          'the design position may not close in this mode (for ground contact, check the wheel-centre height against the tyre radii) or sits at a dead centre',
+        culprit,
+        gap,
+        out,
+      );
+    }
     if (jump) {
       return this.fail(
         'singular',

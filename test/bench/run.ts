@@ -40,6 +40,7 @@ import {
   type PoseHook,
   type SweepStats,
 } from './measure';
+import { everyMeasureHookFor } from './envelope';
 
 export * from './measure';
 export { FlatParameters } from './flatParameters';
@@ -56,8 +57,8 @@ export const TARGETS = {
 // inside the timed loop of the envelope sweep, right after each solve, and must not change
 // the solver's state. While this returns undefined the column prints "not wired yet".
 // =============================================================================================
-export function everyMeasureHook(_design: ResolvedDesign, _solver: PoseSolver): PoseHook | undefined {
-  return undefined;
+export function everyMeasureHook(design: ResolvedDesign, solver: PoseSolver): PoseHook | undefined {
+  return everyMeasureHookFor(design, solver);
 }
 
 export interface BenchConfig {

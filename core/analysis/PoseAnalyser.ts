@@ -1,0 +1,348 @@
+/**
+ * Every measure of one solved pose, as plain data. Built once per mechanism (it finds the
+ * bodies, points and clearance pairs it needs), then `analyse()` reads the mechanism's
+ * current state after each solve. It never changes the mechanism or the solver.
+ *
+ * Two measures need other poses and are filled in by whoever has them (the sweep from
+ * neighbouring cells, solveSinglePose from extra solves): the local steering ratio and the
+ * front lift with steer. The toe error (lean steer + bump steer) needs the road-wheel angles
+ * of the reference pose (zero lean, zero travel, same handlebar), passed to `analyse()`.
+ */
+
+import type { ResolvedDesign, Side } from '../design/types';
+import type { Vec3 } from '../mechanism/MechanismGraph';
+import type { CompiledMechanism } from '../solver/CompiledMechanism';
+import type { SolveResult } from '../solver/PoseSolver';
+import type {
+  FailedPose,
+  JointArticulation,
+  PoseAnalysis,
+  PoseInputsReport,
+  PoseStatus,
+  SolverReport,
+  SteeringMeasures,
+  ToeError,
+  WheelAlignment,
+} from './analysisTypes';
+import { wheelAlignment } from './alignment';
+import { ackermann, type PlanWheel } from './ackermann';
+import { clearancePairs, measureClearances, type ClearancePair } from './clearance';
+import { articulation, tieRodArticulation } from './jointArticulation';
+import { GeometryReader, type PoseGeometry, type SideGeometry } from './poseGeometry';
+import { slipMeasures } from './scrub';
+import { designSign, overallSteeringRatio, rawTransmission, transmissionDeg } from './steeringLinkage';
+import { suspensionGeometry } from './suspensionGeometry';
+import { judgeAbs, judgeClearance, judgeJoint, judgeTransmission, statusOf, worse } from './tolerance';
+import { turningCircle, type PlanTyre } from './turningCircle';
+import { RAD, normalize, sub } from './vec3';
+import { wheelHeading } from '../mechanism/wheelAxis';
+
+export interface AnalyserOptions {
+  /** Write human-readable findings for measures outside tolerance or in the warning band (default true). */
+  findings?: boolean;
+}
+
+/** Toe at the reference pose (zero lean, zero travel, same handlebar), degrees; null with a reason when it could not be solved. */
+export type ToeReference = { leftDeg: number; rightDeg: number } | { reason: string };
+
+const JOINT_ORDER = ['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'] as const;
+const SIDE_ORDER: readonly Side[] = ['left', 'right'];
+
+export function solverReport(r: SolveResult): SolverReport {
+  const out: SolverReport = { status: r.status, residualMm: r.residualMm, iterations: r.iterations, message: r.message };
+  if (r.culprit) out.culprit = r.culprit;
+  return out;
+}
+
+export function inputsReport(m: CompiledMechanism): PoseInputsReport {
+  const i = m.currentInputs;
+  // Only a mechanism steered by a wheel angle reports an input (the handlebar) from a solved joint.
+  const reported: Partial<PoseInputsReport> = reportsAnyInput(m) ? m.reportedInputs() : NONE_REPORTED;
+  return {
+    leanDeg: reported.leanDeg ?? i.leanDeg,
+    handlebarDeg: reported.handlebarDeg ?? i.handlebarDeg,
+    heaveMm: reported.heaveMm ?? i.heaveMm,
+    travelRightMm: reported.travelRightMm ?? i.travelRightMm,
+    travelLeftMm: reported.travelLeftMm ?? i.travelLeftMm,
+    wheelAngleDeg: reported.wheelAngleDeg ?? i.wheelAngleDeg,
+  };
+}
+
+const NONE_REPORTED: Partial<PoseInputsReport> = {};
+const reportsCache = new WeakMap<CompiledMechanism, boolean>();
+
+function reportsAnyInput(m: CompiledMechanism): boolean {
+  let r = reportsCache.get(m);
+  if (r === undefined) {
+    r = m.graph.joints.some((j) => j.reportsInput !== undefined);
+    reportsCache.set(m, r);
+  }
+  return r;
+}
+
+/** A pose the solver did not reach: the inputs asked for and why, no measures. */
+export function failedPose(inputs: PoseInputsReport, r: SolveResult): FailedPose {
+  return { inputs, solver: solverReport(r), status: 'cannot-assemble' };
+}
+
+/**
+ * Front lift of pose `a` relative to `ref` (straight ahead, same lean and travel): heave
+ * change + mean suspension travel taken up - mean contact-height change, mm. The suspension
+ * travel is the lower joint's travel change scaled by the wheel-per-joint ratio at `a` (1 if
+ * unknown), so a ratio that drifts with steer only enters to second order.
+ */
+export function frontLift(a: PoseAnalysis, ref: PoseAnalysis): number {
+  let taken = 0;
+  for (const s of SIDE_ORDER) {
+    const sa = a.suspension[s];
+    taken += (sa.wheelPerJointTravel ?? 1) * (sa.jointTravelMm - ref.suspension[s].jointTravelMm);
+  }
+  const contact = (a.wheels.left.contactPatchMm.z + a.wheels.right.contactPatchMm.z - ref.wheels.left.contactPatchMm.z - ref.wheels.right.contactPatchMm.z) / 2;
+  return a.frameHeaveMm - ref.frameHeaveMm + taken / 2 - contact;
+}
+
+const fmt = (x: number, d = 2) => x.toFixed(d);
+
+function planWheel(w: WheelAlignment, gs: SideGeometry): PlanWheel {
+  return { x: w.contactPatchMm.x, y: w.contactPatchMm.y, heading: wheelHeading(gs.spinAxis[0], gs.spinAxis[1]) };
+}
+
+export const NO_NEIGHBOURS = 'the local ratio needs a neighbouring pose along the handlebar';
+export const NO_DRAG_LINK = 'the design has no drag link';
+export const NO_LIFT_REFERENCE = 'front lift needs the straight-ahead pose at the same lean and travel';
+
+export class PoseAnalyser {
+  readonly design: ResolvedDesign;
+  readonly mechanism: CompiledMechanism;
+  readonly reader: GeometryReader;
+  readonly pairs: ClearancePair[];
+  private readonly findings: boolean;
+  private readonly armSign: Record<Side, number>;
+  private readonly linkSign: Record<Side, number>;
+  private readonly dragSign: number;
+  private readonly tieAxisDesign: Record<Side, Vec3>;
+  private readonly rear: PlanTyre[];
+  private readonly pivotWorld: Vec3 = [0, 0, 0];
+  private readonly lowerJointZ: { left: number; right: number };
+
+  constructor(design: ResolvedDesign, mechanism: CompiledMechanism, options: AnalyserOptions = {}) {
+    this.design = design;
+    this.mechanism = mechanism;
+    this.reader = new GeometryReader(design, mechanism.graph);
+    this.pairs = clearancePairs(design);
+    this.findings = options.findings ?? true;
+    // Design-pose transmission signs, from the design points (the design pose is world = design).
+    const st = design.steering;
+    const steerAxis = this.reader.designSteerAxis;
+    const axisPoint: Vec3 = st.kind === 'rack' ? [0, 0, 0] : [st.pivot.x, st.pivot.y, st.pivot.z];
+    const kind = st.kind === 'rack' ? 'prismatic' : 'revolute';
+    const arm = {} as Record<Side, number>;
+    const link = {} as Record<Side, number>;
+    const tie = {} as Record<Side, Vec3>;
+    for (const side of ['left', 'right'] as Side[]) {
+      const r = this.reader.designSide(side);
+      arm[side] = designSign(rawTransmission(r.armJoint, r.innerJoint, r.lowerJoint, normalize(sub(r.upperJoint, r.lowerJoint)), 'revolute'));
+      link[side] = designSign(rawTransmission(r.innerJoint, r.armJoint, axisPoint, steerAxis, kind));
+      tie[side] = normalize(sub(r.armJoint, r.innerJoint));
+    }
+    this.armSign = arm;
+    this.linkSign = link;
+    this.tieAxisDesign = tie;
+    this.lowerJointZ = { left: design.frontEnd.lower.outerJoint.left.z, right: design.frontEnd.lower.outerJoint.right.z };
+    const rt = design.wheels.rear;
+    const rearTyre = (y: number): PlanTyre => ({ x: -design.vehicle.wheelbaseMm, y, heading: 0, rollingRadiusMm: rt.rollingRadiusMm, widthMm: rt.tyreWidthMm });
+    this.rear = design.vehicle.rear.kind === 'pair' ? [rearTyre(design.vehicle.rear.trackMm / 2), rearTyre(-design.vehicle.rear.trackMm / 2)] : [rearTyre(0)];
+    const drag = this.reader.designDragLink;
+    this.dragSign = drag ? designSign(rawTransmission(drag.crankArm, drag.columnArm, axisPoint, steerAxis, 'revolute')) : 1;
+  }
+
+  /** Every measure of the pose the mechanism is in now (after a converged or singular solve). */
+  analyse(result: SolveResult, toeReference?: ToeReference): PoseAnalysis {
+    const m = this.mechanism;
+    const d = this.design;
+    m.forward();
+    const g = this.reader.read(m);
+    const frame = { x: g.frameX, y: g.frameY, up: g.frameUp, origin: g.frameOrigin };
+    const tyre = d.wheels.front;
+    const left = wheelAlignment(g.left, tyre, frame, d.upright.wheelCentre.left.z);
+    const right = wheelAlignment(g.right, tyre, frame, d.upright.wheelCentre.right.z);
+    const inputs = inputsReport(m);
+    const rearX = -d.vehicle.wheelbaseMm;
+
+    const pl = planWheel(left, g.left);
+    const pr = planWheel(right, g.right);
+    const ack = ackermann(pl, pr, rearX);
+    const slip = slipMeasures(pl, pr, rearX);
+    const tc = turningCircle({
+      left: { x: pl.x, y: pl.y, heading: pl.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
+      right: { x: pr.x, y: pr.y, heading: pr.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
+      rear: this.rear,
+      rearAxleX: rearX,
+      bodyOutline: d.vehicle.bodyOutline,
+    });
+
+    const steering = this.steering(g, inputs, left.steerDeg, right.steerDeg);
+    const { joints, spin } = this.joints(g);
+    const clearances = measureClearances(g, d, this.pairs, tyre);
+    const susp = suspensionGeometry(
+      g,
+      { left: [left.contactPatchMm.x, left.contactPatchMm.y, left.contactPatchMm.z], right: [right.contactPatchMm.x, right.contactPatchMm.y, right.contactPatchMm.z] },
+      { split: d.frontEnd.kind === 'splitWishbones', springOn: d.spring ? d.spring.on : null, lowerJointZ: this.lowerJointZ },
+    );
+
+    let toeError: ToeError;
+    if (!toeReference) toeError = { leftDeg: null, rightDeg: null, reason: 'no reference pose (zero lean and travel, same handlebar) was solved' };
+    else if ('reason' in toeReference) toeError = { leftDeg: null, rightDeg: null, reason: toeReference.reason };
+    else toeError = { leftDeg: left.toeDeg - toeReference.leftDeg, rightDeg: right.toeDeg - toeReference.rightDeg };
+
+    // Worst values and the status against the tolerances.
+    const tol = d.tolerances;
+    let jointMargin = Infinity;
+    for (const j of joints) jointMargin = Math.min(jointMargin, j.marginDeg);
+    let clearance = Infinity;
+    for (const c of clearances) clearance = Math.min(clearance, c.distanceMm);
+    const transmission = Math.min(
+      steering.steeringArmTransmissionDeg.left,
+      steering.steeringArmTransmissionDeg.right,
+      steering.linkageTransmissionDeg.left,
+      steering.linkageTransmissionDeg.right,
+      steering.dragLinkTransmissionDeg ?? Infinity,
+    );
+    const toeWorst =
+      toeError.leftDeg === null || toeError.rightDeg === null ? null : Math.max(Math.abs(toeError.leftDeg), Math.abs(toeError.rightDeg));
+
+    // Status against the tolerances; findings (words) only when asked for.
+    let status: PoseStatus = 'within';
+    const findings: string[] = [];
+    const words = this.findings;
+    for (const side of SIDE_ORDER) {
+      const s = slip[side].slipDeg;
+      const v = judgeAbs(s, tol.slipDeg);
+      if (v !== 'pass') {
+        status = worse(status, statusOf('slip', v));
+        if (words) findings.push(`${v}: ${side} slip ${fmt(s)} deg (tolerance ${tol.slipDeg} deg)`);
+      }
+      const e = side === 'left' ? toeError.leftDeg : toeError.rightDeg;
+      if (e !== null) {
+        const ve = judgeAbs(e, tol.toeErrorDeg);
+        if (ve !== 'pass') {
+          status = worse(status, statusOf('toe', ve));
+          if (words) findings.push(`${ve}: ${side} toe error ${fmt(e, 3)} deg (tolerance ${tol.toeErrorDeg} deg)`);
+        }
+      }
+    }
+    for (const j of joints) {
+      const v = judgeJoint(j.articulationDeg, j.ratedDeg, tol);
+      if (v !== 'pass') {
+        status = worse(status, statusOf('joint', v, j.marginDeg < 0));
+        if (words) {
+          findings.push(
+            `${v}: ${j.side} ${j.joint} joint at ${fmt(j.articulationDeg, 1)} deg of ${j.ratedDeg} rated (margin ${fmt(j.marginDeg, 1)}, required ${tol.jointMarginDeg})`,
+          );
+        }
+      }
+    }
+    for (const c of clearances) {
+      const v = judgeClearance(c.distanceMm, tol);
+      if (v !== 'pass') {
+        status = worse(status, statusOf('clearance', v));
+        if (words) findings.push(`${v}: ${c.side} ${c.pair} clearance ${fmt(c.distanceMm, 1)} mm (required ${tol.clearanceMm} mm)`);
+      }
+    }
+    if (judgeTransmission(transmission) === 'fail') {
+      status = worse(status, 'over');
+      if (words) findings.push(`fail: a steering lever is at or past dead centre (transmission ${fmt(transmission, 1)} deg)`);
+    }
+
+    return {
+      inputs,
+      frameHeaveMm: g.frameOrigin[2],
+      solver: solverReport(result),
+      wheels: { left, right },
+      steering,
+      ackermann: ack,
+      slip,
+      turningCircle: tc,
+      joints,
+      tieRodSpinDeg: spin,
+      clearances,
+      suspension: {
+        left: susp.left,
+        right: susp.right,
+        rollCentreMm: susp.rollCentreMm,
+        frontLiftMm: null,
+        frontLiftReason: NO_LIFT_REFERENCE,
+        reason: susp.reason,
+      },
+      toeError,
+      worst: { slipDeg: slip.worstSlipDeg, toeErrorDeg: toeWorst, jointMarginDeg: jointMargin, clearanceMm: clearance, transmissionDeg: transmission },
+      status,
+      findings,
+    };
+  }
+
+
+  private steering(g: PoseGeometry, inputs: PoseInputsReport, leftDeg: number, rightDeg: number): SteeringMeasures {
+    const mean = (leftDeg + rightDeg) / 2;
+    const st = this.design.steering;
+    const axisPoint = this.pivotWorld;
+    if (st.kind !== 'rack') this.mechanism.worldPoint(this.reader.frame, [st.pivot.x, st.pivot.y, st.pivot.z], axisPoint);
+    const dl = g.dragLink;
+    const ratio = overallSteeringRatio(inputs.handlebarDeg, mean);
+    const out: SteeringMeasures = {
+      handlebarDeg: inputs.handlebarDeg,
+      leftWheelDeg: leftDeg,
+      rightWheelDeg: rightDeg,
+      meanWheelDeg: mean,
+      overallRatio: ratio,
+      localRatio: null,
+      steeringArmTransmissionDeg: { left: this.armTransmission(g.left), right: this.armTransmission(g.right) },
+      linkageTransmissionDeg: { left: this.linkTransmission(g, 'left'), right: this.linkTransmission(g, 'right') },
+      dragLinkTransmissionDeg: dl ? transmissionDeg(rawTransmission(dl.crankArm, dl.columnArm, axisPoint, g.steerAxis, 'revolute'), this.dragSign) : null,
+      localRatioReason: NO_NEIGHBOURS,
+    };
+    if (!dl) out.dragLinkTransmissionReason = NO_DRAG_LINK;
+    if (ratio === null) out.reason = 'straight ahead: no overall ratio';
+    return out;
+  }
+
+  private armTransmission(gs: SideGeometry): number {
+    const k = normalize(sub(gs.upperJoint, gs.lowerJoint));
+    return transmissionDeg(rawTransmission(gs.armJoint, gs.innerJoint, gs.lowerJoint, k, 'revolute'), this.armSign[gs.side]);
+  }
+
+  private linkTransmission(g: PoseGeometry, s: Side): number {
+    return transmissionDeg(rawTransmission(g[s].innerJoint, g[s].armJoint, this.pivotWorld, g.steerAxis, g.steerKind), this.linkSign[s]);
+  }
+
+  private joints(g: PoseGeometry): { joints: JointArticulation[]; spin: { left: number; right: number } } {
+    const d = this.design;
+    const out: JointArticulation[] = [];
+    const spin = { left: 0, right: 0 };
+    for (const side of SIDE_ORDER) {
+      const gs = g[side];
+      const refs = this.reader.designSide(side);
+      const tie = tieRodArticulation({
+        axisDesign: this.tieAxisDesign[side],
+        axisNow: normalize(sub(gs.armJoint, gs.innerJoint)),
+        outerStudDesign: refs.studTieOuter,
+        innerStudDesign: refs.studTieInner,
+        outerStudNow: gs.tieOuterStud,
+        innerStudNow: gs.tieInnerStud,
+      });
+      spin[side] = tie.spinRad * RAD;
+      const values: Record<(typeof JOINT_ORDER)[number], number> = {
+        upperOuter: articulation(gs.upperStud, gs.upperHousing),
+        lowerOuter: articulation(gs.lowerStud, gs.lowerHousing),
+        tieRodOuter: tie.outerRad,
+        tieRodInner: tie.innerRad,
+      };
+      for (const name of JOINT_ORDER) {
+        const spec = d.joints[name];
+        const deg = values[name] * RAD;
+        out.push({ joint: name, side, kind: spec.kind, articulationDeg: deg, ratedDeg: spec.ratedDeg, marginDeg: spec.ratedDeg - deg });
+      }
+    }
+    return { joints: out, spin };
+  }
+}

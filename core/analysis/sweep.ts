@@ -1,0 +1,262 @@
+/**
+ * Sweeps over a grid of lean x handlebar x travel with every measure at every pose.
+ *
+ * One PoseSolver (one mode) does the whole sweep, stepping warm through neighbouring poses
+ * in serpentine order (travel outermost, then lean, handlebar innermost; each row and each
+ * layer run opposite to the one before), so the linkage stays on the assembly branch it
+ * started on and each solve starts next to its answer. A pose the solver cannot reach is
+ * reported with its status and no numbers; the solver then goes on from the last good pose.
+ *
+ * The travel axis: with contact 'ground' (tyres on the ground, the default) travel t lowers
+ * the frame by t (heave = -t), so at zero lean both wheel centres rise t relative to the frame
+ * (bump positive); a centre-pivot front end on the ground has its ride height set by the
+ * linkage, so it takes no travel axis there. With contact 'travel' both wheel centres are
+ * held at travel t relative to the frame (a centre-pivot pair takes it on the right wheel).
+ *
+ * Measures that need other poses are filled in here: the toe error from a reference pass
+ * (zero lean, zero travel, each handlebar value, same solver) run first; the local steering
+ * ratio from the neighbouring handlebar values of the same row; the front lift from the
+ * row's straight-ahead cell (when the handlebar values include 0).
+ */
+
+import type { ResolvedDesign } from '../design/types';
+import { buildMechanism } from '../mechanism/templates/buildMechanism';
+import { zeroInputs, type PoseInputs } from '../mechanism/MechanismGraph';
+import { PoseSolver } from '../solver/PoseSolver';
+import type { FailedPose, PoseAnalysis, PoseStatus } from './analysisTypes';
+import { POSE_STATUS_ORDER } from './analysisTypes';
+import { PoseAnalyser, failedPose, frontLift, type ToeReference } from './PoseAnalyser';
+import { localSteeringRatio } from './steeringLinkage';
+
+export type SweepContact = 'ground' | 'travel';
+
+export interface SweepAxes {
+  leanDeg: number[];
+  handlebarDeg: number[];
+  travelMm: number[];
+}
+
+export interface SweepOptions {
+  contact?: SweepContact;
+  /** Write findings (words) for each pose outside tolerance (default false: faster). */
+  findings?: boolean;
+  /** Called every `progressEvery` poses and once at the end. */
+  onProgress?: (done: number, total: number) => void;
+  progressEvery?: number;
+}
+
+/** Grid position and the inputs asked for. */
+export interface SweepPoint {
+  leanIndex: number;
+  handlebarIndex: number;
+  travelIndex: number;
+  leanDeg: number;
+  handlebarDeg: number;
+  travelMm: number;
+}
+
+export type SweepCell = SweepPoint & ({ ok: true; analysis: PoseAnalysis } | { ok: false; failure: FailedPose });
+
+export interface SweepSummary {
+  poses: number;
+  solved: number;
+  failed: number;
+  byStatus: Record<PoseStatus, number>;
+  /** Poses solved (main grid plus the reference pass). */
+  solves: number;
+  elapsedMs: number;
+}
+
+/** Invalid sweep input (the CLI exits 2 on it). */
+export class SweepInputError extends Error {}
+
+export function checkAxes(design: ResolvedDesign, axes: SweepAxes, contact: SweepContact): void {
+  for (const [name, values] of Object.entries(axes) as [keyof SweepAxes, number[]][]) {
+    if (values.length === 0) throw new SweepInputError(`the ${name} axis has no values`);
+    for (const x of values) if (!Number.isFinite(x)) throw new SweepInputError(`the ${name} axis has a value that is not a finite number`);
+  }
+  if (!design.vehicle.tilting && axes.leanDeg.some((x) => x !== 0)) {
+    throw new SweepInputError('the design does not tilt (vehicle.tilting is false): lean must be 0');
+  }
+  if (contact === 'ground' && design.frontEnd.kind === 'centrePivot' && axes.travelMm.some((x) => x !== 0)) {
+    throw new SweepInputError(
+      'a centre-pivot front end with both tyres on the ground has its ride height set by the linkage: ' +
+        'sweep travel with contact "travel" (wheel travel relative to the frame) instead',
+    );
+  }
+}
+
+function setTravel(p: PoseInputs, contact: SweepContact, travel: number): void {
+  if (contact === 'ground') {
+    p.heaveMm = -travel;
+    p.travelRightMm = 0;
+    p.travelLeftMm = 0;
+  } else {
+    p.heaveMm = 0;
+    p.travelRightMm = travel;
+    p.travelLeftMm = travel;
+  }
+}
+
+function emptyCounts(): Record<PoseStatus, number> {
+  const c = {} as Record<PoseStatus, number>;
+  for (const s of POSE_STATUS_ORDER) c[s] = 0;
+  return c;
+}
+
+/** Which grid index the k-th step of a serpentine pass visits. */
+const serpentine = (k: number, n: number, forward: boolean): number => (forward ? k : n - 1 - k);
+
+const NO_STRAIGHT_CELL = 'the handlebar values of the sweep do not include 0 (straight ahead), the front lift reference';
+
+/**
+ * Run a sweep; `onCell` receives every cell once, row by row (a row is one lean and travel,
+ * all handlebar values, in ascending handlebar order).
+ */
+export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: SweepOptions, onCell: (cell: SweepCell) => void): SweepSummary {
+  const contact = options.contact ?? 'ground';
+  checkAxes(design, axes, contact);
+  const t0 = Date.now();
+  const solver = new PoseSolver(buildMechanism(design, { contact, steerBy: 'handlebar' }));
+  const analyser = new PoseAnalyser(design, solver.mechanism, { findings: options.findings ?? false });
+  const nL = axes.leanDeg.length;
+  const nS = axes.handlebarDeg.length;
+  const nT = axes.travelMm.length;
+  const total = nL * nS * nT;
+  const every = Math.max(1, options.progressEvery ?? 500);
+  const input = zeroInputs();
+  let solves = 0;
+
+  // Reference pass: zero lean, zero travel, every handlebar value, ascending.
+  const toeRefs: ToeReference[] = new Array(nS);
+  setTravel(input, contact, 0);
+  for (let s = 0; s < nS; s++) {
+    input.leanDeg = 0;
+    input.handlebarDeg = axes.handlebarDeg[s];
+    const r = solver.solve(input, s > 0);
+    solves++;
+    if (r.status === 'converged' || r.status === 'singular') {
+      const a = analyser.analyse(r);
+      toeRefs[s] = { leftDeg: a.wheels.left.toeDeg, rightDeg: a.wheels.right.toeDeg };
+    } else {
+      toeRefs[s] = { reason: `the reference pose (zero lean and travel, handlebar ${axes.handlebarDeg[s]} deg) could not be solved: ${r.message}` };
+    }
+  }
+  const straight = axes.handlebarDeg.indexOf(0);
+
+  const counts = emptyCounts();
+  let solved = 0;
+  let failed = 0;
+  let done = 0;
+  let first = true;
+  let row = 0;
+  const rowCells: SweepCell[] = new Array(nS);
+  for (let ti = 0; ti < nT; ti++) {
+    const travel = axes.travelMm[ti];
+    for (let lk = 0; lk < nL; lk++) {
+      const li = serpentine(lk, nL, ti % 2 === 0);
+      const lean = axes.leanDeg[li];
+      const forward = row % 2 === 0;
+      row++;
+      for (let sk = 0; sk < nS; sk++) {
+        const si = serpentine(sk, nS, forward);
+        const bar = axes.handlebarDeg[si];
+        input.leanDeg = lean;
+        input.handlebarDeg = bar;
+        setTravel(input, contact, travel);
+        // The first grid pose is reached from the design pose, by continuation.
+        const r = solver.solve(input, !first);
+        first = false;
+        solves++;
+        // Literal objects, no spread: V8's spread-with-extra-keys is slow and this runs per pose.
+        if (r.status === 'converged' || r.status === 'singular') {
+          const analysis = analyser.analyse(r, toeRefs[si]);
+          rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: true, analysis };
+        } else {
+          const asked = { leanDeg: lean, handlebarDeg: bar, heaveMm: input.heaveMm, travelRightMm: input.travelRightMm, travelLeftMm: input.travelLeftMm, wheelAngleDeg: 0 };
+          rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: false, failure: failedPose(asked, r) };
+        }
+        done++;
+        if (options.onProgress && done % every === 0) options.onProgress(done, total);
+      }
+      finishRow(rowCells, straight);
+      for (let si = 0; si < nS; si++) {
+        const c = rowCells[si];
+        if (c.ok) {
+          solved++;
+          counts[c.analysis.status]++;
+        } else {
+          failed++;
+          counts['cannot-assemble']++;
+        }
+        onCell(c);
+      }
+    }
+  }
+  if (options.onProgress && done % every !== 0) options.onProgress(done, total);
+  return { poses: total, solved, failed, byStatus: counts, solves, elapsedMs: Date.now() - t0 };
+}
+
+/** Fill the measures that need neighbours: local steering ratio and front lift. */
+function finishRow(cells: SweepCell[], straight: number): void {
+  const n = cells.length;
+  const ref = straight >= 0 && cells[straight].ok ? (cells[straight] as { analysis: PoseAnalysis }).analysis : null;
+  for (let i = 0; i < n; i++) {
+    const c = cells[i];
+    if (!c.ok) continue;
+    const a = c.analysis;
+    const prev = i > 0 && cells[i - 1].ok ? (cells[i - 1] as { analysis: PoseAnalysis }).analysis : null;
+    const next = i < n - 1 && cells[i + 1].ok ? (cells[i + 1] as { analysis: PoseAnalysis }).analysis : null;
+    const lo = prev ?? a;
+    const hi = next ?? a;
+    if (lo !== hi) {
+      const ratio = localSteeringRatio(
+        lo.steering.handlebarDeg,
+        lo.steering.meanWheelDeg,
+        hi.steering.handlebarDeg,
+        hi.steering.meanWheelDeg,
+      );
+      a.steering.localRatio = ratio;
+      a.steering.localRatioReason = ratio === null ? 'the road wheels did not turn between the neighbouring poses' : undefined;
+    }
+    if (ref) {
+      a.suspension.frontLiftMm = frontLift(a, ref);
+      a.suspension.frontLiftReason = undefined;
+    } else {
+      a.suspension.frontLiftReason = straight < 0 ? NO_STRAIGHT_CELL : 'the straight-ahead pose of this lean and travel could not be solved';
+    }
+  }
+}
+
+/**
+ * Axes covering a design's envelope: lean -L..L, handlebar -H..H, travel -rebound..bump
+ * (ground contact: none for a centre-pivot front end), each including 0 and stepped no
+ * coarser than the steps given.
+ */
+export function envelopeAxes(
+  design: ResolvedDesign,
+  steps: { leanDeg?: number; handlebarDeg?: number; travelMm?: number } = {},
+  contact: SweepContact = 'ground',
+): SweepAxes {
+  const symmetric = (half: number, step: number): number[] => {
+    if (!(half > 0)) return [0];
+    const n = Math.ceil(half / step - 1e-9);
+    return Array.from({ length: 2 * n + 1 }, (_, i) => (half * (i - n)) / n);
+  };
+  const e = design.envelope;
+  const travelStep = steps.travelMm ?? 10;
+  let travel: number[] = [0];
+  if (!(contact === 'ground' && design.frontEnd.kind === 'centrePivot')) {
+    const down = e.reboundMm > 0 ? Math.ceil(e.reboundMm / travelStep - 1e-9) : 0;
+    const up = e.bumpMm > 0 ? Math.ceil(e.bumpMm / travelStep - 1e-9) : 0;
+    travel = [];
+    for (let i = down; i >= 1; i--) travel.push((-e.reboundMm * i) / down);
+    travel.push(0);
+    for (let i = 1; i <= up; i++) travel.push((e.bumpMm * i) / up);
+  }
+  return {
+    leanDeg: design.vehicle.tilting ? symmetric(e.leanDeg, steps.leanDeg ?? 1) : [0],
+    handlebarDeg: symmetric(e.handlebarDeg, steps.handlebarDeg ?? 1),
+    travelMm: travel,
+  };
+}

@@ -1,0 +1,141 @@
+import type { CliIo } from '../io';
+import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { ArgError, numberOption, parseArgs } from '../args';
+import { loadDesignFile } from '../loadDesignFile';
+import { formatIssue } from '../formatIssue';
+// The analysis modules are loaded when the command runs, so other commands start faster.
+import type { CheckItem, DesignCheck } from '../../analysis/designCheck';
+import type { LeanLimits } from '../../analysis/limits';
+import type { SweepAxes } from '../../analysis/sweep';
+import { parseContact, progressBar, summaryLine } from './sweep';
+
+export const checkHelp = `tiltbench check <design.tiltsheet> [--lean-step DEG] [--steer-step DEG] [--travel-step MM] [--contact ground|travel] [--json]
+  Sweeps the design's envelope (envelope.leanDeg each way, envelope.handlebarDeg each way,
+  -envelope.reboundMm..envelope.bumpMm of travel, each including 0) and prints a table of every
+  tolerance (toe error, slip), every joint and every clearance pair with its worst value, where
+  it occurs (lean, handlebar, travel) and whether it passes the design's tolerances.
+  --lean-step DEG, --steer-step DEG   grid spacing, at most (default 1)
+  --travel-step MM                    grid spacing, at most (default 10)
+  --contact ground|travel             tyres on the ground (default; travel lowers the frame), or
+                                      wheel travel held relative to the frame
+  --json                              machine-readable output
+  Exit 0 when everything passes (warnings allowed), 1 when anything is violated or a pose
+  cannot be assembled, 2 for bad input.`;
+
+function positiveOption(args: ReturnType<typeof parseArgs>, name: string, unit: string, fallback: number): number {
+  const v = numberOption(args, name, unit, fallback);
+  if (!(v > 0)) throw new ArgError(`option --${name}: expected a positive number in ${unit}, found ${v}`);
+  return v;
+}
+
+const f1 = (x: number) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1);
+
+function whereText(it: CheckItem): string {
+  return it.where ? `${f1(it.where.leanDeg)}, ${f1(it.where.handlebarDeg)}, ${f1(it.where.travelMm)}` : '-';
+}
+
+function worstText(it: CheckItem): string {
+  if (it.worst === null) return '-';
+  if (it.unit === 'poses') return String(it.worst);
+  return `${it.worst.toFixed(it.unit === 'mm' ? 1 : 2)} ${it.unit}`;
+}
+
+function axisText(values: number[], unit: string): string {
+  if (values.length === 1) return `${values[0]} ${unit}`;
+  return `${values[0]}..${values[values.length - 1]} ${unit} (${values.length} values)`;
+}
+
+export function formatCheck(c: DesignCheck): string {
+  const a: SweepAxes = c.axes;
+  const header = [
+    `${c.design}: check over the envelope, ${c.contact === 'ground' ? 'tyres on the ground' : 'wheel travel relative to the frame'}`,
+    `  lean ${axisText(a.leanDeg, 'deg')} x handlebar ${axisText(a.handlebarDeg, 'deg')} x travel ${axisText(a.travelMm, 'mm')}: ${summaryLine(c.summary)}`,
+    '',
+  ];
+  const rows: string[][] = [['item', 'worst', 'where (lean, handlebar, travel)', 'allowed', 'verdict', '']];
+  for (const it of c.items) {
+    rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), it.detail ?? '']);
+  }
+  const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
+  const table = rows.map((r) => r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]) : cell.padEnd(widths[i]))).join('  ').trimEnd());
+  const fails = c.items.filter((i) => i.verdict === 'fail').length;
+  const warns = c.items.filter((i) => i.verdict === 'warning').length;
+  const result = c.passed
+    ? `RESULT: PASS (${c.items.length} items, ${warns} warning${warns === 1 ? '' : 's'})`
+    : `RESULT: FAIL (${fails} of ${c.items.length} items violated, ${warns} warning${warns === 1 ? '' : 's'})`;
+  const limits = ['steering limits (first limit met each way, zero travel; handlebar deg, road-wheel L/R deg):'];
+  const lim = (l: LeanLimits['left']) =>
+    l.handlebarDeg === null
+      ? `none (${l.reason})`
+      : `${l.handlebarDeg.toFixed(1)} (${l.leftWheelDeg!.toFixed(1)}/${l.rightWheelDeg!.toFixed(1)}): ${l.kinds.join(', ')}: ${l.detail}`;
+  for (const l of c.limits) {
+    limits.push(`  lean ${f1(l.leanDeg).padStart(5)}  left turn ${lim(l.left)}`);
+    limits.push(`              right turn ${lim(l.right)}`);
+  }
+  return [...header, ...table, '', ...limits, '', ...c.info.map((i) => `note: ${i}`), '', result].join('\n') + '\n';
+}
+
+export async function runCheck(argv: string[], io: CliIo): Promise<number> {
+  let designPath: string;
+  let steps: { leanDeg: number; handlebarDeg: number; travelMm: number };
+  let json: boolean;
+  let contact: ReturnType<typeof parseContact>;
+  try {
+    const args = parseArgs(argv, { flags: ['json'], values: ['lean-step', 'steer-step', 'travel-step', 'contact'] });
+    if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
+    designPath = args.positionals[0];
+    steps = {
+      leanDeg: positiveOption(args, 'lean-step', 'degrees', 1),
+      handlebarDeg: positiveOption(args, 'steer-step', 'degrees', 1),
+      travelMm: positiveOption(args, 'travel-step', 'mm', 10),
+    };
+    json = args.options.has('json');
+    contact = parseContact(args.options.get('contact'));
+  } catch (e) {
+    if (e instanceof ArgError) {
+      io.err(`tiltbench check: ${e.message}\nusage:\n${checkHelp}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw e;
+  }
+  const loaded = loadDesignFile(designPath);
+  if (!loaded.ok) {
+    for (const issue of loaded.issues) io.err(formatIssue(issue) + '\n');
+    return EXIT_BAD_INPUT;
+  }
+  const { checkDesign } = await import('../../analysis/designCheck');
+  const { SweepInputError } = await import('../../analysis/sweep');
+  const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');
+  const bar = progressBar(io, 'check');
+  let result: DesignCheck;
+  try {
+    result = checkDesign(loaded.design, { contact, steps, onProgress: (d, t) => bar.update(d, t) });
+  } catch (e) {
+    if (e instanceof SweepInputError) {
+      io.err(`tiltbench check: ${e.message}\n`);
+      return EXIT_BAD_INPUT;
+    } else throw e;
+  } finally {
+    bar.end();
+  }
+  if (json) {
+    const report = {
+      tiltbench: 'check',
+      design: loaded.path,
+      name: result.design,
+      passed: result.passed,
+      contact: result.contact,
+      axes: result.axes,
+      items: result.items,
+      info: result.info,
+      limits: result.limits,
+      summary: result.summary,
+      definitions: ANALYSIS_DEFINITIONS,
+      caution: SAFETY_CAUTION,
+    };
+    io.out(JSON.stringify(report, null, 2) + '\n');
+  } else {
+    io.out(formatCheck(result) + '\n' + SAFETY_CAUTION + '\n');
+  }
+  return result.passed ? EXIT_OK : EXIT_FAILED;
+}

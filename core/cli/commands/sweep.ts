@@ -1,0 +1,191 @@
+import { closeSync, openSync, writeSync } from 'node:fs';
+import type { CliIo } from '../io';
+import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { ArgError, parseArgs, rangeOption } from '../args';
+import { loadDesignFile } from '../loadDesignFile';
+import { formatIssue } from '../formatIssue';
+// The analysis modules are loaded when the command runs, so other commands start faster.
+import type { SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
+import type { CellValue, Column } from '../../analysis/poseColumns';
+import { POSE_STATUS_ORDER } from '../../analysis/analysisTypes';
+
+export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --steer A:B:STEP [--travel A:B:STEP] --out FILE.csv|FILE.json
+  Solves every pose of the grid lean x handlebar x travel (each range inclusive; an axis left
+  out is 0) with one solver stepping warm through neighbouring poses, and writes one row per
+  pose with every measure (alignment, steering, Ackermann and scrub, turning circle, joints,
+  clearances, suspension, status). A pose that cannot be assembled is written with its
+  status and message and no numbers. Rows are in grid order: travel, then lean, then steer.
+  --lean A:B:STEP     frame roll, degrees, positive lowers the right side
+  --steer A:B:STEP    handlebar angle, degrees, positive turns left
+  --travel A:B:STEP   wheel travel, mm, bump positive: with the tyres on the ground the frame
+                      is lowered by it (heave = -travel); see --contact
+  --contact ground|travel  tyres on the ground (default), or wheel travel held relative to the frame
+  --out FILE          .csv (header row of column names with units) or .json (columns, rows,
+                      definitions and the caution)
+  A progress bar goes to stderr on a terminal; a summary line is always printed.
+  Exit 0 when every pose was solved, 1 when some could not be assembled (the file is still
+  written), 2 for bad input.`;
+
+/** Largest grid a sweep accepts (poses). */
+export const MAX_SWEEP_POSES = 2_000_000;
+
+/** A progress bar on stderr, drawn only on a terminal and at most every 1 %. */
+export function progressBar(io: CliIo, label: string): { update(done: number, total: number): void; end(): void } {
+  let last = -1;
+  let drawn = false;
+  return {
+    update(done, total) {
+      if (!io.isTty || total <= 0) return;
+      const pct = Math.floor((100 * done) / total);
+      if (pct === last) return;
+      last = pct;
+      const width = 30;
+      const filled = Math.round((width * done) / total);
+      io.err(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${String(pct).padStart(3)}% ${done}/${total} poses`);
+      drawn = true;
+    },
+    end() {
+      if (drawn) io.err('\n');
+    },
+  };
+}
+
+function csvValue(v: CellValue): string {
+  if (v === null) return '';
+  if (typeof v === 'number') return String(Math.round(v * 1e6) / 1e6);
+  return /[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
+}
+
+function jsonValue(v: CellValue): CellValue {
+  return typeof v === 'number' ? Math.round(v * 1e6) / 1e6 : v;
+}
+
+export function summaryLine(s: SweepSummary): string {
+  const parts = POSE_STATUS_ORDER.filter((k) => s.byStatus[k] > 0).map((k) => `${k} ${s.byStatus[k]}`);
+  return `${s.poses} poses (${parts.join(', ') || 'none'}) in ${(s.elapsedMs / 1000).toFixed(2)} s`;
+}
+
+export function parseContact(raw: string | true | undefined): SweepContact {
+  if (raw === undefined) return 'ground';
+  if (raw === 'ground' || raw === 'travel') return raw;
+  throw new ArgError(`option --contact: expected ground or travel, found "${String(raw)}"`);
+}
+
+export async function runSweepCommand(argv: string[], io: CliIo): Promise<number> {
+  let axes: SweepAxes;
+  let out: string;
+  let format: 'csv' | 'json';
+  let contact: SweepContact;
+  let designPath: string;
+  try {
+    const args = parseArgs(argv, { flags: [], values: ['lean', 'steer', 'travel', 'out', 'contact'] });
+    if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
+    designPath = args.positionals[0];
+    axes = {
+      leanDeg: rangeOption(args, 'lean', 'degrees') ?? [0],
+      handlebarDeg: rangeOption(args, 'steer', 'degrees') ?? [0],
+      travelMm: rangeOption(args, 'travel', 'mm') ?? [0],
+    };
+    const raw = args.options.get('out');
+    if (raw === undefined || raw === true) throw new ArgError('option --out FILE.csv or FILE.json is required');
+    out = raw;
+    const lower = out.toLowerCase();
+    if (lower.endsWith('.csv')) format = 'csv';
+    else if (lower.endsWith('.json')) format = 'json';
+    else throw new ArgError(`option --out: the file name must end in .csv or .json, found "${out}"`);
+    contact = parseContact(args.options.get('contact'));
+    const poses = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
+    if (poses > MAX_SWEEP_POSES) throw new ArgError(`the grid has ${poses} poses; a sweep takes at most ${MAX_SWEEP_POSES}`);
+  } catch (e) {
+    if (e instanceof ArgError) {
+      io.err(`tiltbench sweep: ${e.message}\nusage:\n${sweepHelp}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw e;
+  }
+  const loaded = loadDesignFile(designPath);
+  if (!loaded.ok) {
+    for (const issue of loaded.issues) io.err(formatIssue(issue) + '\n');
+    return EXIT_BAD_INPUT;
+  }
+  const design = loaded.design;
+  const { runSweep, checkAxes, SweepInputError } = await import('../../analysis/sweep');
+  const { cellRow, poseColumns } = await import('../../analysis/poseColumns');
+  const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');
+  try {
+    checkAxes(design, axes, contact);
+  } catch (e) {
+    if (e instanceof SweepInputError) {
+      io.err(`tiltbench sweep: ${e.message}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw e;
+  }
+  let fd: number;
+  try {
+    fd = openSync(out, 'w');
+  } catch (e) {
+    io.err(`tiltbench sweep: cannot write ${out}: ${(e as Error).message}\n`);
+    return EXIT_BAD_INPUT;
+  }
+  const columns: Column[] = poseColumns(design);
+  const nL = axes.leanDeg.length;
+  const nS = axes.handlebarDeg.length;
+  // Cells arrive a row (one lean, all handlebar values) at a time in serpentine lean order;
+  // buffer one travel layer and write it in grid order.
+  let layer: string[] = new Array(nL * nS);
+  let layerCount = 0;
+  let firstJsonRow = true;
+  const write = (text: string) => writeSync(fd, text);
+  const rowText = (cell: SweepCell): string => {
+    const values = cellRow(columns, cell);
+    if (format === 'csv') return values.map(csvValue).join(',') + '\n';
+    return JSON.stringify(values.map(jsonValue));
+  };
+  const flushLayer = () => {
+    for (const text of layer) {
+      if (text === undefined) continue;
+      if (format === 'csv') write(text);
+      else {
+        write((firstJsonRow ? '\n    ' : ',\n    ') + text);
+        firstJsonRow = false;
+      }
+    }
+    layer = new Array(nL * nS);
+    layerCount = 0;
+  };
+  if (format === 'csv') {
+    write(columns.map((c) => csvValue(c.name)).join(',') + '\n');
+  } else {
+    const head = {
+      tiltbench: 'sweep',
+      design: loaded.path,
+      name: design.name,
+      caution: SAFETY_CAUTION,
+      contact,
+      axes,
+      definitions: ANALYSIS_DEFINITIONS,
+      columns: columns.map((c) => ({ name: c.name, unit: c.unit })),
+    };
+    const text = JSON.stringify(head, null, 2);
+    write(text.slice(0, text.lastIndexOf('}')).trimEnd() + ',\n  "rows": [');
+  }
+  const bar = progressBar(io, 'sweep');
+  let summary: SweepSummary;
+  try {
+    summary = runSweep(design, axes, { contact, onProgress: (d, t) => bar.update(d, t), progressEvery: 200 }, (cell) => {
+      layer[cell.leanIndex * nS + cell.handlebarIndex] = rowText(cell);
+      layerCount++;
+      if (layerCount === nL * nS) flushLayer();
+    });
+    if (layerCount > 0) flushLayer();
+    if (format === 'json') write(`\n  ],\n  "summary": ${JSON.stringify(summary)}\n}\n`);
+  } finally {
+    bar.end();
+    closeSync(fd);
+  }
+  io.out(`${design.name}: ${summaryLine(summary)}; wrote ${summary.poses} rows to ${out}\n`);
+  if (summary.failed > 0) io.out(`${summary.failed} poses could not be assembled (status and message in their rows, no numbers)\n`);
+  io.out(SAFETY_CAUTION + '\n');
+  return summary.failed > 0 ? EXIT_FAILED : EXIT_OK;
+}
