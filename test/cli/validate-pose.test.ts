@@ -4,6 +4,8 @@ import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 
+// Each test spawns the CLI (tsx start-up included), which is slow on a loaded machine.
+const SPAWN_TIMEOUT_MS = 60_000;
 const BIN = join(__dirname, '..', '..', 'bin', 'tiltbench.mjs');
 const DEMO = join(__dirname, '..', '..', 'assets', 'designs', 'heron-tilting-velomobile.tiltsheet');
 
@@ -19,7 +21,7 @@ describe('tiltbench validate', () => {
       expect(r.code, r.err).toBe(0);
       expect(r.out).toContain('valid');
     }
-  });
+  }, SPAWN_TIMEOUT_MS);
 
   it('rejects a bad field with exit 2 and names the file, field path, unit and value', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tb-cli-'));
@@ -33,7 +35,7 @@ describe('tiltbench validate', () => {
     expect(r.err).toContain('frontEnd.lower.outerJoint.z');
     expect(r.err).toContain('mm');
     expect(r.err).toContain('twelve');
-  });
+  }, SPAWN_TIMEOUT_MS);
 
   it('reports a missing file and a JSON syntax error with line and column', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tb-cli-'));
@@ -43,7 +45,7 @@ describe('tiltbench validate', () => {
     const r = run(['validate', file]);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/syntax\.tiltsheet:3:15: invalid JSON/); // file:line:column
-  });
+  }, SPAWN_TIMEOUT_MS);
 });
 
 describe('tiltbench pose', () => {
@@ -61,7 +63,7 @@ describe('tiltbench pose', () => {
     // Ground contact is the default: the lowest tyre points sit on z = 0.
     expect(Math.abs(j.wheels.left.contactPointMm.z)).toBeLessThan(1e-6);
     expect(Math.abs(j.wheels.right.contactPointMm.z)).toBeLessThan(1e-6);
-  });
+  }, SPAWN_TIMEOUT_MS);
 
   it('positive handlebar turns both wheels left (ISO 8855 yaw), and the text output carries the caution', () => {
     const j = JSON.parse(run(['pose', DEMO, '--steer', '10', '--json']).out);
@@ -70,14 +72,14 @@ describe('tiltbench pose', () => {
     const t = run(['pose', DEMO, '--steer', '10']);
     expect(t.out).toContain('CAUTION');
     expect(t.out).toContain('upright.wheelCentre.left');
-  });
+  }, SPAWN_TIMEOUT_MS);
 
   it('holds travel relative to the frame with --travel', () => {
     const j = JSON.parse(run(['pose', DEMO, '--travel', '20', '--json']).out);
     expect(j.mode.contact).toBe('travel');
     // wheel centre design z 245 + 20 mm at zero lean
     expect(j.wheels.left.centreMm.z).toBeCloseTo(265, 6);
-  });
+  }, SPAWN_TIMEOUT_MS);
 
   it('exits 1 with the culprit named when the linkage cannot be assembled', () => {
     const r = run(['pose', DEMO, '--travel', '400', '--json']);
@@ -86,7 +88,7 @@ describe('tiltbench pose', () => {
     expect(j.status).toBe('cannot-assemble');
     expect(j.culprit).toBeTruthy();
     expect(j.message).toContain(j.culprit);
-  });
+  }, SPAWN_TIMEOUT_MS);
 
   it('exits 2 for bad options and names the option and unit', () => {
     const r = run(['pose', '--lean', 'abc']);
@@ -95,5 +97,5 @@ describe('tiltbench pose', () => {
     expect(r.err).toContain('degrees');
     expect(run(['pose', '--bogus', '1']).code).toBe(2);
     expect(run(['pose', '--travel', '5', '--on-ground']).code).toBe(2);
-  });
+  }, SPAWN_TIMEOUT_MS);
 });
