@@ -14,7 +14,7 @@
 
 import { rotationAboutAxis, rotationFromVector, multiplyMat3, orthonormalize, angleBetweenRotations, vectorFromRotation } from '../math/rotation';
 import type { LeastSquaresProblem } from './levenbergMarquardt';
-import type { Constraint, InputBinding, MechanismGraph, PoseInputs, Vec3 } from '../mechanism/MechanismGraph';
+import { INPUT_NAMES, type Constraint, type MechanismGraph, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
 
 const KIND_REVOLUTE = 0;
 const KIND_PRISMATIC = 1;
@@ -41,7 +41,7 @@ interface CompiledConstraint {
   rolling: number;
   crown: number;
   gain: number;
-  input: keyof PoseInputs | '';
+  inputIndex: number;
   label: string;
 }
 
@@ -62,7 +62,6 @@ export class CompiledMechanism implements LeastSquaresProblem {
   private readonly kind: Int32Array;
   private readonly origin: Float64Array;
   private readonly axis: Float64Array;
-  private readonly driven: Array<InputBinding | undefined>;
   /** First unknown of each body's joint, or -1 when driven. */
   private readonly firstVar: Int32Array;
   private readonly varJoint: Int32Array;
@@ -76,7 +75,10 @@ export class CompiledMechanism implements LeastSquaresProblem {
   private readonly chainVars: Int32Array;
   private readonly constraints: CompiledConstraint[];
   private readonly jointRot: Float64Array;
-  private readonly inputs: PoseInputs;
+  /** Inputs in INPUT_NAMES order (typed, so the hot loops index instead of keying by name). */
+  private readonly inputVec = new Float64Array(INPUT_NAMES.length);
+  private readonly drivenIndex: Int32Array;
+  private readonly drivenGain: Float64Array;
 
   /** The angle each revolute joint's cached rotation in jointRot was made for. */
   private readonly rotCoord: Float64Array;
@@ -99,7 +101,8 @@ export class CompiledMechanism implements LeastSquaresProblem {
     this.kind = new Int32Array(nb);
     this.origin = new Float64Array(3 * nb);
     this.axis = new Float64Array(3 * nb);
-    this.driven = [];
+    this.drivenIndex = new Int32Array(nb).fill(-1);
+    this.drivenGain = new Float64Array(nb);
     this.firstVar = new Int32Array(nb);
     const varJoint: number[] = [];
     const varSub: number[] = [];
@@ -115,7 +118,11 @@ export class CompiledMechanism implements LeastSquaresProblem {
       if (n > 0) this.axis.set([j.axis[0] / n, j.axis[1] / n, j.axis[2] / n], 3 * b);
       setIdentity(this.sph, 9 * b);
       if (j.kind === 'spherical' && j.driver) throw new Error(`mechanism "${graph.name}": a spherical joint cannot be driven`);
-      this.driven.push(j.driver);
+      if (j.driver) {
+        this.drivenIndex[b] = INPUT_NAMES.indexOf(j.driver.input);
+        this.drivenGain[b] = j.driver.gain;
+        if (this.drivenIndex[b] < 0) throw new Error(`mechanism "${graph.name}": joint "${j.label}" is driven by an unknown input "${j.driver.input}"`);
+      }
       if (j.driver) {
         this.firstVar[b] = -1;
       } else {
@@ -164,7 +171,6 @@ export class CompiledMechanism implements LeastSquaresProblem {
     this.nResiduals = row;
     this.savedCoord = new Float64Array(nb);
     this.savedSph = new Float64Array(9 * nb);
-    this.inputs = { leanDeg: 0, heaveMm: 0, handlebarDeg: 0, travelRightMm: 0, travelLeftMm: 0, wheelAngleDeg: 0 };
     this.resetToDesign();
   }
 
@@ -172,20 +178,32 @@ export class CompiledMechanism implements LeastSquaresProblem {
   resetToDesign(): void {
     this.coord.fill(0);
     for (let b = 0; b < this.nBodies; b++) setIdentity(this.sph, 9 * b);
-    this.applyInputs(this.inputs);
+    this.applyInputVector(this.inputVec);
   }
 
   /** Set the inputs: driven coordinates follow them, constraint targets read them. */
   applyInputs(inputs: PoseInputs): void {
-    Object.assign(this.inputs, inputs);
+    const v = this.inputVec;
+    for (let k = 0; k < INPUT_NAMES.length; k++) v[k] = inputs[INPUT_NAMES[k]];
+    this.applyInputVector(v);
+  }
+
+  /** The same from a vector in INPUT_NAMES order (the pose solver's internal form). */
+  applyInputVector(v: ArrayLike<number>): void {
+    const iv = this.inputVec;
+    if (v !== iv) for (let k = 0; k < iv.length; k++) iv[k] = v[k];
+    const { drivenIndex, drivenGain, coord } = this;
     for (let b = 0; b < this.nBodies; b++) {
-      const d = this.driven[b];
-      if (d) this.coord[b] = d.gain * inputs[d.input];
+      const k = drivenIndex[b];
+      if (k >= 0) coord[b] = drivenGain[b] * iv[k];
     }
   }
 
+  /** The current inputs as a record (allocates: for output, not for inner loops). */
   get currentInputs(): Readonly<PoseInputs> {
-    return this.inputs;
+    const out = {} as PoseInputs;
+    for (let k = 0; k < INPUT_NAMES.length; k++) out[INPUT_NAMES[k]] = this.inputVec[k];
+    return out;
   }
 
   /** Forward kinematics: every body's pose from the joint coordinates. */
@@ -357,13 +375,13 @@ export class CompiledMechanism implements LeastSquaresProblem {
         }
         case C_HEIGHT: {
           this.worldPoint(c.bodyA, c.pA, pa);
-          r[i] = this.heightInBody(c.bodyB, pa) - (c.pA[2] + c.gain * this.inputs[c.input as keyof PoseInputs]);
+          r[i] = this.heightInBody(c.bodyB, pa) - (c.pA[2] + c.gain * this.inputVec[c.inputIndex]);
           break;
         }
         case C_HEADING: {
           this.worldDirection(c.bodyA, c.pB, dir);
           const psi = Math.atan2(-dir[0], dir[1]);
-          r[i] = wrapAngle(psi - c.gain * this.inputs[c.input as keyof PoseInputs]) * HEADING_RESIDUAL_MM_PER_RAD;
+          r[i] = wrapAngle(psi - c.gain * this.inputVec[c.inputIndex]) * HEADING_RESIDUAL_MM_PER_RAD;
           break;
         }
       }
@@ -551,7 +569,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
   setState(coordIn: ArrayLike<number>, sphIn: ArrayLike<number>): void {
     this.coord.set(coordIn);
     this.sph.set(sphIn);
-    this.applyInputs(this.inputs);
+    this.applyInputVector(this.inputVec);
   }
 
   /**
@@ -652,7 +670,7 @@ function compileConstraint(c: Constraint, row: number, nb: number): CompiledCons
     rolling: 0,
     crown: 0,
     gain: 0,
-    input: '',
+    inputIndex: -1,
     label: c.label,
   };
   const checkBody = (b: number) => {
@@ -690,14 +708,14 @@ function compileConstraint(c: Constraint, row: number, nb: number): CompiledCons
       base.pA.set(c.point);
       base.bodyB = checkBody(c.refBody);
       base.gain = c.target.gain;
-      base.input = c.target.input;
+      base.inputIndex = INPUT_NAMES.indexOf(c.target.input);
       break;
     case 'wheelHeading':
       base.code = C_HEADING;
       base.bodyA = checkBody(c.body);
       base.pB.set(unit(c.spinAxis));
       base.gain = c.target.gain;
-      base.input = c.target.input;
+      base.inputIndex = INPUT_NAMES.indexOf(c.target.input);
       break;
   }
   return base;

@@ -54,6 +54,13 @@ export const DEFAULT_SOLVER_OPTIONS: PoseSolverOptions = {
 };
 
 const DEG = Math.PI / 180;
+const N_INPUTS = INPUT_NAMES.length;
+/** Which inputs are angles (stepped in degrees) rather than lengths (mm). */
+const INPUT_IS_DEG: readonly boolean[] = INPUT_NAMES.map((n) => n.endsWith('Deg'));
+// solve() reads the record in this order by name; keep them in step with INPUT_NAMES.
+if (INPUT_NAMES.join() !== 'leanDeg,heaveMm,handlebarDeg,travelRightMm,travelLeftMm,wheelAngleDeg') {
+  throw new Error('PoseSolver: INPUT_NAMES order changed; update solve()');
+}
 
 export class PoseSolver {
   readonly mechanism: CompiledMechanism;
@@ -63,20 +70,23 @@ export class PoseSolver {
   private readonly goodSph: Float64Array;
   private readonly stepCoord: Float64Array;
   private readonly stepSph: Float64Array;
-  private goodInputs: PoseInputs;
+  /** Input records are vectors in INPUT_NAMES order: the hot loops index, never key by name. */
+  private goodInputs: Float64Array;
   private hasGood = false;
   /** The good pose before the last one, for the secant predictor. */
   private readonly prevCoord: Float64Array;
   private readonly prevSph: Float64Array;
-  private prevInputs: PoseInputs;
+  private prevInputs: Float64Array;
   private hasPrev = false;
   /** The good pose before that, for the quadratic predictor. */
   private readonly prev2Coord: Float64Array;
   private readonly prev2Sph: Float64Array;
-  private prev2Inputs: PoseInputs;
+  private prev2Inputs: Float64Array;
   private hasPrev2 = false;
   private readonly lmOptions: { tolerance: number; maxIterations: number; tau: number };
-  private readonly work: PoseInputs;
+  private readonly work = new Float64Array(N_INPUTS);
+  private readonly target = new Float64Array(N_INPUTS);
+  private readonly zeros = new Float64Array(N_INPUTS);
 
   constructor(graph: MechanismGraph, options: Partial<PoseSolverOptions> = {}) {
     this.options = { ...DEFAULT_SOLVER_OPTIONS, ...options };
@@ -89,20 +99,19 @@ export class PoseSolver {
     this.stepSph = new Float64Array(9 * nb);
     this.turnCoord = new Float64Array(nb);
     this.turnSph = new Float64Array(9 * nb);
-    this.goodInputs = { ...this.mechanism.currentInputs };
+    this.goodInputs = new Float64Array(N_INPUTS);
     this.prevCoord = new Float64Array(nb);
     this.prevSph = new Float64Array(9 * nb);
-    this.prevInputs = { ...this.goodInputs };
+    this.prevInputs = new Float64Array(N_INPUTS);
     this.prev2Coord = new Float64Array(nb);
     this.prev2Sph = new Float64Array(9 * nb);
-    this.prev2Inputs = { ...this.goodInputs };
+    this.prev2Inputs = new Float64Array(N_INPUTS);
     this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10 };
-    this.work = { ...this.goodInputs };
   }
 
   /** The inputs of the last good pose. */
   get inputs(): Readonly<PoseInputs> {
-    return this.goodInputs;
+    return vectorToInputs(this.goodInputs);
   }
 
   /** Forget the warm start: the next solve starts from the design pose. */
@@ -117,10 +126,19 @@ export class PoseSolver {
    * Solve the pose at `target`. With `warm` (default) it continues from the last good
    * pose; otherwise from the design pose with all inputs zero.
    */
-  solve(target: PoseInputs, warm = true): SolveResult {
-    for (const name of INPUT_NAMES) {
-      if (!Number.isFinite(target[name])) {
-        return this.fail('invalid-input', `input ${name} is ${String(target[name])}; every input must be a finite number`);
+  solve(inputs: PoseInputs, warm = true): SolveResult {
+    const target = this.target;
+    // Read by name once (in INPUT_NAMES order); everything after works on the vector.
+    target[0] = inputs.leanDeg;
+    target[1] = inputs.heaveMm;
+    target[2] = inputs.handlebarDeg;
+    target[3] = inputs.travelRightMm;
+    target[4] = inputs.travelLeftMm;
+    target[5] = inputs.wheelAngleDeg;
+    for (let k = 0; k < N_INPUTS; k++) {
+      if (!Number.isFinite(target[k])) {
+        const name = INPUT_NAMES[k];
+        return this.fail('invalid-input', `input ${name} is ${String(inputs[name])}; every input must be a finite number`);
       }
     }
     const m = this.mechanism;
@@ -129,7 +147,7 @@ export class PoseSolver {
     if (warm && this.hasGood && this.failedAt && this.beyond(this.failedAt.inputs, target)) {
       return { ...this.failedAt.result, message: `${this.failedAt.result.message}; ${describeInputs(target)} lies beyond it`, iterations: 0, evaluations: 0, substeps: 1 };
     }
-    let from: PoseInputs;
+    let from: Float64Array;
     let predicted = false;
     const opts0 = this.options;
     this.startedCold = false;
@@ -142,7 +160,7 @@ export class PoseSolver {
       turning = true;
       if (back >= 1 - 1e-12) {
         from = this.prevInputs;
-        m.applyInputs(this.prevInputs);
+        m.applyInputVector(this.prevInputs);
         m.setState(this.prevCoord, this.prevSph);
       } else {
         from = this.goodInputs;
@@ -158,8 +176,8 @@ export class PoseSolver {
       predicted = this.predict(target);
     } else {
       this.startedCold = true;
-      from = zeroLike(target);
-      m.applyInputs(from);
+      from = this.zeros;
+      m.applyInputVector(from);
       m.resetToDesign();
       // Settle at zero inputs first: a design position that does not quite close in this
       // mode (a wheel centre whose height does not match the tyre, for ground contact) is
@@ -185,9 +203,9 @@ export class PoseSolver {
     const opts = this.options;
     // How many sub-steps the input change needs.
     let span = 0;
-    for (const name of INPUT_NAMES) {
-      const d = Math.abs(target[name] - from[name]);
-      span = Math.max(span, name.endsWith('Deg') ? d / opts.maxStepDeg : d / opts.maxStepMm);
+    for (let k = 0; k < N_INPUTS; k++) {
+      const d = Math.abs(target[k] - from[k]);
+      span = Math.max(span, INPUT_IS_DEG[k] ? d / opts.maxStepDeg : d / opts.maxStepMm);
     }
     let pieces = Math.max(1, Math.ceil(span - 1e-12));
     let done = 0; // fraction of the way reached, in units of 1/pieces
@@ -207,7 +225,7 @@ export class PoseSolver {
       interpolateInputs(this.work, from, target, next);
       if (predicted) predicted = false;
       else m.getState(this.stepCoord, this.stepSph);
-      m.applyInputs(this.work);
+      m.applyInputVector(this.work);
       const out = this.lm.solve(this.lmOptions);
       last = out;
       iterations += out.iterations;
@@ -238,7 +256,7 @@ export class PoseSolver {
       m.setState(this.stepCoord, this.stepSph);
       if (bisections >= opts.maxBisections) {
         interpolateInputs(this.work, from, target, reached);
-        m.applyInputs(this.work);
+        m.applyInputVector(this.work);
         return this.finishFailure(last!, jump, target, reached, iterations, evaluations, substeps);
       }
       bisections++;
@@ -252,7 +270,7 @@ export class PoseSolver {
     // input records swap roles instead of a new object per pose.
     // The three input records rotate roles instead of a new object per pose.
     const other = this.prev2Inputs;
-    const same = this.hasGood && warm && INPUT_NAMES.every((k) => target[k] === this.goodInputs[k]);
+    const same = this.hasGood && warm && sameVector(target, this.goodInputs);
     this.failedAt = undefined;
     if (same) {
       // The same pose again: keep the direction the sweep came from.
@@ -283,7 +301,7 @@ export class PoseSolver {
       this.hasPrev2 = false;
     }
     m.getState(this.goodCoord, this.goodSph);
-    copyInputs(other, target);
+    other.set(target);
     this.goodInputs = other;
     this.hasGood = true;
     return this.finishSuccess(res, iterations, evaluations, substeps);
@@ -312,7 +330,7 @@ export class PoseSolver {
    * through the last two. A good guess saves Newton iterations; a bad one is harmless because
    * the corrector and the jump check follow.
    */
-  private predict(target: PoseInputs): boolean {
+  private predict(target: Float64Array): boolean {
     if (!this.hasPrev) return false;
     const d1 = collinearStep(this.prevInputs, this.goodInputs, target);
     if (d1 === null || d1.ratio > 2) return false;
@@ -333,18 +351,18 @@ export class PoseSolver {
     return true;
   }
 
-  private failedAt: { inputs: PoseInputs; result: SolveResult } | undefined;
+  private failedAt: { inputs: Float64Array; result: SolveResult } | undefined;
   /** Whether the solve under way started from the design pose. */
   private startedCold = false;
 
   /** Whether `target` lies on the ray from the good pose through `failed`, at or past it. */
-  private beyond(failed: PoseInputs, target: PoseInputs): boolean {
+  private beyond(failed: Float64Array, target: Float64Array): boolean {
     let dot = 0;
     let nf = 0;
     let nt = 0;
-    for (const name of INPUT_NAMES) {
-      const f = failed[name] - this.goodInputs[name];
-      const t = target[name] - this.goodInputs[name];
+    for (let k = 0; k < N_INPUTS; k++) {
+      const f = failed[k] - this.goodInputs[k];
+      const t = target[k] - this.goodInputs[k];
       dot += f * t;
       nf += f * f;
       nt += t * t;
@@ -353,12 +371,12 @@ export class PoseSolver {
   }
 
   /** How far back toward the previous good pose the target lies: |target - good| / |prev - good|. */
-  private backFraction(target: PoseInputs): number {
+  private backFraction(target: Float64Array): number {
     let n1 = 0;
     let n2 = 0;
-    for (const name of INPUT_NAMES) {
-      const d1 = this.goodInputs[name] - this.prevInputs[name];
-      const d2 = target[name] - this.goodInputs[name];
+    for (let k = 0; k < N_INPUTS; k++) {
+      const d1 = this.goodInputs[k] - this.prevInputs[k];
+      const d2 = target[k] - this.goodInputs[k];
       n1 += d1 * d1;
       n2 += d2 * d2;
     }
@@ -366,13 +384,13 @@ export class PoseSolver {
   }
 
   /** The target lies back along the line of the last accepted step (inputs antiparallel). */
-  private reverses(target: PoseInputs): boolean {
+  private reverses(target: Float64Array): boolean {
     let dot = 0;
     let n1 = 0;
     let n2 = 0;
-    for (const name of INPUT_NAMES) {
-      const d1 = this.goodInputs[name] - this.prevInputs[name];
-      const d2 = target[name] - this.goodInputs[name];
+    for (let k = 0; k < N_INPUTS; k++) {
+      const d1 = this.goodInputs[k] - this.prevInputs[k];
+      const d2 = target[k] - this.goodInputs[k];
       dot += d1 * d2;
       n1 += d1 * d1;
       n2 += d2 * d2;
@@ -426,12 +444,12 @@ export class PoseSolver {
   private turnSph = new Float64Array(0);
 
   /** A converged sub-step that moved some joint far more than the input change allows. */
-  private jumped(stepFraction: number, from: PoseInputs, target: PoseInputs): boolean {
+  private jumped(stepFraction: number, from: Float64Array, target: Float64Array): boolean {
     let inputRad = 0;
     let inputMm = 0;
-    for (const name of INPUT_NAMES) {
-      const d = Math.abs(target[name] - from[name]) * stepFraction;
-      if (name.endsWith('Deg')) inputRad = Math.max(inputRad, d * DEG);
+    for (let k = 0; k < N_INPUTS; k++) {
+      const d = Math.abs(target[k] - from[k]) * stepFraction;
+      if (INPUT_IS_DEG[k]) inputRad = Math.max(inputRad, d * DEG);
       else inputMm = Math.max(inputMm, d);
     }
     const changeRad = this.mechanism.largestChange(this.stepCoord, this.stepSph);
@@ -445,7 +463,7 @@ export class PoseSolver {
   private finishFailure(
     out: LmOutcome,
     jump: boolean,
-    target: PoseInputs,
+    target: Float64Array,
     reached: number,
     iterations: number,
     evaluations: number,
@@ -457,16 +475,16 @@ export class PoseSolver {
     result.evaluations = evaluations;
     result.substeps = substeps;
     // A boundary (the loop cannot close) is remembered; a refused jump is not one.
-    if (this.hasGood && !jump) this.failedAt = { inputs: { ...target }, result: { ...result } };
+    if (this.hasGood && !jump) this.failedAt = { inputs: target.slice(), result: { ...result } };
     return result;
   }
 
-  private describeFailure(out: LmOutcome, jump: boolean, target: PoseInputs, reached: number): SolveResult {
+  private describeFailure(out: LmOutcome, jump: boolean, target: Float64Array, reached: number): SolveResult {
     const m = this.mechanism;
     // Back to the last good pose so the caller (a sweep) can go on from it.
     if (this.hasGood) {
       // the good pose's inputs too: its coordinates with the partly reached inputs close no loop
-      m.applyInputs(this.goodInputs);
+      m.applyInputVector(this.goodInputs);
       m.setState(this.goodCoord, this.goodSph);
     }
     const culprit = out.worstResidual >= 0 ? m.constraintLabelOfRow(out.worstResidual) : undefined;
@@ -520,13 +538,13 @@ export class PoseSolver {
  * Whether the step a -> b and the step b -> target point the same way; if so the length of
  * a -> b and the ratio |b -> target| / |a -> b|.
  */
-function collinearStep(a: PoseInputs, b: PoseInputs, target: PoseInputs): { length: number; ratio: number } | null {
+function collinearStep(a: Float64Array, b: Float64Array, target: Float64Array): { length: number; ratio: number } | null {
   let dot = 0;
   let n1 = 0;
   let n2 = 0;
-  for (const name of INPUT_NAMES) {
-    const s1 = b[name] - a[name];
-    const s2 = target[name] - b[name];
+  for (let k = 0; k < N_INPUTS; k++) {
+    const s1 = b[k] - a[k];
+    const s2 = target[k] - b[k];
     dot += s1 * s2;
     n1 += s1 * s1;
     n2 += s2 * s2;
@@ -535,21 +553,23 @@ function collinearStep(a: PoseInputs, b: PoseInputs, target: PoseInputs): { leng
   return { length: Math.sqrt(n1), ratio: Math.sqrt(n2 / n1) };
 }
 
-function copyInputs(out: PoseInputs, from: PoseInputs): void {
-  for (const name of INPUT_NAMES) out[name] = from[name];
+function sameVector(a: Float64Array, b: Float64Array): boolean {
+  for (let k = 0; k < a.length; k++) if (a[k] !== b[k]) return false;
+  return true;
 }
 
-function zeroLike(t: PoseInputs): PoseInputs {
-  const z = { ...t };
-  for (const name of INPUT_NAMES) z[name] = 0;
-  return z;
+function vectorToInputs(v: Float64Array): PoseInputs {
+  const out = {} as PoseInputs;
+  for (let k = 0; k < N_INPUTS; k++) out[INPUT_NAMES[k]] = v[k];
+  return out;
 }
 
-function interpolateInputs(out: PoseInputs, a: PoseInputs, b: PoseInputs, s: number): void {
-  for (const name of INPUT_NAMES) out[name] = s >= 1 ? b[name] : a[name] + (b[name] - a[name]) * s;
+function interpolateInputs(out: Float64Array, a: Float64Array, b: Float64Array, s: number): void {
+  for (let k = 0; k < N_INPUTS; k++) out[k] = s >= 1 ? b[k] : a[k] + (b[k] - a[k]) * s;
 }
 
-function describeInputs(t: PoseInputs): string {
+function describeInputs(v: Float64Array): string {
+  const t = vectorToInputs(v);
   return `lean ${t.leanDeg.toFixed(1)} deg, handlebar ${t.handlebarDeg.toFixed(1)} deg, heave ${t.heaveMm.toFixed(1)} mm, travel R/L ${t.travelRightMm.toFixed(1)}/${t.travelLeftMm.toFixed(1)} mm`;
 }
 
