@@ -1,8 +1,7 @@
 import type { CliIo } from '../io';
+import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
-import { loadDesignFile } from '../loadDesignFile';
-import { formatIssue } from '../formatIssue';
 // The analysis modules are loaded when the command runs, so other commands start faster.
 import type { CheckItem, DesignCheck } from '../../analysis/designCheck';
 import type { LeanLimits } from '../../analysis/limits';
@@ -92,17 +91,10 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     json = args.options.has('json');
     contact = parseContact(args.options.get('contact'));
   } catch (e) {
-    if (e instanceof ArgError) {
-      io.err(`tiltbench check: ${e.message}\nusage:\n${checkHelp}\n`);
-      return EXIT_BAD_INPUT;
-    }
-    throw e;
+    return reportArgError(e, io, 'check', checkHelp);
   }
-  const loaded = loadDesignFile(designPath);
-  if (!loaded.ok) {
-    for (const issue of loaded.issues) io.err(formatIssue(issue) + '\n');
-    return EXIT_BAD_INPUT;
-  }
+  const loaded = loadDesignOrReport(designPath, io);
+  if (!loaded) return EXIT_BAD_INPUT;
   const { checkDesign } = await import('../../analysis/designCheck');
   const { SweepInputError } = await import('../../analysis/sweep');
   const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');

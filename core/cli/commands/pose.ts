@@ -1,8 +1,7 @@
 import type { CliIo } from '../io';
+import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
-import { loadDesignFile } from '../loadDesignFile';
-import { formatIssue } from '../formatIssue';
 import { solveSinglePose, type PoseRequest } from '../../analysis/solveSinglePose';
 
 export const poseHelp = `tiltbench pose [design.tiltsheet] --lean DEG --steer DEG [--travel MM | --on-ground] [--json]
@@ -50,17 +49,10 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
         : { steerBy: 'handlebar', wheelAngleDeg: 0 }),
     } as PoseRequest;
   } catch (e) {
-    if (e instanceof ArgError) {
-      io.err(`tiltbench pose: ${e.message}\nusage:\n${poseHelp}\n`);
-      return EXIT_BAD_INPUT;
-    }
-    throw e;
+    return reportArgError(e, io, 'pose', poseHelp);
   }
-  const loaded = loadDesignFile(designPath);
-  if (!loaded.ok) {
-    for (const issue of loaded.issues) io.err(formatIssue(issue) + '\n');
-    return EXIT_BAD_INPUT;
-  }
+  const loaded = loadDesignOrReport(designPath, io);
+  if (!loaded) return EXIT_BAD_INPUT;
   const out = solveSinglePose(loaded.design, request);
   const solved = out.result.status === 'converged' || out.result.status === 'singular';
   if (json) {

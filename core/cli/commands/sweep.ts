@@ -1,9 +1,8 @@
 import { closeSync, openSync, writeSync } from 'node:fs';
 import type { CliIo } from '../io';
+import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs, rangeOption } from '../args';
-import { loadDesignFile } from '../loadDesignFile';
-import { formatIssue } from '../formatIssue';
 // The analysis modules are loaded when the command runs, so other commands start faster.
 import type { SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
 import type { CellValue, Column } from '../../analysis/poseColumns';
@@ -97,17 +96,10 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
     const poses = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
     if (poses > MAX_SWEEP_POSES) throw new ArgError(`the grid has ${poses} poses; a sweep takes at most ${MAX_SWEEP_POSES}`);
   } catch (e) {
-    if (e instanceof ArgError) {
-      io.err(`tiltbench sweep: ${e.message}\nusage:\n${sweepHelp}\n`);
-      return EXIT_BAD_INPUT;
-    }
-    throw e;
+    return reportArgError(e, io, 'sweep', sweepHelp);
   }
-  const loaded = loadDesignFile(designPath);
-  if (!loaded.ok) {
-    for (const issue of loaded.issues) io.err(formatIssue(issue) + '\n');
-    return EXIT_BAD_INPUT;
-  }
+  const loaded = loadDesignOrReport(designPath, io);
+  if (!loaded) return EXIT_BAD_INPUT;
   const design = loaded.design;
   const { runSweep, checkAxes, SweepInputError } = await import('../../analysis/sweep');
   const { cellRow, poseColumns } = await import('../../analysis/poseColumns');
