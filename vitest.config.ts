@@ -41,6 +41,8 @@ export default defineConfig({
           name: 'e2e',
           environment: 'node',
           include: ['test/e2e/**/*.test.ts'],
+          // Builds the renderer once into test-artifacts/ and serves it on 127.0.0.1.
+          globalSetup: ['test/e2e/support/globalSetup.ts'],
           testTimeout: 120_000,
           hookTimeout: 120_000,
           fileParallelism: false,

@@ -1,0 +1,71 @@
+/** The workbench's layout and its keyboard shortcuts. */
+import { lazy, Suspense, useEffect } from 'react';
+import { DesignSheet } from '../panels/DesignSheet';
+import { HardpointTable } from '../panels/HardpointTable';
+import { AlertsPanel, ReadoutPanel } from '../panels/ReadoutPanel';
+import { PosePanel } from '../panels/PosePanel';
+import { PlaybackPanel } from '../panels/PlaybackPanel';
+import type { PlaybackController } from '../panels/playback';
+import { Viewport } from '../viewport/Viewport';
+import { Dialogs } from './Dialogs';
+import { SafetyCaution } from './SafetyCaution';
+import { TopBar } from './TopBar';
+import { useActions } from './workbenchContext';
+
+/** The charts (ECharts) load after the workbench is up, in their own chunk. */
+const PlotsPanel = lazy(() => import('../charts/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
+
+/** Whether a key press belongs to a text field being typed in (its own undo applies). */
+function typingInField(target: EventTarget | null): boolean {
+  if (!(target instanceof HTMLElement)) return false;
+  if (target instanceof HTMLTextAreaElement) return true;
+  return target instanceof HTMLInputElement && target.type === 'text' && target.dataset.draft === 'true';
+}
+
+export function App({ playback }: { playback: PlaybackController }) {
+  const actions = useActions();
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      const mod = e.ctrlKey || e.metaKey;
+      if (e.key === 'Escape' && !typingInField(e.target) && !document.querySelector('.modal')) {
+        actions.select(null);
+        return;
+      }
+      if (!mod || typingInField(e.target)) return;
+      const key = e.key.toLowerCase();
+      if (key === 'z' && !e.shiftKey) {
+        e.preventDefault();
+        actions.undo();
+      } else if ((key === 'z' && e.shiftKey) || key === 'y') {
+        e.preventDefault();
+        actions.redo();
+      }
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [actions]);
+
+  return (
+    <div className="app">
+      <TopBar />
+      <aside className="side left-side" aria-label="Pose and readings">
+        <PosePanel />
+        <PlaybackPanel controller={playback} />
+        <ReadoutPanel />
+        <AlertsPanel />
+      </aside>
+      <main className="centre">
+        <Viewport />
+        <Suspense fallback={<section className="plots" aria-label="Plots" aria-busy="true" />}>
+          <PlotsPanel />
+        </Suspense>
+      </main>
+      <aside className="side right-side" aria-label="Design">
+        <HardpointTable />
+        <DesignSheet />
+      </aside>
+      <SafetyCaution />
+      <Dialogs />
+    </div>
+  );
+}

@@ -1,0 +1,42 @@
+/**
+ * What the charts draw: core's 1-D curves and the lean x handlebar envelope map. Plain data (it crosses the worker boundary); null where a
+ * pose could not be assembled.
+ */
+import type { PoseStatus } from '../../core/analysis/analysisTypes';
+import type { Curve, CurveKind } from '../../core/analysis/curves';
+import type { Severity } from '../model/severity';
+
+/** Core's 1-D curves of one design (core/analysis/curves.ts), with what the charts mark on them. */
+export interface CurveSet {
+  design: string;
+  curves: Partial<Record<CurveKind, Curve>>;
+  /** Why a curve is missing (a non-tilting design has no lean curves, say). */
+  missing: Partial<Record<CurveKind, string>>;
+  tolerances: { toeErrorDeg: number; slipDeg: number; jointMarginDeg: number; clearanceMm: number };
+  /** Rated articulation of each joint, degrees. */
+  ratedDeg: Record<string, number>;
+  elapsedMs: number;
+}
+
+export type MapMetric = 'status' | 'slip' | 'jointMargin' | 'clearance' | 'toeError';
+
+export interface MapCell {
+  leanIndex: number;
+  handlebarIndex: number;
+  status: PoseStatus;
+  /** Condition of each metric by core's judges; 'broken' where the pose cannot be assembled. */
+  severity: Record<MapMetric, Severity>;
+  values: Record<Exclude<MapMetric, 'status'>, number | null>;
+  reason?: string;
+}
+
+export interface EnvelopeMapData {
+  design: string;
+  lean: number[];
+  handlebar: number[];
+  travelMm: number;
+  contact: 'ground' | 'travel';
+  cells: MapCell[];
+  tolerances: CurveSet['tolerances'];
+  elapsedMs: number;
+}

@@ -1,0 +1,237 @@
+/**
+ * Option builders of the 1-D charts: pure functions from core's curves (core/analysis/curves.ts)
+ * to an ECharts option, so the same charts render in the workbench (SVG renderer) and, later,
+ * without a screen for the CLI's reports (ECharts server-side SVG).
+ */
+import type { EChartsCoreOption } from 'echarts/core';
+import type { Curve, CurveKind, CurveSeries } from '../../core/analysis/curves';
+import type { CurveSet } from './chartData';
+import { CHART_COLOURS, axis, base, line, nowLine, toleranceLines, type Pair } from './chartStyle';
+
+export interface ChartMarker {
+  leanDeg: number | null;
+  handlebarDeg: number | null;
+  travelMm: number | null;
+  /** Current Ackermann point (inner, outer), degrees. */
+  ackermann: { innerDeg: number; outerDeg: number } | null;
+}
+
+export const NO_MARKER: ChartMarker = { leanDeg: null, handlebarDeg: null, travelMm: null, ackermann: null };
+
+export type CurveChartId = 'leanSteer' | 'bumpSteer' | 'ackermann' | 'camber' | 'jointsLean' | 'jointsSteer' | 'ratio' | 'frontLift';
+
+export const CURVE_CHARTS: { id: CurveChartId; label: string }[] = [
+  { id: 'leanSteer', label: 'Lean steer' },
+  { id: 'bumpSteer', label: 'Bump steer' },
+  { id: 'ackermann', label: 'Ackermann' },
+  { id: 'camber', label: 'Camber' },
+  { id: 'jointsLean', label: 'Joints vs lean' },
+  { id: 'jointsSteer', label: 'Joints vs steer' },
+  { id: 'ratio', label: 'Steering ratio' },
+  { id: 'frontLift', label: 'Front lift' },
+];
+
+function unavailable(title: string, why: string): EChartsCoreOption {
+  return { ...base(title, why), xAxis: axis(''), yAxis: axis(''), series: [] };
+}
+
+function points(c: Curve, s: CurveSeries): Pair[] {
+  const out: Pair[] = [];
+  c.x.values.forEach((x, i) => {
+    if (x !== null) out.push([x, s.values[i]]);
+  });
+  return c.kind === 'ackermann' ? out.sort((a, b) => a[0] - b[0]) : out;
+}
+
+const sideOf = (id: string) => (id.endsWith('.left') ? 'left' : id.endsWith('.right') ? 'right' : null);
+const sideColour = (id: string) => (sideOf(id) === 'right' ? CHART_COLOURS.right : CHART_COLOURS.left);
+
+function pick(c: Curve, prefix: string): CurveSeries[] {
+  return c.series.filter((s) => s.id === prefix || s.id.startsWith(`${prefix}.`));
+}
+
+function withNow(series: Record<string, unknown>[], x: number | null): Record<string, unknown>[] {
+  const mark = nowLine(x);
+  if (mark && series[0]) series[0] = { ...series[0], markLine: mark };
+  return series;
+}
+
+/** The x axis name of a curve, with its unit. */
+const xName = (c: Curve, sign = '') => `${c.x.label} (${c.x.unit}${sign})`;
+
+function failuresNote(c: Curve): string {
+  return c.failures.length ? `; ${c.failures.length} pose${c.failures.length === 1 ? '' : 's'} could not be assembled (gaps)` : '';
+}
+
+function toeChange(set: CurveSet, kind: 'leanSteer' | 'bumpSteer', x: number | null, title: string, subtitle: string, sign: string): EChartsCoreOption {
+  const c = set.curves[kind];
+  if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
+  const series: Record<string, unknown>[] = pick(c, 'toeError').map((s) => line(s.label, points(c, s), sideColour(s.id)));
+  series.push({ type: 'line', name: `tolerance ±${set.tolerances.toeErrorDeg} deg`, data: [], markLine: toleranceLines(set.tolerances.toeErrorDeg, `${set.tolerances.toeErrorDeg} deg`) });
+  return {
+    ...base(title, subtitle + failuresNote(c)),
+    xAxis: axis(xName(c, sign)),
+    yAxis: axis('toe change (deg, toe-in +)'),
+    series: withNow(series, x),
+  };
+}
+
+export function leanSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  return toeChange(set, 'leanSteer', m.leanDeg, 'Lean steer', 'toe change with lean, handlebar straight ahead', ', right side down +');
+}
+
+export function bumpSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  return toeChange(set, 'bumpSteer', m.travelMm, 'Bump steer', 'toe change with wheel travel (both wheels), no lean, straight ahead', '');
+}
+
+export function ackermannOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  const c = set.curves.ackermann;
+  if (!c) return unavailable('Ackermann', set.missing.ackermann ?? 'not computed');
+  const outer = c.series.find((s) => s.id === 'outer');
+  const ideal = c.series.find((s) => s.id === 'idealOuter');
+  const series: Record<string, unknown>[] = [];
+  if (ideal) series.push(line(ideal.label, points(c, ideal), CHART_COLOURS.ideal, true));
+  if (outer) series.push(line(outer.label, points(c, outer), CHART_COLOURS.left));
+  if (m.ackermann) {
+    series.push({
+      type: 'scatter',
+      name: 'now',
+      data: [[m.ackermann.innerDeg, m.ackermann.outerDeg]],
+      symbolSize: 10,
+      itemStyle: { color: 'transparent', borderColor: CHART_COLOURS.marker, borderWidth: 2 },
+    });
+  }
+  return {
+    ...base('Ackermann', 'outer road-wheel angle against the inner (left turns), with the ideal; no lean' + failuresNote(c)),
+    xAxis: axis(xName(c)),
+    yAxis: axis('outer road-wheel angle (deg)'),
+    series,
+  };
+}
+
+export function camberOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  const lean = set.curves.camberLean;
+  const travel = set.curves.camberTravel;
+  const series: Record<string, unknown>[] = [];
+  const grids: Record<string, unknown>[] = [];
+  const xAxes: Record<string, unknown>[] = [];
+  const yAxes: Record<string, unknown>[] = [];
+  const panels = [lean ? { c: lean, x: m.leanDeg } : null, travel ? { c: travel, x: m.travelMm } : null].filter((p) => p !== null);
+  panels.forEach((p, gi) => {
+    const half = panels.length === 2;
+    grids.push(half ? (gi === 0 ? { left: 56, right: '53%', top: 66, bottom: 42 } : { left: '56%', right: 18, top: 66, bottom: 42 }) : { left: 60, right: 24, top: 66, bottom: 42 });
+    xAxes.push(axis(xName(p.c), { gridIndex: gi }));
+    yAxes.push(axis('camber (deg, top out +)', { gridIndex: gi, nameGap: 30 }));
+    const s = [...pick(p.c, 'camber'), ...pick(p.c, 'camberToFrame')].map((cs) =>
+      line(cs.label, points(p.c, cs), sideColour(cs.id), cs.id.startsWith('camberToFrame'), { xAxisIndex: gi, yAxisIndex: gi }),
+    );
+    series.push(...withNow(s, p.x));
+  });
+  if (panels.length === 0) return unavailable('Camber', set.missing.camberLean ?? 'not computed');
+  return {
+    ...base('Camber', 'to ground (solid) and to frame (dashed); against lean and against wheel travel'),
+    grid: grids,
+    xAxis: xAxes,
+    yAxis: yAxes,
+    series,
+  };
+}
+
+const JOINT_OF = (id: string) => id.split('.')[1] ?? '';
+
+function jointsOption(set: CurveSet, kind: 'jointsLean' | 'jointsSteer', title: string, x: number | null, sign: string): EChartsCoreOption {
+  const c = set.curves[kind];
+  if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
+  const series: Record<string, unknown>[] = c.series.map((s) => line(s.label, points(c, s), CHART_COLOURS.joints[JOINT_OF(s.id)] ?? CHART_COLOURS.ink, sideOf(s.id) === 'right'));
+  const margin = set.tolerances.jointMarginDeg;
+  const ratings = [...new Set(Object.values(set.ratedDeg))];
+  series.push({
+    type: 'line',
+    name: 'rating and required margin',
+    data: [],
+    markLine: {
+      silent: true,
+      symbol: 'none',
+      data: ratings.flatMap((r) => [
+        { yAxis: r, name: `rated ${r} deg`, lineStyle: { color: CHART_COLOURS.limit, type: 'solid' } },
+        { yAxis: r - margin, name: `${r} − ${margin} margin`, lineStyle: { color: CHART_COLOURS.warn, type: 'dashed' } },
+      ]),
+      label: { formatter: '{b}', fontSize: 10, position: 'insideEndTop' },
+    },
+  });
+  return {
+    ...base(title, 'articulation of each ball joint and rod end (solid left, dashed right)' + failuresNote(c)),
+    xAxis: axis(xName(c, sign)),
+    yAxis: axis('articulation (deg)', { min: 0 }),
+    series: withNow(series, x),
+  };
+}
+
+export function jointsLeanOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  return jointsOption(set, 'jointsLean', 'Joint articulation against lean', m.leanDeg, ', right side down +');
+}
+
+export function jointsSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  return jointsOption(set, 'jointsSteer', 'Joint articulation against steer', m.handlebarDeg, ', left +');
+}
+
+export function ratioOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  const c = set.curves.steeringRatio;
+  if (!c) return unavailable('Steering ratio', set.missing.steeringRatio ?? 'not computed');
+  const overall = c.series.find((s) => s.id === 'overallRatio');
+  const local = c.series.find((s) => s.id === 'localRatio');
+  const series: Record<string, unknown>[] = [];
+  if (overall) series.push(line(overall.label, points(c, overall), CHART_COLOURS.left));
+  if (local) series.push(line(local.label, points(c, local), CHART_COLOURS.right, true));
+  return {
+    ...base('Steering ratio', 'handlebar angle per mean road-wheel angle; no lean' + failuresNote(c)),
+    xAxis: axis(xName(c, ', left +')),
+    yAxis: axis('ratio (deg/deg)'),
+    series: withNow(series, m.handlebarDeg),
+  };
+}
+
+export function frontLiftOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  const c = set.curves.frontLift;
+  if (!c) return unavailable('Front lift', set.missing.frontLift ?? 'not computed');
+  const lift = c.series.find((s) => s.id === 'frontLift');
+  return {
+    ...base('Front lift with steer', 'rise of the front with steer (the returning tendency of KPI and caster); no lean' + failuresNote(c)),
+    xAxis: axis(xName(c, ', left +')),
+    yAxis: axis('front lift (mm)'),
+    series: withNow(lift ? [line(lift.label, points(c, lift), CHART_COLOURS.left)] : [], m.handlebarDeg),
+  };
+}
+
+export function curveOption(id: CurveChartId, set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  switch (id) {
+    case 'leanSteer':
+      return leanSteerOption(set, m);
+    case 'bumpSteer':
+      return bumpSteerOption(set, m);
+    case 'ackermann':
+      return ackermannOption(set, m);
+    case 'camber':
+      return camberOption(set, m);
+    case 'jointsLean':
+      return jointsLeanOption(set, m);
+    case 'jointsSteer':
+      return jointsSteerOption(set, m);
+    case 'ratio':
+      return ratioOption(set, m);
+    case 'frontLift':
+      return frontLiftOption(set, m);
+  }
+}
+
+/** Core's curve kinds each chart draws. */
+export const CHART_CURVES: Record<CurveChartId, CurveKind[]> = {
+  leanSteer: ['leanSteer'],
+  bumpSteer: ['bumpSteer'],
+  ackermann: ['ackermann'],
+  camber: ['camberLean', 'camberTravel'],
+  jointsLean: ['jointsLean'],
+  jointsSteer: ['jointsSteer'],
+  ratio: ['steeringRatio'],
+  frontLift: ['frontLift'],
+};

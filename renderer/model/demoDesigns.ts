@@ -1,0 +1,24 @@
+/**
+ * The demo designs bundled with the workbench (the files in assets/designs, as text), and
+ * starting points for "New".
+ */
+import heron from '../../assets/designs/heron-tilting-velomobile.tiltsheet?raw';
+import swift from '../../assets/designs/swift-parallelogram-trike.tiltsheet?raw';
+import wren from '../../assets/designs/wren-rack-trike.tiltsheet?raw';
+
+export interface DemoDesign {
+  id: string;
+  fileName: string;
+  /** What "New" calls this starting point. */
+  starter: string;
+  text: string;
+}
+
+export const DEMO_DESIGNS: readonly DemoDesign[] = [
+  { id: 'heron', fileName: 'heron-tilting-velomobile.tiltsheet', starter: 'Tilting, split wishbones, bell crank', text: heron },
+  { id: 'swift', fileName: 'swift-parallelogram-trike.tiltsheet', starter: 'Tilting, centre-pivot parallelogram', text: swift },
+  { id: 'wren', fileName: 'wren-rack-trike.tiltsheet', starter: 'Non-tilting, split wishbones, rack', text: wren },
+];
+
+/** The design the workbench opens on when nothing else is asked for. */
+export const DEFAULT_DEMO = DEMO_DESIGNS[0];

@@ -1,0 +1,68 @@
+/**
+ * Starting blocks when the user switches the layout, the steering kind or the crank input,
+ * or adds a spring. Each keeps the points the new block shares with the old one (outer
+ * joints, tie-rod joints) and puts new points at plain offsets from them, for the user to
+ * move. Pure reshaping of the design document.
+ */
+import { resolveDesign } from '../../core/design/resolveDesign';
+import type { DesignFile, FrontEnd, Steering, CrankInput, SpringMount, Vec3Mm } from '../../core/design/types';
+
+const p = (x: number, y: number, z: number): Vec3Mm => ({ x, y, z });
+
+export function starterFrontEnd(d: DesignFile, kind: FrontEnd['kind']): FrontEnd {
+  const r = resolveDesign(d);
+  const fe = r.frontEnd;
+  if (kind === fe.kind) return d.frontEnd;
+  if (kind === 'centrePivot' && fe.kind === 'splitWishbones') {
+    const member = (level: 'upper' | 'lower') => {
+      const w = fe[level];
+      const x = Math.round((w.frontPivot.right.x + w.rearPivot.right.x) / 2);
+      return { pivot: p(x, 0, w.frontPivot.right.z), pivotAxis: p(1, 0, 0), outerJoint: d.frontEnd[level].outerJoint };
+    };
+    return { kind: 'centrePivot', upper: member('upper'), lower: member('lower') };
+  }
+  if (kind === 'splitWishbones' && fe.kind === 'centrePivot') {
+    const wishbone = (level: 'upper' | 'lower') => {
+      const m = fe[level];
+      return { frontPivot: p(m.pivot.x + 100, -60, m.pivot.z), rearPivot: p(m.pivot.x - 100, -60, m.pivot.z), outerJoint: d.frontEnd[level].outerJoint };
+    };
+    return { kind: 'splitWishbones', upper: wishbone('upper'), lower: wishbone('lower') };
+  }
+  return d.frontEnd;
+}
+
+export function starterSteering(d: DesignFile, kind: Steering['kind']): Steering {
+  if (kind === d.steering.kind) return d.steering;
+  const tie = resolveDesign(d).steering.tieRodJoint.right;
+  const keep = d.steering.tieRodJoint;
+  if (kind === 'rack') return { kind: 'rack', axis: p(0, -1, 0), tieRodJoint: keep, mmPerHandlebarDeg: 0.5 };
+  const pivot = p(tie.x + 40, 0, tie.z);
+  if (kind === 'direct') return { kind: 'direct', pivot, axis: p(0, 0, 1), tieRodJoint: keep };
+  return { kind: 'bellCrank', pivot, axis: p(0, 0, 1), tieRodJoint: keep, input: { kind: 'ratio', crankDegPerHandlebarDeg: 1 } };
+}
+
+export function starterCrankInput(d: DesignFile, kind: CrankInput['kind']): CrankInput | null {
+  const s = d.steering;
+  if (s.kind !== 'bellCrank') return null;
+  if (kind === s.input.kind) return s.input;
+  if (kind === 'ratio') return { kind: 'ratio', crankDegPerHandlebarDeg: 1 };
+  // An arm on the crank and one on a vertical column behind it, joined by a drag link.
+  const side = Math.abs(s.axis.y) > 0.9 * Math.hypot(s.axis.x, s.axis.y, s.axis.z) ? p(0, 0, 60) : p(0, -60, 0);
+  const column = p(s.pivot.x - 250, 0, s.pivot.z + 150);
+  return {
+    kind: 'dragLink',
+    columnPivot: column,
+    columnAxis: p(0, 0, 1),
+    columnArmJoint: p(column.x, -60, column.z),
+    crankArmJoint: p(s.pivot.x + side.x, s.pivot.y + side.y, s.pivot.z + side.z),
+  };
+}
+
+export function starterSpring(d: DesignFile): SpringMount {
+  const r = resolveDesign(d);
+  const outer = r.frontEnd.lower.outerJoint.right;
+  const inner = r.frontEnd.kind === 'splitWishbones' ? r.frontEnd.lower.frontPivot.right : r.frontEnd.lower.pivot;
+  const upperZ = r.frontEnd.upper.outerJoint.right.z;
+  const midY = Math.round((outer.y + inner.y) / 2);
+  return { on: 'lower', frameMount: p(Math.round(outer.x), Math.min(-1, Math.round(inner.y) - 10), Math.round(upperZ + 50)), armMount: p(Math.round(outer.x), midY, Math.round(inner.z + 10)) };
+}

@@ -1,0 +1,48 @@
+/**
+ * Condition levels of every warning and the workbench's own palette for them. Colour is never
+ * the only signal: each level has a word and a glyph, and every coloured thing has a readout.
+ */
+
+export type Severity = 'none' | 'within' | 'close' | 'over' | 'broken';
+
+export interface SeverityStyle {
+  word: string;
+  glyph: string;
+  colour: string;
+  /** What the level means, for the legend. */
+  meaning: string;
+}
+
+/** Our palette: teal, amber, vermilion and plum on a neutral slate for parts with no check. */
+export const SEVERITY_STYLE: Record<Severity, SeverityStyle> = {
+  none: { word: 'not checked', glyph: '·', colour: '#7d8791', meaning: 'no tolerance applies, or the analysis has not run' },
+  within: { word: 'within', glyph: '✓', colour: '#1f9e89', meaning: 'inside the design tolerance' },
+  close: { word: 'close', glyph: '!', colour: '#e0a526', meaning: 'inside, but within the last fifth of the tolerance' },
+  over: { word: 'over', glyph: '✕', colour: '#d8453b', meaning: 'outside the design tolerance' },
+  broken: { word: "won't assemble", glyph: '⊘', colour: '#7b3fa0', meaning: 'the linkage cannot close in this pose' },
+};
+
+export const SEVERITY_ORDER: readonly Severity[] = ['none', 'within', 'close', 'over', 'broken'];
+
+export function worse(a: Severity, b: Severity): Severity {
+  return SEVERITY_ORDER.indexOf(a) >= SEVERITY_ORDER.indexOf(b) ? a : b;
+}
+
+/** Neutral colours of the parts (no check attached). */
+export const PART_COLOUR = {
+  frame: '#8d979e',
+  wishbone: '#55799a',
+  upright: '#6b7b88',
+  steering: '#8f7252',
+  tieRod: '#a2845c',
+  spring: '#84967a',
+  joint: '#2b3137',
+  tyre: '#3a3f45',
+  rim: '#9aa3ab',
+  axis: '#a0588c',
+  ground: '#c9cdc6',
+  groundMajor: '#aeb4ab',
+  selection: '#0f62c9',
+  path: '#2f86b3',
+  pathRadius: '#a9c9da',
+} as const;

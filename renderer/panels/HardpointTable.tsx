@@ -1,0 +1,172 @@
+/**
+ * The hardpoint table: named points, x y z in mm. A mirrored point's left row follows its
+ * right (edit either, both move); "unlink" makes the sides independent. Selection is shared
+ * with the viewport.
+ */
+import { Fragment, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useActions, useWorkbench } from '../app/workbenchContext';
+import { linkPoint, setCoordinate, unlinkPoint } from '../model/designActions';
+import { issuesOfCell, issuesOfPoint } from '../model/fieldIssues';
+import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpoints';
+import { NumberField } from './NumberField';
+
+export function HardpointTable() {
+  const design = useWorkbench((s) => s.design);
+  const issues = useWorkbench((s) => s.issues);
+  const selection = useWorkbench((s) => s.selection);
+  const actions = useActions();
+  const rows = useMemo(() => hardpointRows(design), [design]);
+  const body = useRef<HTMLTableSectionElement>(null);
+  /** Cells whose text is not a number yet: "rowId:axis" -> message. */
+  const [typing, setTyping] = useState<Record<string, string>>({});
+  const reportTyping = useCallback((cell: string, message: string | null) => {
+    setTyping((t) => {
+      if ((t[cell] ?? null) === message) return t;
+      const next = { ...t };
+      if (message === null) delete next[cell];
+      else next[cell] = message;
+      return next;
+    });
+  }, []);
+
+  useEffect(() => {
+    if (!selection) return;
+    const rows = body.current?.querySelectorAll<HTMLElement>('[data-row-id]') ?? [];
+    const el = [...rows].find((r) => r.dataset.rowId === selection);
+    el?.scrollIntoView?.({ block: 'nearest' });
+  }, [selection]);
+
+  let lastGroup = '';
+  return (
+    <section className="panel hardpoint-panel" aria-labelledby="hp-title">
+      <h2 id="hp-title">Hardpoints</h2>
+      <p className="hint">mm, vehicle axes: x forward, y left, z up. A mirrored pair shares one value (y flips sign on the left).</p>
+      <table className="hardpoint-table" data-testid="hardpoint-table">
+        <thead>
+          <tr>
+            <th scope="col">Point</th>
+            <th scope="col">Side</th>
+            <th scope="col">x</th>
+            <th scope="col">y</th>
+            <th scope="col">z</th>
+            <th scope="col">
+              <span className="sr-only">Mirror</span>
+            </th>
+          </tr>
+        </thead>
+        <tbody ref={body}>
+          {rows.map((row) => {
+            const header = row.group !== lastGroup;
+            lastGroup = row.group;
+            const rowIssues = [...issuesOfPoint(issues, row.key, row.side), ...AXES.flatMap((a) => issuesOfCell(issues, row.key, row.side, a))];
+            const unique = [...new Set([...AXES.map((a) => typing[`${row.id}:${a}`]).filter((m) => m !== undefined), ...rowIssues.map((i) => i.message)])];
+            return (
+              <Fragment key={row.id}>
+                {header && (
+                  <tr className="group-row">
+                    <th colSpan={6} scope="rowgroup">
+                      {row.group}
+                    </th>
+                  </tr>
+                )}
+                <HardpointTableRow
+                  row={row}
+                  selected={selection === row.id}
+                  invalidAxes={AXES.filter((a) => issuesOfCell(issues, row.key, row.side, a).length > 0)}
+                  onSelect={() => actions.select(row.id)}
+                  onEdit={(axis, value) => actions.perform(setCoordinate, { rowId: row.id, axis, value })}
+                  onUnlink={() => actions.perform(unlinkPoint, { key: row.key })}
+                  onLink={(keep) => actions.perform(linkPoint, { key: row.key, keep })}
+                  onTyping={reportTyping}
+                />
+                {unique.length > 0 && (
+                  <tr className="issue-row">
+                    <td colSpan={6} role="alert" className="field-error" data-testid={`issue-${row.id}`}>
+                      {unique.join(' ')}
+                    </td>
+                  </tr>
+                )}
+              </Fragment>
+            );
+          })}
+        </tbody>
+      </table>
+    </section>
+  );
+}
+
+interface RowProps {
+  row: HardpointRow;
+  selected: boolean;
+  invalidAxes: string[];
+  onSelect(): void;
+  onEdit(axis: 'x' | 'y' | 'z', value: number): void;
+  onUnlink(): void;
+  onLink(keep: 'right' | 'left'): void;
+  onTyping(cell: string, message: string | null): void;
+}
+
+function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnlink, onLink, onTyping }: RowProps) {
+  const name = rowName(row);
+  return (
+    <tr
+      className={`hp-row ${selected ? 'is-selected' : ''} ${row.side === 'left' && row.linked ? 'is-mirror' : ''}`}
+      data-row-id={row.id}
+      data-testid={`hp-${row.id}`}
+      aria-selected={selected}
+      onFocusCapture={onSelect}
+      onClick={onSelect}
+    >
+      <th scope="row" title={name}>
+        {row.side !== 'left' ? row.label : ''}
+      </th>
+      <td className="side-cell">{row.side ?? 'centre'}</td>
+      {AXES.map((axis) => (
+        <td key={axis}>
+          <CellField row={row} axis={axis} name={name} invalid={invalidAxes.includes(axis)} onEdit={onEdit} onTyping={onTyping} />
+        </td>
+      ))}
+      <td className="link-cell">
+        {row.side === 'right' &&
+          (row.linked ? (
+            <button type="button" className="link-toggle is-linked" title={`Mirrored: the left follows the right. Click to unlink the ${row.label}.`} onClick={onUnlink} data-testid={`unlink-${row.key}`}>
+              ⇋ mirrored
+            </button>
+          ) : (
+            <button type="button" className="link-toggle" title={`Unlinked. Click to mirror the right ${row.label} onto the left.`} onClick={() => onLink('right')} data-testid={`link-${row.key}`}>
+              ↧ mirror
+            </button>
+          ))}
+        {row.side === 'left' && !row.linked && (
+          <button type="button" className="link-toggle" title={`Mirror the left ${row.label} onto the right.`} onClick={() => onLink('left')} data-testid={`link-left-${row.key}`}>
+            ↥ mirror
+          </button>
+        )}
+      </td>
+    </tr>
+  );
+}
+
+function CellField(p: {
+  row: HardpointRow;
+  axis: 'x' | 'y' | 'z';
+  name: string;
+  invalid: boolean;
+  onEdit(axis: 'x' | 'y' | 'z', value: number): void;
+  onTyping(cell: string, message: string | null): void;
+}) {
+  const { row, axis, onTyping } = p;
+  const report = useCallback((m: string | null) => onTyping(`${row.id}:${axis}`, m), [onTyping, row.id, axis]);
+  return (
+    <NumberField
+      compact
+      label={`${p.name} ${axis}`}
+      unit="mm"
+      value={row.value[axis]}
+      invalid={p.invalid}
+      onCommit={(v) => p.onEdit(axis, v)}
+      onLocalError={report}
+      testId={`hp-${row.id}-${axis}`}
+    />
+  );
+}

@@ -1,0 +1,127 @@
+/**
+ * A number entry that commits on Enter or when it loses focus, reverts on Escape, and says
+ * what is wrong next to the field: its own parse errors, or the design validator's issues.
+ */
+import { useEffect, useId, useRef, useState, type KeyboardEvent } from 'react';
+import { fmt } from '../model/format';
+
+export interface NumberFieldProps {
+  value: number;
+  onCommit(value: number): void;
+  /** Names the field in messages and for assistive technology. */
+  label: string;
+  unit: string;
+  /** Shown next to the input when set (e.g. the validator's message). */
+  error?: string | undefined;
+  digits?: number;
+  min?: number;
+  max?: number;
+  disabled?: boolean;
+  testId?: string;
+  className?: string;
+  /** Hide the visible label (tables give it in a header). */
+  compact?: boolean;
+  /** Mark the field invalid without showing a message (the parent shows it). */
+  invalid?: boolean;
+  /** When given, the field's own parse errors go here instead of under the field. */
+  onLocalError?(message: string | null): void;
+}
+
+/** Parses what people type: a true minus sign or a decimal comma is accepted. */
+export function parseNumberText(text: string): number | null {
+  const t = text.trim().replace(/\u2212/g, '-').replace(',', '.');
+  if (t === '' || !/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(t)) return null;
+  const n = Number(t);
+  return Number.isFinite(n) ? n : null;
+}
+
+function show(value: number, digits: number | undefined): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (digits === undefined) return String(value);
+  return fmt(value, digits).replace('−', '-');
+}
+
+export function NumberField(p: NumberFieldProps) {
+  const [draft, setDraft] = useState<string | null>(null);
+  const [localError, setLocalError] = useState<string | null>(null);
+  const id = useId();
+  const errId = `${id}-err`;
+  const input = useRef<HTMLInputElement>(null);
+  const shown = draft ?? show(p.value, p.digits);
+
+  const { onLocalError } = p;
+  useEffect(() => {
+    // The value changed from elsewhere (undo, a slider): the old complaint no longer applies.
+    setLocalError(null);
+  }, [p.value]);
+  useEffect(() => {
+    onLocalError?.(localError);
+  }, [localError, onLocalError]);
+
+  const commit = () => {
+    if (draft === null) return;
+    const n = parseNumberText(draft);
+    if (n === null) {
+      setLocalError(`${p.label}: “${draft.trim() || '(empty)'}” is not a number; enter a value in ${p.unit || 'plain numbers'}`);
+      return;
+    }
+    if (p.min !== undefined && n < p.min) {
+      setLocalError(`${p.label}: ${n} ${p.unit} is below the least allowed, ${p.min} ${p.unit}`);
+      return;
+    }
+    if (p.max !== undefined && n > p.max) {
+      setLocalError(`${p.label}: ${n} ${p.unit} is above the most allowed, ${p.max} ${p.unit}`);
+      return;
+    }
+    setLocalError(null);
+    setDraft(null);
+    if (n !== p.value) p.onCommit(n);
+  };
+
+  const onKey = (e: KeyboardEvent<HTMLInputElement>) => {
+    if (e.key === 'Enter') {
+      e.preventDefault();
+      commit();
+    } else if (e.key === 'Escape') {
+      setDraft(null);
+      setLocalError(null);
+    }
+  };
+
+  const error = (p.onLocalError ? null : localError) ?? p.error;
+  return (
+    <span className={`number-field ${error || localError || p.invalid ? 'has-error' : ''} ${p.className ?? ''}`}>
+      {!p.compact && (
+        <label htmlFor={id} className="nf-label">
+          {p.label}
+        </label>
+      )}
+      <span className="nf-box">
+        <input
+          ref={input}
+          id={id}
+          type="text"
+          inputMode="decimal"
+          spellCheck={false}
+          autoComplete="off"
+          value={shown}
+          disabled={p.disabled}
+          aria-label={`${p.label} (${p.unit || 'number'})`}
+          aria-invalid={error || localError || p.invalid ? true : undefined}
+          data-draft={draft !== null ? 'true' : undefined}
+          aria-describedby={error ? errId : undefined}
+          data-testid={p.testId}
+          onChange={(e) => setDraft(e.target.value)}
+          onBlur={commit}
+          onKeyDown={onKey}
+        />
+        {p.unit && <span className="nf-unit">{p.unit}</span>}
+      </span>
+      {error && (
+        <span id={errId} className="field-error" role="alert">
+          {error}
+        </span>
+      )}
+    </span>
+  );
+}

@@ -1,0 +1,141 @@
+/** Every measure of the current pose, per wheel and overall, with units and condition words. */
+import { useStore } from 'zustand';
+import { useWorkbench } from '../app/workbenchContext';
+import { useThrottledWorkbench } from '../app/useThrottled';
+import type { ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
+import { statusSeverity } from '../model/analysisAdapter';
+import { fmt } from '../model/format';
+import { SEVERITY_STYLE, type Severity } from '../model/severity';
+import { playbackStore } from './playback';
+
+/** While the pose moves continuously, the readings repaint at most this often, ms. */
+export const READOUT_INTERVAL_MS = 100;
+/** During playback, slower still: numbers changing faster cannot be read anyway, ms. */
+export const PLAYING_READOUT_INTERVAL_MS = 250;
+
+function useReadoutInterval(): number {
+  return useStore(playbackStore, (s) => s.playing) ? PLAYING_READOUT_INTERVAL_MS : READOUT_INTERVAL_MS;
+}
+
+
+function Sev({ s }: { s: Severity | undefined }) {
+  if (!s || s === 'none' || s === 'within') return null;
+  const st = SEVERITY_STYLE[s];
+  return (
+    <span className={`sev sev-${s}`} title={`${st.word}: ${st.meaning}`} style={{ color: st.colour }}>
+      {st.glyph}
+      <span className="sr-only"> {st.word}</span>
+    </span>
+  );
+}
+
+const OPEN_TABLES = new Set(['wheel', 'joints', 'overall']);
+const STATUS_WORDS: Record<string, string> = {
+  within: 'within every tolerance',
+  warning: 'close to a tolerance',
+  over: 'over a tolerance',
+  'clearance-violated': 'a clearance is violated',
+  'joint-over-rating': 'a joint is over its rating',
+  'cannot-assemble': 'cannot assemble',
+};
+
+function cellTestId(table: ReadoutTable, r: ReadoutRow, i: number): string {
+  return table.columns.length === 1 ? `readout-${r.id}` : `readout-${r.id}-${table.columns[i].toLowerCase()}`;
+}
+
+function Table({ table }: { table: ReadoutTable }) {
+  const single = table.columns.length === 1;
+  return (
+    <details className="readout-group" open={OPEN_TABLES.has(table.id)}>
+      <summary>{table.title}</summary>
+      <table className="readout-table">
+        {!single && (
+          <thead>
+            <tr>
+              <th scope="col">
+                <span className="sr-only">Measure</span>
+              </th>
+              {table.columns.map((col) => (
+                <th key={col} scope="col">
+                  {col}
+                </th>
+              ))}
+              <th scope="col">Unit</th>
+            </tr>
+          </thead>
+        )}
+        <tbody>
+          {table.rows.map((r) => {
+            const missing = r.missing !== undefined && r.cells.every((c) => c.value === null);
+            return (
+              <tr key={r.id} title={r.hint}>
+                <th scope="row">{r.label}</th>
+                {missing ? (
+                  <td colSpan={table.columns.length + 1} className="missing" data-testid={cellTestId(table, r, 0)}>
+                    {r.missing}
+                  </td>
+                ) : (
+                  <>
+                    {r.cells.map((c, i) => (
+                      <td key={i} data-testid={cellTestId(table, r, i)} className={c.severity ? `sev-cell sev-${c.severity}` : undefined}>
+                        {r.digits > 6 && c.value !== null ? c.value.toExponential(1) : fmt(c.value, r.digits)} <Sev s={c.severity} />
+                      </td>
+                    ))}
+                    <td className="unit">{r.id === 'solveMs' ? 'ms' : r.unit}</td>
+                  </>
+                )}
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </details>
+  );
+}
+
+export function ReadoutPanel() {
+  const outcome = useThrottledWorkbench((s) => s.outcome, useReadoutInterval());
+  const reached = outcome.shown === 'requested';
+  const ps = outcome.poseStatus;
+  const sev = ps ? statusSeverity(ps) : undefined;
+  return (
+    <section className="panel readout-panel" aria-labelledby="readout-title" data-testid="readouts">
+      <h2 id="readout-title">Readings</h2>
+      {ps && sev && (
+        <p className={`pose-status sev-${sev}`} data-testid="pose-status" style={{ borderColor: SEVERITY_STYLE[sev].colour }}>
+          <span style={{ color: SEVERITY_STYLE[sev].colour }}>{SEVERITY_STYLE[sev].glyph}</span> This pose: {STATUS_WORDS[ps] ?? ps}
+        </p>
+      )}
+      {!reached && <p className="hint">No readings: this pose was not reached.</p>}
+      {outcome.tables.map((t) => (
+        <Table key={t.id} table={t} />
+      ))}
+    </section>
+  );
+}
+
+export function AlertsPanel() {
+  const alerts = useThrottledWorkbench((s) => s.outcome.alerts, useReadoutInterval());
+  const issues = useWorkbench((s) => s.issues);
+  const count = alerts.length + issues.length;
+  return (
+    <section className="panel alerts-panel" aria-labelledby="alerts-title" data-testid="alerts">
+      <h2 id="alerts-title">
+        Alerts <span className="count">{count === 0 ? 'none' : count}</span>
+      </h2>
+      {count === 0 && <p className="hint">Nothing outside tolerance or near it in this pose.</p>}
+      <ul>
+        {issues.map((i, k) => (
+          <li key={`i${k}`} className="alert sev-broken">
+            <span style={{ color: SEVERITY_STYLE.broken.colour }}>{SEVERITY_STYLE.broken.glyph}</span> {i.message}
+          </li>
+        ))}
+        {alerts.map((a, k) => (
+          <li key={`a${k}`} className={`alert sev-${a.severity}`}>
+            <span style={{ color: SEVERITY_STYLE[a.severity].colour }}>{SEVERITY_STYLE[a.severity].glyph}</span> {a.text}
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}

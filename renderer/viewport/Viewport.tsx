@@ -1,0 +1,181 @@
+/** The 3D viewport and the DOM around it: view buttons, legend, status, hover tip. */
+import { Canvas } from '@react-three/fiber';
+import { useStore } from 'zustand';
+import { useActions, useWorkbench } from '../app/workbenchContext';
+import { SEVERITY_STYLE, SEVERITY_ORDER, PART_COLOUR } from '../model/severity';
+import { CameraRig } from './CameraRig';
+import { GroundGrid } from './GroundGrid';
+import { LinkageModel } from './LinkageModel';
+import { RenderDriver } from './RenderDriver';
+import { HardpointGizmo } from './HardpointGizmo';
+import { ViewportBoundary } from './ViewportBoundary';
+import { hoverStore, viewRequests, type ViewName } from './viewSignals';
+import { gizmoStore, type GizmoConstraint } from './gizmoStore';
+import { rowName, hardpointRows } from '../model/hardpoints';
+
+const FULL_DPR = Math.min(2, typeof window === 'undefined' ? 1 : window.devicePixelRatio || 1);
+
+const VIEWS: { view: ViewName; label: string; title: string }[] = [
+  { view: 'front', label: 'Front', title: 'Look from the front (along −x)' },
+  { view: 'side', label: 'Side', title: 'Look from the left side (along −y)' },
+  { view: 'top', label: 'Top', title: 'Look down (along −z), forward up' },
+  { view: 'threeQuarter', label: '¾', title: 'Three-quarter view from the front left' },
+  { view: 'fit', label: 'Fit', title: 'Fit everything in view' },
+];
+
+export function Viewport() {
+  const wheelbase = useWorkbench((s) => s.design.vehicle.wheelbaseMm);
+  return (
+    <div className="viewport" data-testid="viewport">
+      <ViewportBoundary>
+        <Canvas
+          frameloop="demand"
+          dpr={FULL_DPR}
+          gl={{ antialias: false, alpha: false, stencil: false, powerPreference: 'high-performance', preserveDrawingBuffer: false }}
+          camera={{ up: [0, 0, 1], position: [1800, 1400, 1000], fov: 32, near: 10, far: 40000 }}
+          onPointerMissed={() => hoverStore.setState({ hover: null })}
+        >
+          <color attach="background" args={['#f3f4f0']} />
+          <ambientLight intensity={1.9} />
+          <directionalLight position={[1500, 1100, 2600]} intensity={2.3} />
+          <GroundGrid rearX={-(Number.isFinite(wheelbase) ? wheelbase : 1000) - 400} />
+          <LinkageModel />
+          <HardpointGizmo />
+          <CameraRig />
+          <RenderDriver fullDpr={FULL_DPR} />
+        </Canvas>
+      </ViewportBoundary>
+      <div className="view-bar" role="toolbar" aria-label="Views">
+        {VIEWS.map((v) => (
+          <button key={v.view} type="button" title={v.title} onClick={() => viewRequests.emit(v.view)}>
+            {v.label}
+          </button>
+        ))}
+      </div>
+      <GizmoBar />
+      <StatusOverlay />
+      <Legend />
+      <HoverTip />
+    </div>
+  );
+}
+
+function StatusOverlay() {
+  const shown = useWorkbench((s) => s.outcome.shown);
+  const status = useWorkbench((s) => s.outcome.status);
+  const message = useWorkbench((s) => s.outcome.message);
+  if (shown === 'requested' && status !== 'singular') return null;
+  let title: string;
+  let text: string;
+  if (status === 'invalid-design') {
+    title = 'Design has errors — not solved';
+    text = `Showing the hardpoints as entered. ${message[0].toUpperCase()}${message.slice(1)}.`;
+  } else if (shown === 'as-entered') {
+    title = "Won't assemble";
+    text = `The linkage cannot close even at the design position: ${message}. Showing the hardpoints as entered.`;
+  } else if (shown === 'last-good') {
+    title = "Won't reach this pose";
+    text = `${message[0].toUpperCase()}${message.slice(1)}. Showing the last pose that closed.`;
+  } else {
+    title = 'Near a dead centre';
+    text = message;
+  }
+  return (
+    <div className={`status-overlay ${status === 'singular' ? 'is-warning' : 'is-broken'}`} role="status" data-testid="viewport-status">
+      <strong>
+        {SEVERITY_STYLE.broken.glyph} {title}
+      </strong>
+      <span>{text}</span>
+    </div>
+  );
+}
+
+function Legend() {
+  return (
+    <div className="legend" role="note" aria-label="Legend" data-testid="legend">
+      {SEVERITY_ORDER.filter((s) => s !== 'none').map((s) => (
+        <span key={s} className="legend-item" title={SEVERITY_STYLE[s].meaning}>
+          <span className="swatch" style={{ background: SEVERITY_STYLE[s].colour }} />
+          {SEVERITY_STYLE[s].glyph} {SEVERITY_STYLE[s].word}
+        </span>
+      ))}
+      <span className="legend-item" title="the selected hardpoint">
+        <span className="swatch" style={{ background: PART_COLOUR.selection }} />
+        selected
+      </span>
+      <span className="legend-item" title="steering axes, drawn through to the ground">
+        <span className="swatch line" style={{ background: PART_COLOUR.axis }} />
+        steering axis
+      </span>
+      <span className="legend-item" title="the turn centre (star) and the path each wheel should roll on about it">
+        <span className="swatch line" style={{ background: PART_COLOUR.path }} />
+        turn centre, paths
+      </span>
+      <span
+        className="legend-item legend-help"
+        title="Contact patches (and tyres when not within): slip and tyre clearance against the design's tolerances. Joints: articulation against rating and required margin. Parts: clearances and dead centre. Grey: no check applies. Hover a part for its numbers."
+      >
+        (?) what is coloured
+      </span>
+    </div>
+  );
+}
+
+function HoverTip() {
+  const hover = useStore(hoverStore, (s) => s.hover);
+  if (!hover) return null;
+  return (
+    <div className="hover-tip" style={{ left: hover.x + 14, top: hover.y + 14 }} role="tooltip">
+      <strong>{hover.title}</strong>
+      {hover.lines.map((l, i) => (
+        <span key={i}>{l}</span>
+      ))}
+    </div>
+  );
+}
+
+const CONSTRAINTS: { id: GizmoConstraint; label: string; title: string }[] = [
+  { id: 'free', label: 'free', title: 'all three arrows and planes' },
+  { id: 'x', label: 'x', title: 'along x only (forward)' },
+  { id: 'y', label: 'y', title: 'along y only (left)' },
+  { id: 'z', label: 'z', title: 'along z only (up)' },
+  { id: 'xy', label: 'xy', title: 'in the x-y plane (plan view)' },
+  { id: 'yz', label: 'yz', title: 'in the y-z plane (front view)' },
+  { id: 'xz', label: 'xz', title: 'in the x-z plane (side view)' },
+];
+
+function GizmoBar() {
+  const selection = useWorkbench((s) => s.selection);
+  const design = useWorkbench((s) => s.design);
+  const actions = useActions();
+  const g = useStore(gizmoStore);
+  if (!selection) return null;
+  const row = hardpointRows(design).find((r) => r.id === selection);
+  if (!row) return null;
+  return (
+    <div className="gizmo-bar" role="toolbar" aria-label="Move the selected hardpoint" data-testid="gizmo-bar">
+      <strong title={row.linked ? 'mirrored: the other side moves too' : undefined}>
+        {rowName(row)}
+        {row.linked ? ' ⇋' : ''}
+      </strong>
+      <span>move</span>
+      {CONSTRAINTS.map((c) => (
+        <button key={c.id} type="button" title={c.title} aria-pressed={g.constraint === c.id} className={g.constraint === c.id ? 'is-active' : ''} onClick={() => gizmoStore.setState({ constraint: c.id })}>
+          {c.label}
+        </button>
+      ))}
+      <label title="snap step while dragging">
+        snap{' '}
+        <select value={g.snapMm} onChange={(e) => gizmoStore.setState({ snapMm: Number(e.target.value) })}>
+          <option value={0}>off</option>
+          <option value={0.5}>0.5 mm</option>
+          <option value={1}>1 mm</option>
+          <option value={5}>5 mm</option>
+        </select>
+      </label>
+      <button type="button" title="deselect (Esc)" onClick={() => actions.select(null)}>
+        ✕
+      </button>
+    </div>
+  );
+}

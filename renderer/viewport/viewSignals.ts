@@ -1,0 +1,57 @@
+/**
+ * Small channels between the DOM around the canvas and the three.js scene: camera view
+ * requests, the "something is moving" signal that lowers the resolution, hover text, and
+ * render statistics for the benchmark and tests. No React.
+ */
+import { createStore } from 'zustand/vanilla';
+
+export type ViewName = 'front' | 'side' | 'top' | 'threeQuarter' | 'fit';
+
+type Listener<T> = (value: T) => void;
+
+class Channel<T> {
+  private readonly listeners = new Set<Listener<T>>();
+  emit(value: T): void {
+    for (const l of this.listeners) l(value);
+  }
+  on(l: Listener<T>): () => void {
+    this.listeners.add(l);
+    return () => this.listeners.delete(l);
+  }
+}
+
+/** "Show this view" requests from the view buttons. */
+export const viewRequests = new Channel<ViewName>();
+
+/** Pinged by anything that moves the picture continuously (sliders, playback, orbit, gizmo). */
+export const motion = new Channel<void>();
+
+export interface HoverInfo {
+  /** Pixel position in the viewport element. */
+  x: number;
+  y: number;
+  title: string;
+  lines: string[];
+}
+
+export const hoverStore = createStore<{ hover: HoverInfo | null }>()(() => ({ hover: null }));
+
+/** Counters read by the benchmark and the end-to-end tests (window.__tiltbenchStats). */
+export interface RenderStats {
+  /** Frames rendered since start. */
+  frames: number;
+  /** performance.now() just after the last render call. */
+  lastRenderAt: number;
+  /** Increases with every pose or design the scene was updated to. */
+  sceneSerial: number;
+  /** sceneSerial of the last rendered frame. */
+  renderedSerial: number;
+  /** Current pixel ratio of the canvas. */
+  dpr: number;
+  /** WebGL renderer string (UNMASKED_RENDERER_WEBGL when available). */
+  glRenderer: string;
+  /** Where a world point (mm) appears in the canvas, CSS pixels from its top left (for tests). */
+  project: (x: number, y: number, z: number) => [number, number];
+}
+
+export const renderStats: RenderStats = { frames: 0, lastRenderAt: 0, sceneSerial: 0, renderedSerial: 0, dpr: 1, glRenderer: '', project: () => [NaN, NaN] };

@@ -1,0 +1,133 @@
+/**
+ * Runs sweeps in a Web Worker with progress and cancel. One job per client at a time: a new
+ * job, or cancel(), stops the running one (the worker is terminated and replaced). Where no
+ * worker can be started, the job runs on the main thread after a paint (slower, no cancel).
+ */
+import type { CurveSet, EnvelopeMapData } from '../charts/chartData';
+import { computeCurves, computeMap, type CurveRequest, type MapRequest } from './sweepJobs';
+import type { SweepRequest, SweepResponse } from './sweepProtocol';
+
+export class CancelledError extends Error {
+  constructor() {
+    super('cancelled');
+    this.name = 'CancelledError';
+  }
+}
+
+type Pending = {
+  id: number;
+  request: SweepRequest;
+  resolve(v: unknown): void;
+  reject(e: Error): void;
+  progress?: (done: number, total: number) => void;
+  /** Whether the worker has answered this job at all. */
+  heard: boolean;
+};
+
+export type WorkerFactory = () => Worker;
+
+export const defaultWorkerFactory: WorkerFactory = () => new Worker(new URL('./sweepWorker.ts', import.meta.url), { type: 'module', name: 'tiltbench-sweeps' });
+
+export class SweepClient {
+  private worker: Worker | null = null;
+  private pending: Pending | null = null;
+  private nextId = 1;
+  private workerBroken = false;
+
+  constructor(private readonly factory: WorkerFactory | null = typeof Worker === 'undefined' ? null : defaultWorkerFactory) {}
+
+  get usesWorker(): boolean {
+    return this.factory !== null && !this.workerBroken;
+  }
+
+  curves(request: CurveRequest, progress?: (done: number, total: number) => void): Promise<CurveSet> {
+    return this.run({ id: this.nextId++, kind: 'curves', request }, progress) as Promise<CurveSet>;
+  }
+
+  map(request: MapRequest, progress?: (done: number, total: number) => void): Promise<EnvelopeMapData> {
+    return this.run({ id: this.nextId++, kind: 'map', request }, progress) as Promise<EnvelopeMapData>;
+  }
+
+  /** Stops the running job; its promise rejects with CancelledError. */
+  cancel(): void {
+    const p = this.pending;
+    this.pending = null;
+    if (this.worker) {
+      this.worker.terminate();
+      this.worker = null;
+    }
+    p?.reject(new CancelledError());
+  }
+
+  dispose(): void {
+    this.cancel();
+  }
+
+  private ensureWorker(): Worker | null {
+    if (this.worker || !this.factory || this.workerBroken) return this.worker;
+    try {
+      const w = this.factory();
+      w.onmessage = (e: MessageEvent<SweepResponse>) => this.onMessage(e.data);
+      w.onerror = (e) => {
+        // A worker that cannot load (a file:// page, a policy): run on the main thread from now on,
+        // starting with the job it did not take.
+        e.preventDefault?.();
+        this.workerBroken = true;
+        this.worker?.terminate();
+        this.worker = null;
+        const p = this.pending;
+        if (!p) return;
+        if (p.heard) {
+          this.pending = null;
+          p.reject(new Error(`the sweep worker failed: ${e.message || 'unknown error'}`));
+        } else {
+          this.runHere(p);
+        }
+      };
+      this.worker = w;
+    } catch {
+      this.workerBroken = true;
+    }
+    return this.worker;
+  }
+
+  private run(req: SweepRequest, progress?: (done: number, total: number) => void): Promise<unknown> {
+    if (this.pending) this.cancel();
+    return new Promise((resolve, reject) => {
+      const p: Pending = { id: req.id, request: req, resolve, reject, progress, heard: false };
+      this.pending = p;
+      const w = this.ensureWorker();
+      if (w) w.postMessage(req);
+      else this.runHere(p);
+    });
+  }
+
+  /** Main-thread fallback, after the browser had a chance to paint the progress bar. */
+  private runHere(p: Pending): void {
+    setTimeout(() => {
+      if (this.pending !== p) return;
+      const req = p.request;
+      try {
+        const data = req.kind === 'curves' ? computeCurves(req.request, p.progress) : computeMap(req.request, p.progress);
+        this.pending = null;
+        p.resolve(data);
+      } catch (e) {
+        this.pending = null;
+        p.reject(e instanceof Error ? e : new Error(String(e)));
+      }
+    }, 30);
+  }
+
+  private onMessage(m: SweepResponse): void {
+    const p = this.pending;
+    if (!p || p.id !== m.id) return;
+    p.heard = true;
+    if (m.type === 'progress') {
+      p.progress?.(m.done, m.total);
+      return;
+    }
+    this.pending = null;
+    if (m.type === 'error') p.reject(new Error(m.message));
+    else p.resolve(m.data);
+  }
+}

@@ -1,0 +1,272 @@
+// End-to-end: the built workbench in Debian Chromium (headless, WebGL on SwiftShader), driven
+// by playwright-core. Screenshots go to test-artifacts/e2e/ (look at them).
+import { readFileSync } from 'node:fs';
+import { mkdtemp } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
+import { launchChromium } from './support/chromium';
+import { differingPixels, evalIn, pollFor, readNumber, shotPath, text, waitForPicture, waitForWorkbench } from './support/page';
+
+const url = inject('tiltbenchUrl');
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+/** Page errors and policy violations seen during a test; each test ends with none. */
+let problems: string[];
+
+beforeAll(async () => {
+  browser = await launchChromium();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+beforeEach(async () => {
+  problems = [];
+  context = await browser.newContext({ viewport: { width: 1280, height: 800 }, acceptDownloads: true });
+  page = await context.newPage();
+  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  page.on('console', (m) => {
+    if (m.type() === 'error' || /Content Security Policy|Refused to/.test(m.text())) problems.push(`console ${m.type()}: ${m.text()}`);
+  });
+  await page.goto(url);
+  await waitForWorkbench(page);
+});
+
+afterEach(async () => {
+  await context?.close();
+  expect(problems).toEqual([]);
+});
+
+const state = <T>(expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.store.getState(); return ${expr}; })()`);
+
+async function commitField(testId: string, value: string) {
+  const f = page.getByTestId(testId);
+  await f.fill(value);
+  await f.press('Enter');
+}
+
+async function canvasShot(): Promise<Buffer> {
+  await waitForPicture(page);
+  return page.locator('[data-testid=viewport] canvas').screenshot();
+}
+
+describe('workbench', () => {
+  it('loads the demo design with its readouts, legend and safety caution', async () => {
+    await expect.poll(() => text(page.getByTestId('doc-title'))).toContain('Heron T3');
+    expect(await text(page.getByTestId('readout-toe-left'))).toMatch(/^0\.000/);
+    expect(await text(page.getByTestId('pose-status'))).toMatch(/within every tolerance/);
+    const caution = await text(page.getByTestId('safety-caution'));
+    expect(caution).toMatch(/design aid/);
+    expect(caution).toMatch(/measurement and testing/);
+    expect(caution).toMatch(/regulations and licensed engineering practice/);
+    expect(await text(page.getByTestId('legend'))).toMatch(/within.*close.*over.*won't assemble/);
+    await page.getByTestId('about').click();
+    expect(await text(page.getByTestId('about-dialog'))).toMatch(/design aid.*measurement and testing/);
+    await page.screenshot({ path: shotPath('01-demo-about') });
+    await page.getByTestId('about-close').click();
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('01-demo') });
+  });
+
+  it('renders WebGL on SwiftShader', async () => {
+    const renderer = await evalIn<string>(page, 'window.__tiltbenchStats.glRenderer');
+    expect(renderer).toMatch(/SwiftShader/);
+    const direct = await evalIn<string>(
+      page,
+      `(() => { const gl = document.createElement('canvas').getContext('webgl2'); const e = gl.getExtension('WEBGL_debug_renderer_info'); return String(gl.getParameter(e ? e.UNMASKED_RENDERER_WEBGL : gl.RENDERER)); })()`,
+    );
+    expect(direct).toMatch(/SwiftShader/);
+  });
+
+  it('moving the lean slider changes the readouts and the picture', async () => {
+    const before = await canvasShot();
+    const camberBefore = await text(page.getByTestId('readout-camberGround-left'));
+    const box = (await page.getByTestId('slider-leanDeg').boundingBox())!;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.mouse.down();
+    await page.mouse.move(box.x + box.width * 0.66, box.y + box.height / 2, { steps: 8 });
+    await page.mouse.move(box.x + box.width * 0.78, box.y + box.height / 2, { steps: 8 });
+    await page.mouse.up();
+    const lean = await state<number>('s.pose.leanDeg');
+    expect(lean).toBeGreaterThan(10);
+    await expect.poll(() => readNumber(page, 'readout-lean')).toBeCloseTo(lean, 2);
+    expect(await text(page.getByTestId('readout-camberGround-left'))).not.toBe(camberBefore);
+    const after = await canvasShot();
+    const changed = await differingPixels(page, before, after);
+    expect(changed).toBeGreaterThan(2000);
+    await page.screenshot({ path: shotPath('02-leaned') });
+  });
+
+  it('editing a hardpoint changes toe, and undo restores it', async () => {
+    await commitField('pose-handlebarDeg', '10');
+    await expect.poll(() => readNumber(page, 'readout-handlebar')).toBe(10);
+    const toeBefore = await text(page.getByTestId('readout-toe-right'));
+    await commitField('hp-upright.steeringArmJoint.right-x', '-90');
+    await expect.poll(() => text(page.getByTestId('readout-toe-right'))).not.toBe(toeBefore);
+    expect(Math.abs((await readNumber(page, 'readout-toe-right')) - Number(toeBefore.replace('−', '-').split(' ')[0]))).toBeGreaterThan(0.05);
+    await expect(page.getByTestId('dirty-marker').isVisible()).resolves.toBe(true);
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('03-edited') });
+    await page.getByTestId('undo').click();
+    await expect.poll(() => text(page.getByTestId('readout-toe-right'))).toBe(toeBefore);
+    expect(await page.getByTestId('hp-upright.steeringArmJoint.right-x').inputValue()).toBe('-75');
+    expect(await page.getByTestId('dirty-marker').count()).toBe(0);
+    await page.keyboard.press('Control+Shift+Z');
+    await expect.poll(() => page.getByTestId('hp-upright.steeringArmJoint.right-x').inputValue()).toBe('-90');
+  });
+
+  it('save then open round-trips the design exactly (browser download and file input)', async () => {
+    await commitField('hp-steering.pivot-z', '112.5');
+    await page.getByTestId('unlink-upright.wheelCentre').click();
+    await commitField('hp-upright.wheelCentre.left-x', '3');
+    const savedText = await state<string>('s.designText');
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('file-save').click()]);
+    const dir = await mkdtemp(path.join(os.tmpdir(), 'tiltbench-e2e-'));
+    const file = path.join(dir, download.suggestedFilename());
+    await download.saveAs(file);
+    expect(download.suggestedFilename()).toMatch(/\.tiltsheet$/);
+    const onDisk = readFileSync(file, 'utf8');
+    expect(onDisk).toBe(savedText);
+    expect(await page.getByTestId('dirty-marker').count()).toBe(0);
+
+    // Change it again, then open the saved file over it.
+    await commitField('hp-steering.pivot-z', '130');
+    await page.getByTestId('file-open').click();
+    const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByTestId('confirm-ok').click()]);
+    await chooser.setFiles(file);
+    await expect.poll(() => state<string>('s.designText')).toBe(onDisk);
+    expect(await state<unknown>('s.design')).toEqual(JSON.parse(onDisk));
+    expect(await page.getByTestId('hp-upright.wheelCentre.left-x').inputValue()).toBe('3');
+    expect(await page.getByTestId('dirty-marker').count()).toBe(0);
+    expect(await text(page.getByTestId('doc-title'))).toContain(path.basename(file));
+  });
+
+  it('a malformed file shows a clear error and loses nothing', async () => {
+    await commitField('hp-steering.pivot-z', '111');
+    const before = await state<string>('s.designText');
+    await page.getByTestId('open-file-input').setInputFiles({ name: 'broken.tiltsheet', mimeType: 'application/json', buffer: Buffer.from('{ "tiltsheet": 1, "name": "half a file",') });
+    const notice = page.getByTestId('notice');
+    await notice.waitFor();
+    const words = await text(notice);
+    expect(words).toMatch(/Could not open broken\.tiltsheet/);
+    expect(words).toMatch(/line 1/);
+    expect(words).toMatch(/still here/);
+    await page.screenshot({ path: shotPath('04-malformed') });
+    await page.getByTestId('notice-ok').click();
+    expect(await state<string>('s.designText')).toBe(before);
+    expect(await page.getByTestId('dirty-marker').isVisible()).toBe(true);
+
+    // Valid JSON with a bad field: the message names the field.
+    const bad = JSON.parse(before);
+    bad.vehicle.wheelbaseMm = -5;
+    await page.getByTestId('open-file-input').setInputFiles({ name: 'negative.tiltsheet', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(bad)) });
+    await notice.waitFor();
+    expect(await text(notice)).toMatch(/vehicle\.wheelbaseMm/);
+    await page.getByTestId('notice-ok').click();
+    expect(await state<string>('s.designText')).toBe(before);
+  });
+
+  it("a design that cannot assemble shows that state, not a broken picture", async () => {
+    const design = JSON.parse(await state<string>('s.designText'));
+    design.name = 'Tyres too big to reach the ground';
+    design.wheels.front.rollingRadiusMm = 1500;
+    await page.getByTestId('open-file-input').setInputFiles({ name: 'too-big.tiltsheet', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(design)) });
+    const status = page.getByTestId('viewport-status');
+    await status.waitFor();
+    expect(await text(status)).toMatch(/Won't assemble/);
+    expect(await text(status)).toMatch(/hardpoints as entered/);
+    expect(await state<string>('s.outcome.shown')).toBe('as-entered');
+    expect(await text(page.getByTestId('readouts'))).toMatch(/No readings/);
+    expect(await text(page.getByTestId('alerts'))).toMatch(/cannot reach this pose/);
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('05-cannot-assemble') });
+  });
+
+  it('a pose the linkage cannot reach keeps the last pose that closed and says why', async () => {
+    await commitField('pose-handlebarDeg', '60');
+    const status = page.getByTestId('viewport-status');
+    await status.waitFor();
+    expect(await text(status)).toMatch(/Won't reach this pose/);
+    expect(await text(status)).toMatch(/tie rod/);
+    expect(await state<string>('s.outcome.shown')).toBe('last-good');
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('06-unreachable-pose') });
+    await commitField('pose-handlebarDeg', '5');
+    await expect.poll(() => page.getByTestId('viewport-status').count()).toBe(0);
+  });
+
+  it('autosaves unsaved work and offers to restore it after a reload', async () => {
+    await commitField('hp-steering.pivot-z', '123');
+    await page.waitForTimeout(1500);
+    await page.reload();
+    await waitForWorkbench(page);
+    const offer = page.getByTestId('recovery');
+    await offer.waitFor();
+    expect(await text(offer)).toMatch(/unsaved changes to Heron T3/);
+    await page.screenshot({ path: shotPath('07-recovery-offer') });
+    await page.getByTestId('recovery-restore').click();
+    await expect.poll(() => page.getByTestId('hp-steering.pivot-z').inputValue()).toBe('123');
+    expect(await page.getByTestId('dirty-marker').isVisible()).toBe(true);
+  });
+
+  it('draws the envelope map in the worker, and a click on a cell moves the pose there', async () => {
+    await page.getByTestId('tab-map').click();
+    const chart = page.getByTestId('chart-map');
+    await chart.waitFor({ timeout: 60_000 });
+    await pollFor(page, `document.querySelectorAll('[data-testid=chart-map] svg path, [data-testid=chart-map] svg rect').length > 50`, 60_000, 'the heat map');
+    const box = (await chart.boundingBox())!;
+    await page.mouse.click(box.x + 62 + (box.width - 62 - 150) * 0.85, box.y + 58 + (box.height - 58 - 44) * 0.2);
+    await expect.poll(() => state<number>('s.pose.leanDeg')).toBeGreaterThan(5);
+    expect(Math.abs(await state<number>('s.pose.handlebarDeg'))).toBeGreaterThan(5);
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('08-envelope-map') });
+  });
+});
+
+describe('gizmo', () => {
+  it('drags a selected hardpoint in the viewport; the linkage re-solves and the drag is one undo step', async () => {
+    await commitField('pose-handlebarDeg', '10');
+    await page.getByTestId('hp-upright.steeringArmJoint.right').locator('th').click();
+    await page.getByTestId('gizmo-bar').waitFor();
+    await waitForPicture(page);
+    const before = await state<{ x: number; y: number; z: number }>('s.design.upright.steeringArmJoint');
+    const toeBefore = await text(page.getByTestId('readout-toe-right'));
+    const canvas = (await page.locator('[data-testid=viewport] canvas').boundingBox())!;
+    const [px, py] = await evalIn<[number, number]>(
+      page,
+      `(() => { const p = window.__tiltbench.store.getState().outcome.snapshot.points['upright.steeringArmJoint.right']; return window.__tiltbenchStats.project(p[0], p[1], p[2]); })()`,
+    );
+    const x0 = canvas.x + px;
+    const y0 = canvas.y + py;
+    await page.mouse.move(x0, y0);
+    await page.mouse.down();
+    for (let k = 1; k <= 10; k++) await page.mouse.move(x0 + 3 * k, y0 - 2 * k);
+    await page.mouse.up();
+    await waitForPicture(page);
+    const after = await state<{ x: number; y: number; z: number }>('s.design.upright.steeringArmJoint');
+    expect(after).not.toEqual(before);
+    expect(await state<number>('s.history.past.length')).toBe(1);
+    expect(await state<string>('s.history.past[0].label')).toMatch(/move right upright steering arm joint/);
+    await expect.poll(() => text(page.getByTestId('readout-toe-right'))).not.toBe(toeBefore);
+    await page.screenshot({ path: shotPath('09-gizmo-drag') });
+    await page.getByTestId('undo').click();
+    expect(await state<unknown>('s.design.upright.steeringArmJoint')).toEqual(before);
+    await expect.poll(() => text(page.getByTestId('readout-toe-right'))).toBe(toeBefore);
+  });
+});
+
+describe('start-up', () => {
+  it('opens the design named in the address (what npm start passes without Electron)', async () => {
+    await page.goto(`${url}?design=designs/wren-rack-trike.tiltsheet`);
+    await waitForWorkbench(page);
+    await expect.poll(() => text(page.getByTestId('doc-title'))).toContain('Wren R1');
+    expect(await page.getByTestId('slider-leanDeg').isDisabled()).toBe(true);
+    expect(await page.getByTestId('dirty-marker').count()).toBe(0);
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('10-startup-wren') });
+  });
+});
