@@ -16,6 +16,7 @@ export const IPC = {
   recoveryRead: 'recovery:read',
   recoveryClear: 'recovery:clear',
   appRecent: 'app:recent',
+  designOpenRecent: 'design:openRecent',
 } as const;
 
 export type IpcChannel = (typeof IPC)[keyof typeof IPC];
@@ -43,6 +44,8 @@ export interface TiltbenchApi {
   clearRecovery(): Promise<void>;
   /** Recently opened or saved design paths, newest first, existing files only. */
   recentDesigns(): Promise<string[]>;
+  /** Reopens a path listed by recentDesigns() (main refuses any other); null if it is gone. */
+  openRecentDesign(path: string): Promise<DesignFile | null>;
 }
 
 declare global {

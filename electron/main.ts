@@ -155,6 +155,15 @@ function registerIpc(initialDesign: string | null): void {
     parseNoArgs(IPC.appRecent, args);
     return (await loadRecent()).filter((p) => existsSync(p));
   });
+
+  handle(IPC.designOpenRecent, async (args) => {
+    if (args.length !== 1 || typeof args[0] !== 'string') throw new Error(`${IPC.designOpenRecent}: expected one path`);
+    const wanted = validateDesignPath(IPC.designOpenRecent, args[0]);
+    // Only a path this app listed as recent: the renderer cannot name arbitrary files.
+    if (!(await loadRecent()).includes(wanted)) throw new Error(`${IPC.designOpenRecent}: not a recent design`);
+    if (!existsSync(wanted)) return null;
+    return readDesign(IPC.designOpenRecent, wanted);
+  });
 }
 
 /** Applies navigation and window-opening rules to every web contents the app creates. */
@@ -186,6 +195,9 @@ function createWindow(): void {
   void win.loadFile(RENDERER_INDEX);
 }
 
+// Without a GPU, Chromium no longer falls back to SwiftShader for WebGL unless told to; the
+// viewport is designed to render on the CPU.
+app.commandLine.appendSwitch('enable-unsafe-swiftshader');
 app.enableSandbox();
 app.on('web-contents-created', (_event, contents) => lockDown(contents));
 

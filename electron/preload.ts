@@ -15,6 +15,7 @@ const api: TiltbenchApi = {
   readRecovery: () => ipcRenderer.invoke(IPC.recoveryRead),
   clearRecovery: () => ipcRenderer.invoke(IPC.recoveryClear),
   recentDesigns: () => ipcRenderer.invoke(IPC.appRecent),
+  openRecentDesign: (path: string) => ipcRenderer.invoke(IPC.designOpenRecent, path),
 };
 
 contextBridge.exposeInMainWorld('tiltbench', Object.freeze(api));

@@ -45,8 +45,7 @@ export function baseName(p: string): string {
   return parts[parts.length - 1] || p;
 }
 
-/** The preload may gain `openRecentDesign(path)`; until then recent files cannot be reopened by path. */
-type ElectronApi = TiltbenchApi & { openRecentDesign?(path: string): Promise<{ path: string; text: string } | null> };
+type ElectronApi = TiltbenchApi;
 
 export function electronFileService(api: ElectronApi): FileService {
   const opened = (f: { path: string; text: string } | null): OpenedFile | null => (f ? { fileName: baseName(f.path), path: f.path, text: f.text } : null);
@@ -65,12 +64,7 @@ export function electronFileService(api: ElectronApi): FileService {
     },
     saveAs,
     recent: async () => (await api.recentDesigns()).map((p) => ({ label: baseName(p), id: p })),
-    async openRecent(entry) {
-      if (!api.openRecentDesign) {
-        throw new Error(`reopening ${entry.label} by its path needs a newer Electron shell; use Open… and pick ${entry.id}`);
-      }
-      return opened(await api.openRecentDesign(entry.id));
-    },
+    openRecent: async (entry) => opened(await api.openRecentDesign(entry.id)),
     writeRecovery: (text) => api.writeRecovery(text),
     readRecovery: () => api.readRecovery(),
     clearRecovery: () => api.clearRecovery(),
