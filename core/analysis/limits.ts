@@ -113,7 +113,7 @@ export function steerLimits(design: ResolvedDesign, leans: number[], options: Li
     input.handlebarDeg = bar;
     const r = solver.solve(input, !first);
     first = false;
-    const a = r.status === 'converged' || r.status === 'singular' ? analyser.analyse(r) : null;
+    const a = r.reached ? analyser.analyse(r) : null;
     return { r, a };
   };
 

@@ -88,7 +88,7 @@ export function solveSinglePose(
     mode,
     inputs,
   };
-  if (result.status !== 'converged' && result.status !== 'singular') {
+  if (!result.reached) {
     return { result, report, text: `${design.name}\n${statusLine(result)}\n` };
   }
   const snapshot = takeSnapshot(solver.mechanism);
@@ -115,7 +115,7 @@ function analyseSinglePose(design: ResolvedDesign, mode: PoseMode, solver: PoseS
   const auxAnalyser = new PoseAnalyser(design, aux.mechanism, { findings: false });
   const at = (patch: Partial<PoseInputs>): PoseAnalysis | null => {
     const r = aux.solve({ ...here, wheelAngleDeg: 0, ...patch }, false);
-    return r.status === 'converged' || r.status === 'singular' ? auxAnalyser.analyse(r) : null;
+    return r.reached ? auxAnalyser.analyse(r) : null;
   };
   const ref = at({ leanDeg: 0, heaveMm: 0, travelLeftMm: 0, travelRightMm: 0 });
   const toeRef: ToeReference = ref

@@ -135,7 +135,7 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
     input.handlebarDeg = axes.handlebarDeg[s];
     const r = solver.solve(input, s > 0);
     solves++;
-    if (r.status === 'converged' || r.status === 'singular') {
+    if (r.reached) {
       const a = analyser.analyse(r);
       toeRefs[s] = { leftDeg: a.wheels.left.toeDeg, rightDeg: a.wheels.right.toeDeg };
     } else {
@@ -169,7 +169,7 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
         first = false;
         solves++;
         // Literal objects, no spread: V8's spread-with-extra-keys is slow and this runs per pose.
-        if (r.status === 'converged' || r.status === 'singular') {
+        if (r.reached) {
           const analysis = analyser.analyse(r, toeRefs[si]);
           rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: true, analysis };
         } else {

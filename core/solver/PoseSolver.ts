@@ -15,6 +15,13 @@ export type SolveStatus = 'converged' | 'cannot-assemble' | 'singular' | 'did-no
 export interface SolveResult {
   status: SolveStatus;
   /**
+   * Whether the mechanism now holds a closed pose at the requested inputs. True for
+   * 'converged' and for a pose reached at a dead centre ('singular'); false for every failure,
+   * including a solve stopped before a branch switch (also 'singular'), which keeps the last
+   * good pose instead.
+   */
+  reached: boolean;
+  /**
    * Largest constraint residual at the returned pose, mm (heading rows scaled to mm);
    * null when no residual was evaluated (invalid input).
    */
@@ -313,6 +320,7 @@ export class PoseSolver {
     if (singular) {
       return {
         status: 'singular',
+        reached: true,
         residualMm: res.maxResidual,
         iterations,
         evaluations,
@@ -320,7 +328,7 @@ export class PoseSolver {
         message: `the linkage is at a dead centre or has lost a degree of freedom here (conditioning ${res.pivotRatio.toExponential(1)})`,
       };
     }
-    return { status: 'converged', residualMm: res.maxResidual, iterations, evaluations, substeps, message: 'converged' };
+    return { status: 'converged', reached: true, residualMm: res.maxResidual, iterations, evaluations, substeps, message: 'converged' };
   }
 
   /**
@@ -524,6 +532,7 @@ export class PoseSolver {
   private fail(status: SolveStatus, message: string, culprit?: string, gap = NaN, out?: LmOutcome): SolveResult {
     return {
       status,
+      reached: false,
       residualMm: Number.isFinite(gap) ? gap : null,
       iterations: out?.iterations ?? 0,
       evaluations: out?.evaluations ?? 0,

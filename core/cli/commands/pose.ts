@@ -54,7 +54,7 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
   const out = solveSinglePose(loaded.design, request);
-  const solved = out.result.status === 'converged' || out.result.status === 'singular';
+  const solved = out.result.reached;
   if (json) {
     io.out(JSON.stringify({ design: loaded.path, ...out.report, caution: SAFETY_CAUTION }, null, 2) + '\n');
   } else {

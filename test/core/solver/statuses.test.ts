@@ -272,3 +272,20 @@ describe('warm and cold solves agree', () => {
     }
   }
 });
+
+describe('reached: whether the returned pose is the one asked for', () => {
+  it('is true for a converged pose and false for every failure, which keeps the last good pose', () => {
+    const solver = new PoseSolver(buildMechanism(heron, { contact: 'travel', steerBy: 'handlebar' }));
+    const ok = solver.solve({ ...zeroInputs(), travelRightMm: 20, travelLeftMm: 20 });
+    expect(ok.status).toBe('converged');
+    expect(ok.reached).toBe(true);
+    const far = solver.solve({ ...zeroInputs(), travelRightMm: 400, travelLeftMm: 400 });
+    expect(far.status).toBe('cannot-assemble');
+    expect(far.reached).toBe(false);
+    // the mechanism still holds the last good pose, at its inputs
+    expect(solver.mechanism.currentInputs.travelRightMm).toBe(20);
+    const bad = solver.solve({ ...zeroInputs(), leanDeg: NaN });
+    expect(bad.status).toBe('invalid-input');
+    expect(bad.reached).toBe(false);
+  });
+});
