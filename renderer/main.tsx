@@ -7,6 +7,7 @@ import { App } from './app/App';
 import { FlowProvider } from './app/flowContext';
 import { WorkbenchProvider } from './app/workbenchContext';
 import { DocumentFlow } from './files/documentFlow';
+import { indexedDbRecovery } from './files/durableRecovery';
 import { browserFileService, electronFileService, type FileService } from './files/fileService';
 import { DEFAULT_DEMO } from './model/demoDesigns';
 import { designToText } from './model/designText';
@@ -67,6 +68,7 @@ function browserFiles(): FileService {
     location: window.location,
     storage: window.localStorage,
     fetch: window.fetch.bind(window),
+    ...(window.indexedDB ? { durable: indexedDbRecovery(window.indexedDB) } : {}),
   });
 }
 

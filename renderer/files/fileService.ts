@@ -1,9 +1,11 @@
 /**
  * Files through one interface: the Electron shell's narrow preload API (native dialogs,
  * atomic writes in main) or, in a plain browser, the browser's own file APIs (a file input,
- * a download, localStorage for the recovery copy and the recent list).
+ * a download, IndexedDB (strict durability) and localStorage for the recovery copy, localStorage
+ * for the recent list).
  */
 import type { TiltbenchApi } from '../../electron/api';
+import type { DurableRecovery } from './durableRecovery';
 
 export interface OpenedFile {
   fileName: string;
@@ -108,6 +110,8 @@ export interface BrowserHooks {
   location: Location;
   storage: Storage;
   fetch: typeof fetch;
+  /** Where the recovery copy is flushed to disk; without it (tests), localStorage only. */
+  durable?: DurableRecovery;
 }
 
 export function browserFileService(h: BrowserHooks): FileService {
@@ -143,10 +147,24 @@ export function browserFileService(h: BrowserHooks): FileService {
       return r ? { fileName: r.fileName, path: null, text: r.text } : null;
     },
     async writeRecovery(text) {
+      // Durable copy first; the localStorage copy (quick to read, and what tests watch) is
+      // written only once the durable one is on disk.
+      if (h.durable) await h.durable.write(text);
       h.storage.setItem(RECOVERY_KEY, text);
     },
-    readRecovery: async () => h.storage.getItem(RECOVERY_KEY),
+    async readRecovery() {
+      if (h.durable) {
+        try {
+          const text = await h.durable.read();
+          if (text !== null) return text;
+        } catch {
+          // IndexedDB unavailable (private mode, quota): fall back to localStorage.
+        }
+      }
+      return h.storage.getItem(RECOVERY_KEY);
+    },
     async clearRecovery() {
+      if (h.durable) await h.durable.clear();
       h.storage.removeItem(RECOVERY_KEY);
     },
   };
