@@ -10,7 +10,7 @@ const CORE_MESSAGE =
 const RENDERER_MESSAGE = 'The renderer reaches Electron and Node only through window.tiltbench (electron/preload.ts).';
 
 export default defineConfig(
-  globalIgnores(['dist/', 'dist-electron/', 'release/', 'node_modules/', 'assets/', 'coverage/']),
+  globalIgnores(['dist/', 'dist-electron/', 'release/', 'node_modules/', 'assets/', 'coverage/', 'test-artifacts/']),
   {
     files: ['**/*.{ts,tsx,mts,cts,js,mjs,cjs}'],
     extends: [tseslint.configs.recommended],
