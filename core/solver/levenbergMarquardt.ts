@@ -56,6 +56,8 @@ export interface LmOutcome {
 }
 
 const STAGNATION_WINDOW = 10;
+/** Try a chord step once the residual is within this factor of the tolerance. */
+const CHORD_BELOW = 1e4;
 
 export class LevenbergMarquardt {
   private readonly n: number;
@@ -182,6 +184,21 @@ export class LevenbergMarquardt {
         cost = newCost;
         maxR = maxAbs(r);
         if (maxR < opts.tolerance) return this.finish('converged', iterations, evaluations, maxR);
+        // Nearly there: one chord step (the Jacobian and factorisation just used, with the new
+        // residual) usually finishes the job, since the last step barely moved the Jacobian.
+        // It costs a residual and two triangular solves instead of a new Jacobian and factor.
+        if (maxR < CHORD_BELOW * opts.tolerance && iterations < opts.maxIterations) {
+          const chord = this.chordStep(mu);
+          evaluations++;
+          if (chord !== null && chord < opts.tolerance) {
+            iterations++;
+            return this.finish('converged', iterations, evaluations, chord);
+          }
+          if (chord !== null) {
+            cost = halfSquaredNorm(r);
+            maxR = chord;
+          }
+        }
         this.normalEquations();
         const t = 2 * rho - 1;
         mu *= Math.max(1 / 3, 1 - t * t * t);
@@ -200,6 +217,37 @@ export class LevenbergMarquardt {
     }
     void m;
     return this.finish('max-iterations', iterations, evaluations, maxR);
+  }
+
+  /**
+   * One chord (simplified Newton) step with the Jacobian and damped factorisation of the
+   * last iteration: h = -(A + mu D)^-1 J_old^T r. Kept only if it lowers the residual; returns
+   * the new max |r|, or null when it was rejected (state and r restored).
+   */
+  private chordStep(mu: number): number | null {
+    const { n, m, r, rTrial, jac, aDamped, negG, h } = this;
+    void mu;
+    for (let i = 0; i < n; i++) {
+      let gi = 0;
+      for (let k = 0; k < m; k++) gi += jac[k * n + i] * r[k];
+      negG[i] = -gi;
+    }
+    choleskySolve(aDamped, n, negG, h);
+    const p = this.problem;
+    const before = maxAbs(r);
+    p.save();
+    p.step(h);
+    if (p.residuals(rTrial)) {
+      const after = maxAbs(rTrial);
+      if (after < before) {
+        r.set(rTrial);
+        // the Jacobian is now one step stale: the normal equations are recomputed by the caller
+        return after;
+      }
+    }
+    p.restore();
+    p.residuals(r);
+    return null;
   }
 
   /** A = J^T J, g = J^T r at the current state, and the Marquardt scaling diag(A). */
