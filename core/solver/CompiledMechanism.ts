@@ -574,23 +574,17 @@ export class CompiledMechanism implements LeastSquaresProblem {
 
   /**
    * Largest rotation change (radians) of any unknown between a stored state and the current
-   * one (slides are left in lastChangeMm): the measure continuation uses to spot a branch jump.
+   * one: the measure continuation uses to spot a branch jump.
    */
   largestChange(coordRef: Float64Array, sphRef: Float64Array): number {
     let rad = 0;
-    let mm = 0;
     for (let b = 0; b < this.nBodies; b++) {
       if (this.firstVar[b] < 0) continue;
       if (this.kind[b] === KIND_SPHERICAL) rad = Math.max(rad, angleBetweenRotations(this.sph, 9 * b, sphRef, 9 * b));
       else if (this.kind[b] === KIND_REVOLUTE) rad = Math.max(rad, Math.abs(this.coord[b] - coordRef[b]));
-      else mm = Math.max(mm, Math.abs(this.coord[b] - coordRef[b]));
     }
-    this.lastChangeMm = mm;
     return rad;
   }
-
-  /** The largest slide change (mm) found by the last `largestChange` call. */
-  lastChangeMm = 0;
 
   /**
    * Extrapolate the unknowns from the current state x0 using earlier states x1 and x2:

@@ -156,7 +156,7 @@ export class PoseSolver {
     }
     let from: Float64Array;
     let predicted = false;
-    const opts0 = this.options;
+    const opts = this.options;
     this.startedCold = false;
     let turning = false;
     if (warm && this.hasGood && this.hasPrev && this.reverses(target)) {
@@ -197,7 +197,7 @@ export class PoseSolver {
       if (settle.ending !== 'converged') {
         const culprit = settle.worstResidual >= 0 ? m.constraintLabelOfRow(settle.worstResidual) : undefined;
         const result = this.fail(
-          settle.maxResidual > opts0.assemblyGapMm ? 'cannot-assemble' : 'did-not-converge',
+          settle.maxResidual > opts.assemblyGapMm ? 'cannot-assemble' : 'did-not-converge',
           `the design position cannot be closed in this mode at zero inputs; worst: ${culprit} (${fmt(settle.maxResidual)} mm)`,
           culprit,
           settle.maxResidual,
@@ -207,7 +207,6 @@ export class PoseSolver {
         return result;
       }
     }
-    const opts = this.options;
     // How many sub-steps the input change needs.
     let span = 0;
     for (let k = 0; k < N_INPUTS; k++) {
@@ -215,7 +214,6 @@ export class PoseSolver {
       span = Math.max(span, INPUT_IS_DEG[k] ? d / opts.maxStepDeg : d / opts.maxStepMm);
     }
     let pieces = Math.max(1, Math.ceil(span - 1e-12));
-    let done = 0; // fraction of the way reached, in units of 1/pieces
     let iterations = 0;
     let evaluations = 0;
     let substeps = 0;
@@ -256,7 +254,6 @@ export class PoseSolver {
       checkTurn = false;
       if (last!.ending === 'converged' && !jump) {
         reached = next;
-        done++;
         continue;
       }
       // Failed or jumped: retry this stretch in smaller pieces, from where it started.
@@ -271,7 +268,6 @@ export class PoseSolver {
       // keep `reached` on the new grid
       reached = Math.round(reached * pieces) / pieces;
     }
-    void done;
     const res = last!;
     // Accept and remember as the warm start; the previous one feeds the predictor. The two
     // input records swap roles instead of a new object per pose.

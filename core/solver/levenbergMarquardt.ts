@@ -106,7 +106,7 @@ export class LevenbergMarquardt {
 
   /** Solve from the problem's current state. The outcome record is reused by the next solve. */
   solve(opts: LmOptions): LmOutcome {
-    const { n, m, r, rTrial, a, aDamped, g, negG, h, scale } = this;
+    const { n, r, rTrial, a, aDamped, g, negG, h, scale } = this;
     const p = this.problem;
     let evaluations = 1;
     this.normalValid = false;
@@ -188,7 +188,7 @@ export class LevenbergMarquardt {
         // residual) usually finishes the job, since the last step barely moved the Jacobian.
         // It costs a residual and two triangular solves instead of a new Jacobian and factor.
         if (maxR < CHORD_BELOW * opts.tolerance && iterations < opts.maxIterations) {
-          const chord = this.chordStep(mu);
+          const chord = this.chordStep();
           evaluations++;
           if (chord !== null && chord < opts.tolerance) {
             iterations++;
@@ -215,18 +215,16 @@ export class LevenbergMarquardt {
         }
       }
     }
-    void m;
     return this.finish('max-iterations', iterations, evaluations, maxR);
   }
 
   /**
    * One chord (simplified Newton) step with the Jacobian and damped factorisation of the
-   * last iteration: h = -(A + mu D)^-1 J_old^T r. Kept only if it lowers the residual; returns
+   * last iteration: h = -(A + mu D)^-1 J_old^T r, reusing that factor as it stands. Kept only if it lowers the residual; returns
    * the new max |r|, or null when it was rejected (state and r restored).
    */
-  private chordStep(mu: number): number | null {
+  private chordStep(): number | null {
     const { n, m, r, rTrial, jac, aDamped, negG, h } = this;
-    void mu;
     for (let i = 0; i < n; i++) {
       let gi = 0;
       for (let k = 0; k < m; k++) gi += jac[k * n + i] * r[k];

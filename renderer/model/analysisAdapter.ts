@@ -6,7 +6,7 @@
  */
 import type { ResolvedDesign, Side } from '../../core/design/types';
 import { buildMechanism, type PoseMode } from '../../core/mechanism/templates/buildMechanism';
-import { INPUT_NAMES, zeroInputs, type MechanismGraph, type PoseInputs } from '../../core/mechanism/MechanismGraph';
+import { zeroInputs, type MechanismGraph, type PoseInputs } from '../../core/mechanism/MechanismGraph';
 import { PoseSolver, type SolveStatus } from '../../core/solver/PoseSolver';
 import { takeSnapshot, type PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import { NO_LIFT_REFERENCE, NO_NEIGHBOURS, PoseAnalyser, frontLift, type ToeReference } from '../../core/analysis/PoseAnalyser';
@@ -176,7 +176,6 @@ export class PoseSession {
   private readonly straight: { solver: PoseSolver; analyser: PoseAnalyser; warm: boolean };
   private hasGood = false;
   private hasGoodReference = false;
-  private readonly residual: Float64Array;
 
   constructor(design: ResolvedDesign, contact: Contact) {
     this.design = design;
@@ -187,7 +186,6 @@ export class PoseSession {
     this.solver = new PoseSolver(graph);
     this.analyser = new PoseAnalyser(design, this.solver.mechanism, { findings: true });
     this.reference = new PoseSolver(buildMechanism(design, mode));
-    this.residual = new Float64Array(this.solver.mechanism.nResiduals);
     const aux = () => {
       const solver = new PoseSolver(buildMechanism(design, mode));
       return { solver, analyser: new PoseAnalyser(design, solver.mechanism, { findings: false }), warm: false };
@@ -234,28 +232,12 @@ export class PoseSession {
   private toeReference(pose: PoseUi): ToeReference {
     const inputs = toCoreInputs({ ...pose, leanDeg: 0, heaveMm: 0, travelLeftMm: 0, travelRightMm: 0 });
     const r = this.reference.solve(inputs, this.hasGoodReference);
-    if (r.status !== 'converged' && !(r.status === 'singular' && r.residualMm !== null && r.residualMm <= this.reference.options.assemblyGapMm && this.reference.inputs.handlebarDeg === inputs.handlebarDeg)) {
+    if (!r.reached) {
       return { reason: `the reference pose (zero lean and travel, handlebar ${pose.handlebarDeg} deg) could not be solved: ${r.message}` };
     }
     this.hasGoodReference = true;
     const w = takeSnapshot(this.reference.mechanism).wheels;
     return { leftDeg: w.left.toeDeg, rightDeg: w.right.toeDeg };
-  }
-
-  /**
-   * Whether the mechanism now sits at `inputs` with every loop closed. Core's solver reports
-   * 'singular' both for a pose reached near a dead centre and for a solve that stopped before
-   * a branch jump (after which it holds an earlier pose); only the first is a reached pose.
-   */
-  private closedAt(inputs: PoseInputs): boolean {
-    const m = this.solver.mechanism;
-    const now = m.currentInputs;
-    for (const k of INPUT_NAMES) if (now[k] !== inputs[k]) return false;
-    m.forward();
-    m.residuals(this.residual);
-    let worst = 0;
-    for (let i = 0; i < this.residual.length; i++) worst = Math.max(worst, Math.abs(this.residual[i]));
-    return worst <= this.solver.options.assemblyGapMm;
   }
 
   /**
@@ -266,7 +248,7 @@ export class PoseSession {
     const t0 = performance.now();
     const inputs = toCoreInputs(pose);
     const result = this.solver.solve(inputs, this.hasGood);
-    const reached = result.status === 'converged' || (result.status === 'singular' && this.closedAt(inputs));
+    const reached = result.reached;
     let analysis: PoseAnalysis | null = null;
     if (reached) {
       this.hasGood = true;
