@@ -1,3 +1,7 @@
+// Sources: joint angles against Rodrigues' rotation formula (a steer of t about axis k turns a
+// stud s by acos(cos t + (k.s)^2 (1 - cos t))); the closed-form distances and the minimax tie-rod
+// spin against brute-force search over densely sampled points (an independent method, no
+// source needed beyond geometry).
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { articulation, rotateShortest, tieRodArticulation } from '../../../core/analysis/jointArticulation';

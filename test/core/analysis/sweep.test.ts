@@ -1,3 +1,6 @@
+// Consistency checks of the sweep machinery (no outside source): each cell of a warm sweep
+// must equal an independent cold solve of the same pose; outside references for the measures
+// themselves are in the other test files of this folder.
 import { describe, it, expect } from 'vitest';
 import { runSweep, envelopeAxes, SweepInputError, type SweepCell } from '../../../core/analysis/sweep';
 import { envelopeMap } from '../../../core/analysis/envelopeMap';
