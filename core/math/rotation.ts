@@ -12,6 +12,20 @@ export type Mat3Like = { [index: number]: number; length: number };
  * Writes a column-major matrix at out[o..o+8].
  */
 export function rotationFromVector(out: Mat3Like, o: number, wx: number, wy: number, wz: number): Mat3Like {
+  const w = vectorScratch;
+  w[0] = wx;
+  w[1] = wy;
+  w[2] = wz;
+  return rotationFromVectorAt(out, o, w, 0);
+}
+const vectorScratch = new Float64Array(3);
+
+/**
+ * The same, reading the vector from w[wo..wo+2]. The solver's loops call this form: a call
+ * V8 does not inline boxes every number argument on the heap, an array does not.
+ */
+export function rotationFromVectorAt(out: Mat3Like, o: number, w: Mat3Like, wo: number): Mat3Like {
+  const wx = w[wo], wy = w[wo + 1], wz = w[wo + 2];
   const t2 = wx * wx + wy * wy + wz * wz;
   let a: number;
   let b: number;
@@ -93,7 +107,7 @@ export function vectorFromRotation(out: Mat3Like, m: Mat3Like, o: number): Mat3L
   const sy = (m[o + 6] - m[o + 2]) / 2;
   const sz = (m[o + 1] - m[o + 3]) / 2;
   const c = Math.min(1, Math.max(-1, (m[o] + m[o + 4] + m[o + 8] - 1) / 2));
-  const s = Math.hypot(sx, sy, sz);
+  const s = Math.sqrt(sx * sx + sy * sy + sz * sz);
   const t = Math.atan2(s, c);
   const k = s < 1e-12 ? 1 + (t * t) / 6 : t / s;
   out[0] = sx * k;

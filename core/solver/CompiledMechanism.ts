@@ -12,7 +12,7 @@
  * its axis.
  */
 
-import { rotationAboutAxis, rotationFromVector, multiplyMat3, orthonormalize, angleBetweenRotations, vectorFromRotation } from '../math/rotation';
+import { rotationAboutAxis, rotationFromVectorAt, multiplyMat3, orthonormalize, angleBetweenRotations, vectorFromRotation } from '../math/rotation';
 import type { LeastSquaresProblem } from './levenbergMarquardt';
 import { INPUT_NAMES, type Constraint, type MechanismGraph, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
 
@@ -80,6 +80,10 @@ export class CompiledMechanism implements LeastSquaresProblem {
   private readonly drivenIndex: Int32Array;
   private readonly drivenGain: Float64Array;
 
+  /** 1 for a body no unknown moves: its pose follows from the inputs alone. */
+  private readonly inputOnly: Uint8Array;
+  /** Whether those bodies' poses match the current inputs (cleared whenever inputs or state are set). */
+  private inputPosesValid = false;
   /** The angle each revolute joint's cached rotation in jointRot was made for. */
   private readonly rotCoord: Float64Array;
   private readonly savedCoord: Float64Array;
@@ -161,6 +165,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
     this.chainStart[nb] = flat.length;
     this.chainStart[nb + 1] = flat.length; // the ground (-1 mapped to nb) has no unknowns
     this.chainVars = Int32Array.from(flat);
+    this.inputOnly = Uint8Array.from({ length: nb }, (_, b) => (this.chainStart[b] === this.chainStart[b + 1] ? 1 : 0));
 
     let row = 0;
     this.constraints = graph.constraints.map((c) => {
@@ -192,6 +197,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
   applyInputVector(v: ArrayLike<number>): void {
     const iv = this.inputVec;
     if (v !== iv) for (let k = 0; k < iv.length; k++) iv[k] = v[k];
+    this.inputPosesValid = false;
     const { drivenIndex, drivenGain, coord } = this;
     for (let b = 0; b < this.nBodies; b++) {
       const k = drivenIndex[b];
@@ -206,51 +212,62 @@ export class CompiledMechanism implements LeastSquaresProblem {
     return out;
   }
 
-  /** Forward kinematics: every body's pose from the joint coordinates. */
+  /**
+   * Forward kinematics: every body's pose from the joint coordinates. Bodies that no unknown
+   * moves (the frame, a steering column driven by the handlebar) depend on the inputs alone,
+   * so they are recomputed only after the inputs (or the whole state) were set.
+   */
   forward(): void {
-    const { rot, trans, coord, sph, jointRot, parent, kind, origin, axis, scratch } = this;
+    const { rot, trans, coord, sph, jointRot, parent, kind, origin, axis, inputOnly } = this;
+    const skipInputOnly = this.inputPosesValid;
     for (let b = 0; b < this.nBodies; b++) {
+      if (skipInputOnly && inputOnly[b] === 1) continue;
       const k = kind[b];
       const o = 9 * b;
-      // Joint motion in the parent's design frame: rotation J, translation tj.
-      let tj0 = 0, tj1 = 0, tj2 = 0;
-      const ox = origin[3 * b], oy = origin[3 * b + 1], oz = origin[3 * b + 2];
-      if (k === KIND_PRISMATIC) {
-        setIdentity(jointRot, o);
-        const s = coord[b];
-        tj0 = axis[3 * b] * s;
-        tj1 = axis[3 * b + 1] * s;
-        tj2 = axis[3 * b + 2] * s;
-      } else {
-        if (k === KIND_REVOLUTE) {
-          // Driven joints keep their angle through a whole solve: reuse the rotation.
-          if (this.rotCoord[b] !== coord[b]) {
-            rotationAboutAxis(jointRot, o, axis[3 * b], axis[3 * b + 1], axis[3 * b + 2], coord[b]);
-            this.rotCoord[b] = coord[b];
-          }
-        } else {
-          for (let i = 0; i < 9; i++) jointRot[o + i] = sph[o + i];
-        }
-        // rotation about the origin: t = o - J o
-        tj0 = ox - (jointRot[o] * ox + jointRot[o + 3] * oy + jointRot[o + 6] * oz);
-        tj1 = oy - (jointRot[o + 1] * ox + jointRot[o + 4] * oy + jointRot[o + 7] * oz);
-        tj2 = oz - (jointRot[o + 2] * ox + jointRot[o + 5] * oy + jointRot[o + 8] * oz);
-      }
       const p = parent[b];
+      const po = 9 * p;
+      if (k === KIND_PRISMATIC) {
+        // Joint motion: a slide along the axis, no rotation.
+        const sl = coord[b];
+        const tj0 = axis[3 * b] * sl, tj1 = axis[3 * b + 1] * sl, tj2 = axis[3 * b + 2] * sl;
+        if (p < 0) {
+          setIdentity(rot, o);
+          trans[3 * b] = tj0;
+          trans[3 * b + 1] = tj1;
+          trans[3 * b + 2] = tj2;
+        } else {
+          for (let i = 0; i < 9; i++) rot[o + i] = rot[po + i];
+          placeOffset(trans, b, rot, po, trans, p, tj0, tj1, tj2);
+        }
+        continue;
+      }
+      // Joint rotation J about the joint origin, in the parent's design frame: the cached
+      // revolute rotation (remade only when its angle changed) or the spherical state.
+      let J = sph;
+      if (k === KIND_REVOLUTE) {
+        J = jointRot;
+        if (this.rotCoord[b] !== coord[b]) {
+          rotationAboutAxis(jointRot, o, axis[3 * b], axis[3 * b + 1], axis[3 * b + 2], coord[b]);
+          this.rotCoord[b] = coord[b];
+        }
+      }
+      const ox = origin[3 * b], oy = origin[3 * b + 1], oz = origin[3 * b + 2];
+      // rotation about the origin: t = o - J o
+      const tj0 = ox - (J[o] * ox + J[o + 3] * oy + J[o + 6] * oz);
+      const tj1 = oy - (J[o + 1] * ox + J[o + 4] * oy + J[o + 7] * oz);
+      const tj2 = oz - (J[o + 2] * ox + J[o + 5] * oy + J[o + 8] * oz);
       if (p < 0) {
-        for (let i = 0; i < 9; i++) rot[o + i] = jointRot[o + i];
+        for (let i = 0; i < 9; i++) rot[o + i] = J[o + i];
         trans[3 * b] = tj0;
         trans[3 * b + 1] = tj1;
         trans[3 * b + 2] = tj2;
       } else {
-        const po = 9 * p;
-        multiplyMat3(scratch, 0, rot, po, jointRot, o);
-        for (let i = 0; i < 9; i++) rot[o + i] = scratch[i];
-        trans[3 * b] = rot[po] * tj0 + rot[po + 3] * tj1 + rot[po + 6] * tj2 + trans[3 * p];
-        trans[3 * b + 1] = rot[po + 1] * tj0 + rot[po + 4] * tj1 + rot[po + 7] * tj2 + trans[3 * p + 1];
-        trans[3 * b + 2] = rot[po + 2] * tj0 + rot[po + 5] * tj1 + rot[po + 8] * tj2 + trans[3 * p + 2];
+        // rot and J hold other bodies' blocks at these offsets: no aliasing.
+        multiplyMat3(rot, o, rot, po, J, o);
+        placeOffset(trans, b, rot, po, trans, p, tj0, tj1, tj2);
       }
     }
+    this.inputPosesValid = true;
   }
 
   /** World screw axis and origin of every unknown, from the current body poses. */
@@ -340,6 +357,41 @@ export class CompiledMechanism implements LeastSquaresProblem {
     out[oo + 2] = rot[o + 2] * x + rot[o + 5] * y + rot[o + 8] * z;
   }
 
+  /**
+   * worldPoint and worldDirection for the solver's own loops. Kept apart from the public pair
+   * on purpose: callers elsewhere pass plain arrays, and type feedback shared with them made
+   * the residual and Jacobian code polymorphic and about an eighth slower.
+   */
+  private place(b: number, p: Float64Array, out: Float64Array): void {
+    if (b < 0) {
+      out[0] = p[0];
+      out[1] = p[1];
+      out[2] = p[2];
+      return;
+    }
+    const { rot, trans } = this;
+    const o = 9 * b;
+    const x = p[0], y = p[1], z = p[2];
+    out[0] = rot[o] * x + rot[o + 3] * y + rot[o + 6] * z + trans[3 * b];
+    out[1] = rot[o + 1] * x + rot[o + 4] * y + rot[o + 7] * z + trans[3 * b + 1];
+    out[2] = rot[o + 2] * x + rot[o + 5] * y + rot[o + 8] * z + trans[3 * b + 2];
+  }
+
+  private turn(b: number, d: Float64Array, out: Float64Array): void {
+    if (b < 0) {
+      out[0] = d[0];
+      out[1] = d[1];
+      out[2] = d[2];
+      return;
+    }
+    const { rot } = this;
+    const o = 9 * b;
+    const x = d[0], y = d[1], z = d[2];
+    out[0] = rot[o] * x + rot[o + 3] * y + rot[o + 6] * z;
+    out[1] = rot[o + 1] * x + rot[o + 4] * y + rot[o + 7] * z;
+    out[2] = rot[o + 2] * x + rot[o + 5] * y + rot[o + 8] * z;
+  }
+
   // Scratch for constraint evaluation.
   private readonly pa = new Float64Array(3);
   private readonly pb = new Float64Array(3);
@@ -348,38 +400,40 @@ export class CompiledMechanism implements LeastSquaresProblem {
   residuals(r: Float64Array): boolean {
     this.forward();
     const { pa, pb, dir } = this;
-    for (const c of this.constraints) {
+    const constraints = this.constraints;
+    for (let ci = 0; ci < constraints.length; ci++) {
+      const c = constraints[ci];
       const i = c.row;
       switch (c.code) {
         case C_COINCIDENT:
-          this.worldPoint(c.bodyA, c.pA, pa);
-          this.worldPoint(c.bodyB, c.pB, pb);
+          this.place(c.bodyA, c.pA, pa);
+          this.place(c.bodyB, c.pB, pb);
           r[i] = pa[0] - pb[0];
           r[i + 1] = pa[1] - pb[1];
           r[i + 2] = pa[2] - pb[2];
           break;
         case C_DISTANCE:
-          this.worldPoint(c.bodyA, c.pA, pa);
-          this.worldPoint(c.bodyB, c.pB, pb);
+          this.place(c.bodyA, c.pA, pa);
+          this.place(c.bodyB, c.pB, pb);
           {
             const dx = pa[0] - pb[0], dy = pa[1] - pb[1], dz = pa[2] - pb[2];
             r[i] = Math.sqrt(dx * dx + dy * dy + dz * dz) - c.length;
           }
           break;
         case C_GROUND: {
-          this.worldPoint(c.bodyA, c.pA, pa);
-          this.worldDirection(c.bodyA, c.pB, dir);
+          this.place(c.bodyA, c.pA, pa);
+          this.turn(c.bodyA, c.pB, dir);
           const s = Math.sqrt(Math.max(0, 1 - dir[2] * dir[2]));
           r[i] = pa[2] - (c.rolling - c.crown) * s - c.crown;
           break;
         }
         case C_HEIGHT: {
-          this.worldPoint(c.bodyA, c.pA, pa);
+          this.place(c.bodyA, c.pA, pa);
           r[i] = this.heightInBody(c.bodyB, pa) - (c.pA[2] + c.gain * this.inputVec[c.inputIndex]);
           break;
         }
         case C_HEADING: {
-          this.worldDirection(c.bodyA, c.pB, dir);
+          this.turn(c.bodyA, c.pB, dir);
           const psi = Math.atan2(-dir[0], dir[1]);
           r[i] = wrapAngle(psi - c.gain * this.inputVec[c.inputIndex]) * HEADING_RESIDUAL_MM_PER_RAD;
           break;
@@ -403,13 +457,15 @@ export class CompiledMechanism implements LeastSquaresProblem {
     jac.fill(0);
     const { pa, pb, dir, chainStart, chainVars, varAxis: A, varOrigin: O, varRot } = this;
     const nb = this.nBodies;
-    for (const c of this.constraints) {
+    const constraints = this.constraints;
+    for (let ci = 0; ci < constraints.length; ci++) {
+      const c = constraints[ci];
       const i = c.row;
       switch (c.code) {
         case C_COINCIDENT:
         case C_DISTANCE: {
-          this.worldPoint(c.bodyA, c.pA, pa);
-          this.worldPoint(c.bodyB, c.pB, pb);
+          this.place(c.bodyA, c.pA, pa);
+          this.place(c.bodyB, c.pB, pb);
           let ux = 0, uy = 0, uz = 0;
           if (c.code === C_DISTANCE) {
             ux = pa[0] - pb[0];
@@ -448,8 +504,8 @@ export class CompiledMechanism implements LeastSquaresProblem {
           break;
         }
         case C_GROUND: {
-          this.worldPoint(c.bodyA, c.pA, pa);
-          this.worldDirection(c.bodyA, c.pB, dir);
+          this.place(c.bodyA, c.pA, pa);
+          this.turn(c.bodyA, c.pB, dir);
           const s = Math.sqrt(Math.max(1e-300, 1 - dir[2] * dir[2]));
           const k2 = (c.rolling - c.crown) * dir[2] / s;
           const cb = c.bodyA < 0 ? nb + 1 : c.bodyA;
@@ -468,7 +524,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
           break;
         }
         case C_HEIGHT: {
-          this.worldPoint(c.bodyA, c.pA, pa);
+          this.place(c.bodyA, c.pA, pa);
           const f = c.bodyB;
           // the reference body's z axis and origin in the world
           let zx = 0, zy = 0, zz = 1, ox = 0, oy = 0, oz = 0;
@@ -514,7 +570,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
           break;
         }
         case C_HEADING: {
-          this.worldDirection(c.bodyA, c.pB, dir);
+          this.turn(c.bodyA, c.pB, dir);
           const den = dir[0] * dir[0] + dir[1] * dir[1];
           const cb = c.bodyA < 0 ? nb + 1 : c.bodyA;
           for (let k = chainStart[cb]; k < chainStart[cb + 1]; k++) {
@@ -538,7 +594,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
       if (v < 0) continue;
       if (kind[b] === KIND_SPHERICAL) {
         const o = 9 * b;
-        rotationFromVector(scratch, 0, h[v], h[v + 1], h[v + 2]);
+        rotationFromVectorAt(scratch, 0, h, v);
         const tmp = this.tmp9;
         multiplyMat3(tmp, 0, scratch, 0, sph, o);
         for (let i = 0; i < 9; i++) sph[o + i] = tmp[i];
@@ -556,6 +612,7 @@ export class CompiledMechanism implements LeastSquaresProblem {
   }
 
   restore(): void {
+    this.inputPosesValid = false;
     this.coord.set(this.savedCoord);
     this.sph.set(this.savedSph);
   }
@@ -601,14 +658,16 @@ export class CompiledMechanism implements LeastSquaresProblem {
       if (kind[b] === KIND_SPHERICAL) {
         const o = 9 * b;
         relativeRotationVector(w, s1, sph, o, tmp9);
-        let wx = l1 * w[0], wy = l1 * w[1], wz = l1 * w[2];
+        w[0] *= l1;
+        w[1] *= l1;
+        w[2] *= l1;
         if (l2 !== 0) {
           relativeRotationVector(w2, s2, sph, o, tmp9);
-          wx += l2 * w2[0];
-          wy += l2 * w2[1];
-          wz += l2 * w2[2];
+          w[0] += l2 * w2[0];
+          w[1] += l2 * w2[1];
+          w[2] += l2 * w2[2];
         }
-        rotationFromVector(scratch, 0, wx, wy, wz);
+        rotationFromVectorAt(scratch, 0, w, 0);
         multiplyMat3(tmp9, 0, scratch, 0, sph, o);
         for (let i = 0; i < 9; i++) sph[o + i] = tmp9[i];
         orthonormalize(sph, o);
@@ -731,6 +790,13 @@ function relativeRotationVector(out: Float64Array, other: Float64Array, current:
 function unit(v: Vec3): Vec3 {
   const n = Math.hypot(v[0], v[1], v[2]);
   return [v[0] / n, v[1] / n, v[2] / n];
+}
+
+/** out[3b..] = R_p t + t_p: a translation in the parent's frame carried into the world. */
+function placeOffset(out: Float64Array, b: number, rot: Float64Array, po: number, trans: Float64Array, p: number, t0: number, t1: number, t2: number): void {
+  out[3 * b] = rot[po] * t0 + rot[po + 3] * t1 + rot[po + 6] * t2 + trans[3 * p];
+  out[3 * b + 1] = rot[po + 1] * t0 + rot[po + 4] * t1 + rot[po + 7] * t2 + trans[3 * p + 1];
+  out[3 * b + 2] = rot[po + 2] * t0 + rot[po + 5] * t1 + rot[po + 8] * t2 + trans[3 * p + 2];
 }
 
 function setIdentity(m: Float64Array, o: number): void {

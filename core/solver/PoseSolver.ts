@@ -336,24 +336,24 @@ export class PoseSolver {
    */
   private predict(target: Float64Array): boolean {
     if (!this.hasPrev) return false;
-    const d1 = collinearStep(this.prevInputs, this.goodInputs, target);
-    if (d1 === null || d1.ratio > 2) return false;
+    const line = this.line;
+    if (!collinearStep(this.prevInputs, this.goodInputs, target, line) || line[1] > 2) return false;
     // positions along the line: good at 0, prev at -1 (in units of the last step), target at T
-    const T = d1.ratio;
+    const T = line[1];
+    const length1 = line[0];
     let l1 = -T; // secant: x = x0 + T (x0 - x1)
     let l2 = 0;
-    if (this.hasPrev2) {
-      const d2 = collinearStep(this.prev2Inputs, this.prevInputs, target);
-      if (d2 !== null && d2.ratio > 0) {
-        const t1 = -1;
-        const t2 = -1 - d2.length / d1.length;
-        l1 = (T * (T - t2)) / (t1 * (t1 - t2));
-        l2 = (T * (T - t1)) / (t2 * (t2 - t1));
-      }
+    if (this.hasPrev2 && collinearStep(this.prev2Inputs, this.prevInputs, target, line) && line[1] > 0) {
+      const t1 = -1;
+      const t2 = -1 - line[0] / length1;
+      l1 = (T * (T - t2)) / (t1 * (t1 - t2));
+      l2 = (T * (T - t1)) / (t2 * (t2 - t1));
     }
     this.mechanism.extrapolate(this.prevCoord, this.prevSph, l1, this.prev2Coord, this.prev2Sph, l2);
     return true;
   }
+  /** collinearStep's answer: [length of the earlier step, ratio of the later to it]. */
+  private readonly line = new Float64Array(2);
 
   private failedAt: { inputs: Float64Array; result: SolveResult } | undefined;
   /** Whether the solve under way started from the design pose. */
@@ -540,10 +540,11 @@ export class PoseSolver {
 }
 
 /**
- * Whether the step a -> b and the step b -> target point the same way; if so the length of
- * a -> b and the ratio |b -> target| / |a -> b|.
+ * Whether the step a -> b and the step b -> target point the same way; if so, out receives
+ * the length of a -> b and the ratio |b -> target| / |a -> b| (a typed array, not a new
+ * object, so the predictor allocates nothing).
  */
-function collinearStep(a: Float64Array, b: Float64Array, target: Float64Array): { length: number; ratio: number } | null {
+function collinearStep(a: Float64Array, b: Float64Array, target: Float64Array, out: Float64Array): boolean {
   let dot = 0;
   let n1 = 0;
   let n2 = 0;
@@ -554,8 +555,10 @@ function collinearStep(a: Float64Array, b: Float64Array, target: Float64Array): 
     n1 += s1 * s1;
     n2 += s2 * s2;
   }
-  if (!(n1 > 0) || !(n2 > 0) || dot < 0.9999 * Math.sqrt(n1 * n2)) return null;
-  return { length: Math.sqrt(n1), ratio: Math.sqrt(n2 / n1) };
+  if (!(n1 > 0) || !(n2 > 0) || dot < 0.9999 * Math.sqrt(n1 * n2)) return false;
+  out[0] = Math.sqrt(n1);
+  out[1] = Math.sqrt(n2 / n1);
+  return true;
 }
 
 function sameVector(a: Float64Array, b: Float64Array): boolean {

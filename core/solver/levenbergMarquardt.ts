@@ -359,8 +359,10 @@ function maxAbs(v: Float64Array): number {
 }
 
 function worstIndex(v: Float64Array): number {
+  // Start from a double (-Infinity, not -1): a small-integer start made V8 box every
+  // comparison value on the heap, about 170 bytes of garbage per pose.
   let best = -1;
-  let s = -1;
+  let s = -Infinity;
   for (let i = 0; i < v.length; i++) {
     const x = Number.isFinite(v[i]) ? Math.abs(v[i]) : Infinity;
     if (x > s) {

@@ -55,24 +55,23 @@ export class FlatParameters {
     this.nResiduals = mechanism.nResiduals;
     this.coordBuf = new Float64Array(nb);
     this.sphBuf = new Float64Array(9 * nb);
+    for (let b = 0; b < nb; b++) rotationFromVector(this.sphBuf, 9 * b, 0, 0, 0);
     this.jacBuf = new Float64Array(mechanism.nResiduals * mechanism.nVars);
     this.rBuf = new Float64Array(mechanism.nResiduals);
   }
 
   /** Set the mechanism's state from a flat parameter vector (driven joints follow the inputs). */
   set(p: ArrayLike<number>): void {
+    // Only the spherical joints' rotations and the solved coordinates change; every other
+    // entry of the buffers was set once in the constructor (identity rotations, zero
+    // coordinates that setState overwrites for driven joints), so the general path pays no
+    // more per evaluation than it must.
     const { coordBuf, sphBuf, firstParam, spherical } = this;
     for (let b = 0; b < firstParam.length; b++) {
       const k = firstParam[b];
-      const o = 9 * b;
-      if (spherical[b]) {
-        if (k >= 0) rotationFromVector(sphBuf, o, p[k], p[k + 1], p[k + 2]);
-        else rotationFromVector(sphBuf, o, 0, 0, 0);
-        coordBuf[b] = 0;
-      } else {
-        rotationFromVector(sphBuf, o, 0, 0, 0);
-        coordBuf[b] = k >= 0 ? p[k] : 0; // driven coordinates are overwritten by setState
-      }
+      if (k < 0) continue;
+      if (spherical[b]) rotationFromVector(sphBuf, 9 * b, p[k], p[k + 1], p[k + 2]);
+      else coordBuf[b] = p[k];
     }
     this.mechanism.setState(coordBuf, sphBuf);
   }
