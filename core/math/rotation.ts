@@ -29,10 +29,12 @@ export function rotationFromVectorAt(out: Mat3Like, o: number, w: Mat3Like, wo: 
   const t2 = wx * wx + wy * wy + wz * wz;
   let a: number;
   let b: number;
-  if (t2 < 1e-12) {
-    // Taylor series keeps full precision for the tiny steps near convergence.
-    a = 1 - t2 / 6;
-    b = 0.5 - t2 / 24;
+  if (t2 < 1e-2) {
+    // Below 0.1 rad (every solver step and predictor move) the Taylor series of sin(t)/t and
+    // (1 - cos t)/t^2 to t^8 is exact to rounding (next terms t^10/11! and t^10/12!, under
+    // 3e-18) and cheaper than sin and cos; it also keeps full precision for tiny angles.
+    a = 1 - (t2 / 6) * (1 - (t2 / 20) * (1 - (t2 / 42) * (1 - t2 / 72)));
+    b = 0.5 * (1 - (t2 / 12) * (1 - (t2 / 30) * (1 - (t2 / 56) * (1 - t2 / 90))));
   } else {
     const t = Math.sqrt(t2);
     a = Math.sin(t) / t;
@@ -107,9 +109,17 @@ export function vectorFromRotation(out: Mat3Like, m: Mat3Like, o: number): Mat3L
   const sy = (m[o + 6] - m[o + 2]) / 2;
   const sz = (m[o + 1] - m[o + 3]) / 2;
   const c = Math.min(1, Math.max(-1, (m[o] + m[o + 4] + m[o + 8] - 1) / 2));
-  const s = Math.sqrt(sx * sx + sy * sy + sz * sz);
-  const t = Math.atan2(s, c);
-  const k = s < 1e-12 ? 1 + (t * t) / 6 : t / s;
+  const s2 = sx * sx + sy * sy + sz * sz;
+  let k: number;
+  if (s2 < 4e-4 && c > 0) {
+    // Below 0.02 rad, t / sin(t) = asin(s)/s = 1 + s^2/6 + 3s^4/40 + 5s^6/112 + 35s^8/1152
+    // (Maclaurin series of arcsin) is exact to rounding (next term 63 s^10/2816 < 3e-19).
+    k = 1 + s2 * (1 / 6 + s2 * (3 / 40 + s2 * (5 / 112 + s2 * (35 / 1152))));
+  } else {
+    const s = Math.sqrt(s2);
+    const t = Math.atan2(s, c);
+    k = s < 1e-12 ? 1 + (t * t) / 6 : t / s;
+  }
   out[0] = sx * k;
   out[1] = sy * k;
   out[2] = sz * k;

@@ -776,13 +776,21 @@ function compileConstraint(c: Constraint, row: number, nb: number): CompiledCons
 
 /** Rotation vector of other * current^T (the rotation taking the current state to another). */
 function relativeRotationVector(out: Float64Array, other: Float64Array, current: Float64Array, o: number, tmp: Float64Array): void {
-  // (other current^T)_rc = sum_k other_rk current_ck, column-major m_rc = m[o + c*3 + r]
+  // (other current^T)_rc = sum_k other_rk current_ck, column-major m_rc = m[o + c*3 + r]:
+  // row r of a matrix is (m[o + r], m[o + 3 + r], m[o + 6 + r]).
+  const a0 = other[o], a1 = other[o + 1], a2 = other[o + 2];
+  const a3 = other[o + 3], a4 = other[o + 4], a5 = other[o + 5];
+  const a6 = other[o + 6], a7 = other[o + 7], a8 = other[o + 8];
+  const b0 = current[o], b1 = current[o + 1], b2 = current[o + 2];
+  const b3 = current[o + 3], b4 = current[o + 4], b5 = current[o + 5];
+  const b6 = current[o + 6], b7 = current[o + 7], b8 = current[o + 8];
   for (let c = 0; c < 3; c++) {
-    for (let r = 0; r < 3; r++) {
-      let s = 0;
-      for (let k = 0; k < 3; k++) s += other[o + k * 3 + r] * current[o + k * 3 + c];
-      tmp[c * 3 + r] = s;
-    }
+    const c0 = c === 0 ? b0 : c === 1 ? b1 : b2;
+    const c1 = c === 0 ? b3 : c === 1 ? b4 : b5;
+    const c2 = c === 0 ? b6 : c === 1 ? b7 : b8;
+    tmp[c * 3] = a0 * c0 + a3 * c1 + a6 * c2;
+    tmp[c * 3 + 1] = a1 * c0 + a4 * c1 + a7 * c2;
+    tmp[c * 3 + 2] = a2 * c0 + a5 * c1 + a8 * c2;
   }
   vectorFromRotation(out, tmp, 0);
 }

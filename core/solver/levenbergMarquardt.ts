@@ -96,7 +96,8 @@ export class LevenbergMarquardt {
     this.scale = new Float64Array(n);
     this.pivots = new Float64Array(n);
     this.invSqrtDiag = new Float64Array(n);
-    this.pattern = problem.jacobianPattern?.();
+    // Columns sorted within each row, so the sparse products land in the lower triangle.
+    this.pattern = problem.jacobianPattern?.().map((cols) => Int32Array.from(cols).sort());
   }
 
   /** The residual vector at the end of the last solve. */
@@ -147,7 +148,7 @@ export class LevenbergMarquardt {
       }
       // Solve (A + mu D) h = -g, D = diag(A) floored (Marquardt scaling keeps mm and
       // radian variables on an equal footing).
-      for (let i = 0; i < n * n; i++) aDamped[i] = a[i];
+      for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) aDamped[i * n + j] = a[i * n + j];
       for (let i = 0; i < n; i++) {
         aDamped[i * n + i] += mu * scale[i];
         negG[i] = -g[i];
@@ -248,7 +249,10 @@ export class LevenbergMarquardt {
     return null;
   }
 
-  /** A = J^T J, g = J^T r at the current state, and the Marquardt scaling diag(A). */
+  /**
+   * A = J^T J (lower triangle; the dense path fills both), g = J^T r at the current state,
+   * and the Marquardt scaling diag(A).
+   */
   private normalEquations(): void {
     const { n, m, r, jac, a, g, scale, pattern } = this;
     this.problem.jacobian(jac);
@@ -271,14 +275,8 @@ export class LevenbergMarquardt {
           }
         }
       }
-      // The pattern's column order need not be sorted: fold both triangles, then mirror.
-      for (let i = 0; i < n; i++) {
-        for (let j = 0; j < i; j++) {
-          const s = a[i * n + j] + a[j * n + i];
-          a[i * n + j] = s;
-          a[j * n + i] = s;
-        }
-      }
+      // Columns are sorted, so j <= i: only the lower triangle is formed, which is all the
+      // Cholesky factor and the conditioning check read.
     } else {
       for (let i = 0; i < n; i++) {
         let gi = 0;

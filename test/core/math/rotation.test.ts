@@ -50,9 +50,9 @@ function maxDiff(a: ArrayLike<number>, b: ArrayLike<number>, n = 9): number {
   return d;
 }
 
-// Angles: ordinary, tiny (Taylor branch of rotationFromVector below 1e-6 rad), zero,
-// negative, and close to pi.
-const SPECIAL_ANGLES = [0, 1e-14, 1e-10, 3e-7, 9.99e-7, 1.0001e-6, 1e-5, 1e-3, 0.5, 1, 2, 3, Math.PI - 1e-3, Math.PI - 1e-6, Math.PI, -0.7, -Math.PI + 1e-4];
+// Angles: ordinary, tiny, both sides of the series branches (rotationFromVector below
+// 0.1 rad, vectorFromRotation below 0.02 rad), zero, negative, and close to pi.
+const SPECIAL_ANGLES = [0, 1e-14, 1e-10, 3e-7, 9.99e-7, 1.0001e-6, 1e-5, 1e-3, 0.0199, 0.0201, 0.05, 0.0999, 0.1001, 0.5, 1, 2, 3, Math.PI - 1e-3, Math.PI - 1e-6, Math.PI, -0.7, -0.0999, -Math.PI + 1e-4];
 
 function cases(seed: number, count: number): Array<{ axis: [number, number, number]; angle: number }> {
   const r = rng(seed);
