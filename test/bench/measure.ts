@@ -9,6 +9,8 @@
  */
 
 import { readFileSync } from 'node:fs';
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { parseDesignText } from '../../core/design/validateDesign';
 import { resolveDesign } from '../../core/design/resolveDesign';
@@ -179,6 +181,22 @@ function cpuNowMs(): number {
   return (c.user + c.system) / 1000;
 }
 
+/**
+ * A full garbage collection, run before every timed pass: each pass then starts from a clean
+ * heap and pays only for its own garbage, never for what the pass before it left (the
+ * general-purpose path allocates heavily; the pose solver almost nothing). Needs V8's gc(),
+ * exposed here at run time so the bench needs no special node flags.
+ */
+const fullGc: () => void = (() => {
+  setFlagsFromString('--expose-gc');
+  const gc = runInNewContext('gc') as unknown;
+  return typeof gc === 'function' ? (gc as () => void) : () => {};
+})();
+
+export function collectGarbage(): void {
+  fullGc();
+}
+
 export function startClock(): () => PassClock {
   const c0 = cpuNowMs();
   const t0 = performance.now();
@@ -208,7 +226,7 @@ export interface SweepStats {
   cpuPassRates: number[];
   /** Per pose, from the last timed pass. */
   avgIterations: number;
-  /** Poses whose status was not 'converged' (any other status), last timed pass. */
+  /** Solves whose status was not 'converged' (any other status), last timed pass (all its repeats). */
   nonConverged: number;
   /** Count of each status, last timed pass. */
   statuses: Record<string, number>;
@@ -228,39 +246,54 @@ export interface SweepOptions {
   /** Solve warm (from the previous pose) or cold (from the design pose, solve(x, false)). */
   warm?: boolean;
   hook?: PoseHook;
+  /** Run the sweep this many times per timed pass (every other time backwards). Default 1. */
+  repeats?: number;
 }
 
 interface PassTally {
   clock: PassClock;
+  /** Solves in the pass (poses times repeats). */
+  solves: number;
   iterations: number;
   nonConverged: number;
   statuses: Record<string, number>;
   maxRes: number;
 }
 
-/** One timed pass of the pose solver over the poses (a warm pass starts from poses[0], solved untimed). */
-function solverPass(solver: PoseSolver, poses: PoseInputs[], warm: boolean, hook?: PoseHook): PassTally {
+/**
+ * One timed pass of the pose solver over the poses (a warm pass starts from poses[0], solved
+ * untimed). With `repeats` > 1 the pass runs the sweep that many times in one clock, every
+ * other time backwards, so each pose still neighbours the one before; a longer pass is less
+ * exposed to a single scheduler hiccup. Tallies cover every repeat.
+ */
+function solverPass(solver: PoseSolver, poses: PoseInputs[], warm: boolean, hook?: PoseHook, repeats = 1): PassTally {
   solver.reset();
   if (warm) solver.solve(poses[0], false);
   let iterations = 0;
   let nonConverged = 0;
   let maxRes = 0;
   const statuses: Record<string, number> = {};
+  const n = poses.length;
+  collectGarbage();
   const stop = startClock();
-  for (let i = 0; i < poses.length; i++) {
-    const r = solver.solve(poses[i], warm);
-    if (hook) hook(solver.mechanism, poses[i], r);
-    iterations += r.iterations;
-    if (r.status !== 'converged') {
-      nonConverged++;
-      statuses[r.status] = (statuses[r.status] ?? 0) + 1;
-    } else if (r.residualMm !== null && r.residualMm > maxRes) {
-      maxRes = r.residualMm;
+  for (let rep = 0; rep < repeats; rep++) {
+    const backwards = rep % 2 === 1;
+    for (let k = 0; k < n; k++) {
+      const i = backwards ? n - 1 - k : k;
+      const r = solver.solve(poses[i], warm);
+      if (hook) hook(solver.mechanism, poses[i], r);
+      iterations += r.iterations;
+      if (r.status !== 'converged') {
+        nonConverged++;
+        statuses[r.status] = (statuses[r.status] ?? 0) + 1;
+      } else if (r.residualMm !== null && r.residualMm > maxRes) {
+        maxRes = r.residualMm;
+      }
     }
   }
   const clock = stop();
-  statuses.converged = poses.length - nonConverged;
-  return { clock, iterations, nonConverged, statuses, maxRes };
+  statuses.converged = n * repeats - nonConverged;
+  return { clock, iterations, nonConverged, statuses, maxRes, solves: n * repeats };
 }
 
 /**
@@ -268,21 +301,25 @@ function solverPass(solver: PoseSolver, poses: PoseInputs[], warm: boolean, hook
  * pose already solved (untimed), so every timed solve is warm-started from its neighbour.
  */
 export function timeSolverSweep(solver: PoseSolver, poses: PoseInputs[], opts: SweepOptions = {}): SweepStats {
-  const { warmupPasses = 1, passes = 5, warm = true, hook } = opts;
+  const { warmupPasses = 1, passes = 5, warm = true, hook, repeats = 1 } = opts;
   const clocks: PassClock[] = [];
+  const counts: number[] = [];
   let last: PassTally | undefined;
   for (let pass = 0; pass < warmupPasses + passes; pass++) {
-    last = solverPass(solver, poses, warm, hook);
-    if (pass >= warmupPasses) clocks.push(last.clock);
+    last = solverPass(solver, poses, warm, hook, repeats);
+    if (pass >= warmupPasses) {
+      clocks.push(last.clock);
+      counts.push(last.solves);
+    }
   }
-  const rate = rates(clocks.map(() => poses.length), clocks);
+  const rate = rates(counts, clocks);
   return {
     poses: poses.length,
     posesPerSecond: median(rate.wall),
     cpuPosesPerSecond: median(rate.cpu),
     passRates: rate.wall,
     cpuPassRates: rate.cpu,
-    avgIterations: last!.iterations / poses.length,
+    avgIterations: last!.iterations / last!.solves,
     nonConverged: last!.nonConverged,
     statuses: last!.statuses,
     maxResidualMm: last!.maxRes,
@@ -332,6 +369,12 @@ export interface GeneralOptions {
    * ratio see about the same machine load. Default true.
    */
   paired?: boolean;
+  /**
+   * The paired pose-solver pass runs the sweep this many times (every other time backwards):
+   * one sweep takes it only tens of milliseconds, against a second or more for the general
+   * path, and a longer pass is less exposed to a single hiccup. Default 5.
+   */
+  pairedRepeats?: number;
 }
 
 export interface GeneralStats {
@@ -373,6 +416,7 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
     passes = 3,
     maxPassMs = Infinity,
     paired = true,
+    pairedRepeats = 5,
   } = opts;
   const solverTolerance = graphSolver.options.toleranceMm;
   // Our solutions along the sweep, for the branch check (untimed).
@@ -418,16 +462,21 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
   const clocks: PassClock[] = [];
   const counts: number[] = [];
   const oursClocks: PassClock[] = [];
+  const oursCounts: number[] = [];
   let iterations = 0;
   let solved = 0;
   for (let pass = 0; pass < warmupPasses + passes; pass++) {
     if (paired) {
-      const ourPass = solverPass(graphSolver, poses, true);
-      if (pass >= warmupPasses) oursClocks.push(ourPass.clock);
+      const ourPass = solverPass(graphSolver, poses, true, undefined, pairedRepeats);
+      if (pass >= warmupPasses) {
+        oursClocks.push(ourPass.clock);
+        oursCounts.push(ourPass.solves);
+      }
     }
     let p = start;
     iterations = 0;
     evaluations = 0;
+    collectGarbage();
     const t0 = performance.now();
     const stop = startClock();
     let i = 0;
@@ -450,7 +499,7 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
     }
   }
   const rate = rates(counts, clocks);
-  const ourRate = rates(oursClocks.map(() => poses.length), oursClocks);
+  const ourRate = rates(oursCounts, oursClocks);
   const pairedRatio = paired ? median(ourRate.wall.map((x, k) => x / rate.wall[k])) : NaN;
   const cpuPairedRatio = paired ? median(ourRate.cpu.map((x, k) => x / rate.cpu[k])) : NaN;
   // Accuracy and branch, untimed, over the last pass.
