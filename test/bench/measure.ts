@@ -18,7 +18,7 @@ import type { ResolvedDesign } from '../../core/design/types';
 import { buildMechanism, type PoseMode } from '../../core/mechanism/templates/buildMechanism';
 import { zeroInputs, type PoseInputs } from '../../core/mechanism/MechanismGraph';
 import { PoseSolver, type SolveResult } from '../../core/solver/PoseSolver';
-import type { CompiledMechanism } from '../../core/solver/CompiledMechanism';
+import { CompiledMechanism } from '../../core/solver/CompiledMechanism';
 import { FlatParameters } from './flatParameters';
 
 // ---------------------------------------------------------------------------------------------
@@ -364,25 +364,20 @@ export interface GeneralOptions {
   /** Stop early once a pass has taken this long (ms); the figure is still per pose. */
   maxPassMs?: number;
   /**
-   * Pair every general pass with a warm pass of the pose solver over the same poses, run
-   * right before it, and report the median of the per-pair speed ratios: both sides of each
-   * ratio see about the same machine load. Default true.
+   * Poses per interleaved slice: the pose solver solves a slice, then the general path solves
+   * the same slice, and so on along the sweep (default 305, five serpentine rows: about 2 ms
+   * of ours against 50-80 ms of the general path). Both sides' times are summed over the same
+   * stretch of wall-clock time, so a change in machine speed (another tenant, frequency
+   * scaling) lands on both instead of on whichever ran then.
    */
-  paired?: boolean;
-  /**
-   * The paired pose-solver pass runs the sweep this many times (every other time backwards):
-   * one sweep takes it only tens of milliseconds, against a second or more for the general
-   * path, and a longer pass is less exposed to a single hiccup. Default 5.
-   */
-  pairedRepeats?: number;
+  sliceLength?: number;
 }
 
 export interface GeneralStats {
   poses: number;
+  /** General path, median over the timed passes (wall clock, its slices only). */
   posesPerSecond: number;
-  cpuPosesPerSecond: number;
   passRates: number[];
-  cpuPassRates: number[];
   avgIterations: number;
   /** Poses whose final max |residual| is above the pose solver's tolerance. */
   nonConverged: number;
@@ -392,18 +387,20 @@ export interface GeneralStats {
   maxDeviationFromOurs: number;
   /** Residual evaluations (whole residual vectors) per pose. */
   avgEvaluations: number;
-  /** Median over the pairs of (pose solver rate / general rate), wall clock; NaN unless paired. */
-  pairedRatio: number;
-  /** The same with CPU time. */
-  cpuPairedRatio: number;
-  /** The pose solver's rates in the paired passes, wall clock. */
-  pairedOursRates: number[];
+  /** Median over the timed passes of (pose solver rate / general rate) over interleaved slices. */
+  ratio: number;
+  /** That ratio in every timed pass. */
+  passRatios: number[];
+  /** The pose solver's rates in the same passes (its slices only). */
+  oursRates: number[];
 }
 
 /**
  * Solve the same sweep with ml-levenberg-marquardt: data x = residual index 0..m-1, y = 0,
- * the model returns residual i at parameter vector p (FlatParameters), warm-started from
- * the previous pose's parameters. Each pass starts at the first pose solved by our solver
+ * the model returns residual i at parameter vector p (FlatParameters over its own copy of
+ * the mechanism), warm-started from the previous pose's parameters. The pose solver runs the
+ * same sweep interleaved with it, slice by slice (see sliceLength), each side continuing
+ * from its own previous pose; each pass starts both at the first pose solved by our solver
  * (untimed), as the pose-solver sweep does.
  */
 export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], opts: GeneralOptions): GeneralStats {
@@ -415,14 +412,14 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
     warmupPasses = 1,
     passes = 3,
     maxPassMs = Infinity,
-    paired = true,
-    pairedRepeats = 5,
+    sliceLength = 305,
   } = opts;
   const solverTolerance = graphSolver.options.toleranceMm;
   // Our solutions along the sweep, for the branch check (untimed).
   graphSolver.reset();
-  const mech = graphSolver.mechanism;
+  const mech = new CompiledMechanism(graphSolver.mechanism.graph);
   const flat = new FlatParameters(mech);
+  const ourFlat = new FlatParameters(graphSolver.mechanism);
   const n = flat.nParams;
   const m = flat.nResiduals;
   const ours = new Float64Array(poses.length * n);
@@ -430,7 +427,7 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
   graphSolver.solve(poses[0], false);
   for (let i = 0; i < poses.length; i++) {
     graphSolver.solve(poses[i]);
-    flat.get(tmp);
+    ourFlat.get(tmp);
     ours.set(tmp, i * n);
   }
   const start = Array.from(ours.subarray(0, n));
@@ -459,49 +456,45 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
   };
 
   const mine = new Float64Array(poses.length * n);
-  const clocks: PassClock[] = [];
-  const counts: number[] = [];
-  const oursClocks: PassClock[] = [];
-  const oursCounts: number[] = [];
+  const generalRates: number[] = [];
+  const oursRates: number[] = [];
+  const passRatios: number[] = [];
   let iterations = 0;
   let solved = 0;
   for (let pass = 0; pass < warmupPasses + passes; pass++) {
-    if (paired) {
-      const ourPass = solverPass(graphSolver, poses, true, undefined, pairedRepeats);
-      if (pass >= warmupPasses) {
-        oursClocks.push(ourPass.clock);
-        oursCounts.push(ourPass.solves);
-      }
-    }
+    graphSolver.reset();
+    graphSolver.solve(poses[0], false);
     let p = start;
     iterations = 0;
     evaluations = 0;
+    let oursMs = 0;
+    let generalMs = 0;
     collectGarbage();
-    const t0 = performance.now();
-    const stop = startClock();
     let i = 0;
-    for (; i < poses.length; i++) {
-      mech.applyInputs(poses[i]);
-      const res = levenbergMarquardt(data, model, { ...libOptions, initialValues: p });
-      p = res.parameterValues;
-      iterations += res.iterations;
-      for (let k = 0; k < n; k++) mine[i * n + k] = p[k];
-      if ((i & 63) === 63 && performance.now() - t0 > maxPassMs) {
-        i++;
-        break;
+    while (i < poses.length && generalMs <= maxPassMs) {
+      const end = Math.min(poses.length, i + sliceLength);
+      const t0 = performance.now();
+      for (let k = i; k < end; k++) graphSolver.solve(poses[k]);
+      const t1 = performance.now();
+      for (let k = i; k < end; k++) {
+        mech.applyInputs(poses[k]);
+        const res = levenbergMarquardt(data, model, { ...libOptions, initialValues: p });
+        p = res.parameterValues;
+        iterations += res.iterations;
+        for (let q = 0; q < n; q++) mine[k * n + q] = p[q];
       }
+      const t2 = performance.now();
+      oursMs += t1 - t0;
+      generalMs += t2 - t1;
+      i = end;
     }
-    const clock = stop();
     solved = i;
     if (pass >= warmupPasses) {
-      clocks.push(clock);
-      counts.push(i);
+      generalRates.push((solved / generalMs) * 1000);
+      oursRates.push((solved / oursMs) * 1000);
+      passRatios.push(generalMs / oursMs);
     }
   }
-  const rate = rates(counts, clocks);
-  const ourRate = rates(oursCounts, oursClocks);
-  const pairedRatio = paired ? median(ourRate.wall.map((x, k) => x / rate.wall[k])) : NaN;
-  const cpuPairedRatio = paired ? median(ourRate.cpu.map((x, k) => x / rate.cpu[k])) : NaN;
   // Accuracy and branch, untimed, over the last pass.
   let maxRes = 0;
   let nonConverged = 0;
@@ -520,17 +513,15 @@ export function timeGeneralSweep(graphSolver: PoseSolver, poses: PoseInputs[], o
   graphSolver.reset();
   return {
     poses: solved,
-    posesPerSecond: median(rate.wall),
-    cpuPosesPerSecond: median(rate.cpu),
-    passRates: rate.wall,
-    cpuPassRates: rate.cpu,
+    posesPerSecond: median(generalRates),
+    passRates: generalRates,
     avgIterations: iterations / solved,
     nonConverged,
     maxResidualMm: maxRes,
     maxDeviationFromOurs: maxDev,
     avgEvaluations: evaluations / solved,
-    pairedRatio,
-    cpuPairedRatio,
-    pairedOursRates: ourRate.wall,
+    ratio: median(passRatios),
+    passRatios,
+    oursRates,
   };
 }
