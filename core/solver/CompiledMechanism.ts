@@ -630,6 +630,40 @@ export class CompiledMechanism implements LeastSquaresProblem {
   }
 
   /**
+   * The unknowns as one flat vector in the solver's variable order: the coordinate of each
+   * solved revolute or prismatic joint, and for a spherical joint the rotation vector of its
+   * rotation (axis times angle, from the design orientation; a smooth chart while the joint
+   * turns less than half a revolution, which a ball joint in a suspension always does). The
+   * pose solver's predictor extrapolates these.
+   */
+  getUnknowns(out: Float64Array): void {
+    const { coord, sph, kind, firstVar, pa } = this;
+    for (let b = 0; b < this.nBodies; b++) {
+      const v = firstVar[b];
+      if (v < 0) continue;
+      if (kind[b] === KIND_SPHERICAL) {
+        vectorFromRotation(pa, sph, 9 * b);
+        out[v] = pa[0];
+        out[v + 1] = pa[1];
+        out[v + 2] = pa[2];
+      } else {
+        out[v] = coord[b];
+      }
+    }
+  }
+
+  /** Set the unknowns from a flat vector laid out as getUnknowns writes it. */
+  setUnknowns(x: Float64Array): void {
+    const { coord, sph, kind, firstVar } = this;
+    for (let b = 0; b < this.nBodies; b++) {
+      const v = firstVar[b];
+      if (v < 0) continue;
+      if (kind[b] === KIND_SPHERICAL) rotationFromVectorAt(sph, 9 * b, x, v);
+      else coord[b] = x[v];
+    }
+  }
+
+  /**
    * Largest rotation change (radians) of any unknown between a stored state and the current
    * one: the measure continuation uses to spot a branch jump.
    */

@@ -7,7 +7,7 @@
  */
 
 import { CompiledMechanism } from './CompiledMechanism';
-import { LevenbergMarquardt, type LmOutcome } from './levenbergMarquardt';
+import { LevenbergMarquardt, type LmOptions, type LmOutcome } from './levenbergMarquardt';
 import { INPUT_NAMES, type MechanismGraph, type PoseInputs } from '../mechanism/MechanismGraph';
 
 export type SolveStatus = 'converged' | 'cannot-assemble' | 'singular' | 'did-not-converge' | 'invalid-input';
@@ -62,6 +62,8 @@ export const DEFAULT_SOLVER_OPTIONS: PoseSolverOptions = {
 
 const DEG = Math.PI / 180;
 const N_INPUTS = INPUT_NAMES.length;
+/** Poses the predictor extrapolates through along a straight sweep (a quintic at most). */
+const LINE_HISTORY = 6;
 /** Which inputs are angles (stepped in degrees) rather than lengths (mm). */
 const INPUT_IS_DEG: readonly boolean[] = INPUT_NAMES.map((n) => n.endsWith('Deg'));
 // solve() reads the record in this order by name; keep them in step with INPUT_NAMES.
@@ -85,12 +87,19 @@ export class PoseSolver {
   private readonly prevSph: Float64Array;
   private prevInputs: Float64Array;
   private hasPrev = false;
-  /** The good pose before that, for the quadratic predictor. */
-  private readonly prev2Coord: Float64Array;
-  private readonly prev2Sph: Float64Array;
-  private prev2Inputs: Float64Array;
-  private hasPrev2 = false;
-  private readonly lmOptions: { tolerance: number; maxIterations: number; tau: number };
+  /** Spare input record: the records rotate roles (spare -> good -> prev) instead of a new one per pose. */
+  private spareInputs: Float64Array;
+  /**
+   * Accepted poses along the current straight line of inputs, oldest first (at most
+   * LINE_HISTORY): their inputs and their unknowns (CompiledMechanism.getUnknowns), for the
+   * predictor. A pose off the line starts a new line from the pose before it.
+   */
+  private readonly lineInputs: Float64Array[];
+  private readonly lineState: Float64Array[];
+  private lineCount = 0;
+  private readonly linePos = new Float64Array(LINE_HISTORY);
+  private readonly predicted: Float64Array;
+  private readonly lmOptions: LmOptions;
   private readonly work = new Float64Array(N_INPUTS);
   private readonly target = new Float64Array(N_INPUTS);
   private readonly zeros = new Float64Array(N_INPUTS);
@@ -110,10 +119,12 @@ export class PoseSolver {
     this.prevCoord = new Float64Array(nb);
     this.prevSph = new Float64Array(9 * nb);
     this.prevInputs = new Float64Array(N_INPUTS);
-    this.prev2Coord = new Float64Array(nb);
-    this.prev2Sph = new Float64Array(9 * nb);
-    this.prev2Inputs = new Float64Array(N_INPUTS);
-    this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10 };
+    this.spareInputs = new Float64Array(N_INPUTS);
+    const nv = this.mechanism.nVars;
+    this.lineInputs = Array.from({ length: LINE_HISTORY }, () => new Float64Array(N_INPUTS));
+    this.lineState = Array.from({ length: LINE_HISTORY }, () => new Float64Array(nv));
+    this.predicted = new Float64Array(nv);
+    this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10, reuseFactorisation: false };
   }
 
   /** The inputs of the last good pose. */
@@ -126,7 +137,8 @@ export class PoseSolver {
     this.failedAt = undefined;
     this.hasGood = false;
     this.hasPrev = false;
-    this.hasPrev2 = false;
+    this.lineCount = 0;
+    this.lm.forgetFactorisation();
   }
 
   /**
@@ -228,10 +240,14 @@ export class PoseSolver {
     while (reached < 1) {
       const next = Math.min(1, reached + 1 / pieces);
       interpolateInputs(this.work, from, target, next);
+      // A predicted start is close enough for the corrector to try the last factorisation first.
+      const lmOptions = this.lmOptions;
+      lmOptions.reuseFactorisation = predicted;
       if (predicted) predicted = false;
       else m.getState(this.stepCoord, this.stepSph);
       m.applyInputVector(this.work);
-      const out = this.lm.solve(this.lmOptions);
+      const out = this.lm.solve(lmOptions);
+      lmOptions.reuseFactorisation = false;
       last = out;
       iterations += out.iterations;
       evaluations += out.evaluations;
@@ -269,10 +285,7 @@ export class PoseSolver {
       reached = Math.round(reached * pieces) / pieces;
     }
     const res = last!;
-    // Accept and remember as the warm start; the previous one feeds the predictor. The two
-    // input records swap roles instead of a new object per pose.
-    // The three input records rotate roles instead of a new object per pose.
-    const other = this.prev2Inputs;
+    // Accept and remember as the warm start.
     const same = this.hasGood && warm && sameVector(target, this.goodInputs);
     this.failedAt = undefined;
     if (same) {
@@ -280,34 +293,52 @@ export class PoseSolver {
       m.getState(this.goodCoord, this.goodSph);
       return this.finishSuccess(res, iterations, evaluations, substeps);
     }
-    if (this.hasGood && warm && turning) {
-      // After retracing, the old good poses are not on the line behind the new one: no predictor.
-      this.prev2Inputs = this.prevInputs;
-      this.prevInputs = this.goodInputs;
-      this.hasPrev = false;
-      this.hasPrev2 = false;
-    } else if (this.hasGood && warm) {
-      if (this.hasPrev) {
-        this.prev2Coord.set(this.prevCoord);
-        this.prev2Sph.set(this.prevSph);
-      }
-      this.prev2Inputs = this.prevInputs;
-      this.hasPrev2 = this.hasPrev;
+    const spare = this.spareInputs;
+    if (this.hasGood && warm && !turning) {
       this.prevCoord.set(this.goodCoord);
       this.prevSph.set(this.goodSph);
-      this.prevInputs = this.goodInputs;
       this.hasPrev = true;
     } else {
-      this.prev2Inputs = this.prevInputs;
-      this.prevInputs = this.goodInputs;
+      // After retracing, or from a cold start, there is no step behind the new pose.
       this.hasPrev = false;
-      this.hasPrev2 = false;
     }
+    this.spareInputs = this.prevInputs;
+    this.prevInputs = this.goodInputs;
     m.getState(this.goodCoord, this.goodSph);
-    other.set(target);
-    this.goodInputs = other;
+    spare.set(target);
+    this.goodInputs = spare;
     this.hasGood = true;
+    if (this.startedCold) this.lineCount = 0;
+    this.recordOnLine(target);
     return this.finishSuccess(res, iterations, evaluations, substeps);
+  }
+
+  /** Add the pose just accepted (the mechanism's state) to the line history. */
+  private recordOnLine(inputs: Float64Array): void {
+    const n = this.lineCount;
+    if (n >= 2 && !collinearStep(this.lineInputs[n - 2], this.lineInputs[n - 1], inputs, this.line)) {
+      // Off the line: a new line starts from the last pose.
+      this.swapLine(0, n - 1);
+      this.lineCount = 1;
+    } else if (n === LINE_HISTORY) {
+      // Full: drop the oldest, rotating the buffers.
+      for (let k = 0; k < LINE_HISTORY - 1; k++) this.swapLine(k, k + 1);
+      this.lineCount = LINE_HISTORY - 1;
+    }
+    const k = this.lineCount;
+    this.lineInputs[k].set(inputs);
+    this.mechanism.getUnknowns(this.lineState[k]);
+    this.lineCount = k + 1;
+  }
+
+  private swapLine(i: number, j: number): void {
+    if (i === j) return;
+    const a = this.lineInputs[i];
+    this.lineInputs[i] = this.lineInputs[j];
+    this.lineInputs[j] = a;
+    const b = this.lineState[i];
+    this.lineState[i] = this.lineState[j];
+    this.lineState[j] = b;
   }
 
   private finishSuccess(res: LmOutcome, iterations: number, evaluations: number, substeps: number): SolveResult {
@@ -328,28 +359,35 @@ export class PoseSolver {
   }
 
   /**
-   * Predictor along a sweep: when the inputs keep moving along one line, extrapolate the
-   * last good poses to the target (rotations on their manifold) by Lagrange polynomials in
-   * the distance along that line: quadratic through the last three poses, or linear (secant)
-   * through the last two. A good guess saves Newton iterations; a bad one is harmless because
-   * the corrector and the jump check follow.
+   * Predictor along a sweep: when the target lies on the line the last poses were solved
+   * along, extrapolate their unknowns to it with the Lagrange polynomial through up to
+   * LINE_HISTORY of them (positions measured along the line). Along a smooth sweep each extra
+   * pose gains about an order of magnitude: measured on the demos' lean x steer sweep, the
+   * residual at the guess falls from about 2e-4 mm (three poses) to 1e-7..1e-9 mm (six), so the
+   * corrector usually needs no new Jacobian (see LmOptions.reuseFactorisation). Far beyond the
+   * last step (more than 1.5 steps) only the last three poses are used. A bad guess is
+   * harmless: the corrector and the jump check follow.
    */
   private predict(target: Float64Array): boolean {
-    if (!this.hasPrev) return false;
+    const n = this.lineCount;
+    if (n < 2) return false;
     const line = this.line;
-    if (!collinearStep(this.prevInputs, this.goodInputs, target, line) || line[1] > 2) return false;
-    // positions along the line: good at 0, prev at -1 (in units of the last step), target at T
-    const T = line[1];
-    const length1 = line[0];
-    let l1 = -T; // secant: x = x0 + T (x0 - x1)
-    let l2 = 0;
-    if (this.hasPrev2 && collinearStep(this.prev2Inputs, this.prevInputs, target, line) && line[1] > 0) {
-      const t1 = -1;
-      const t2 = -1 - line[0] / length1;
-      l1 = (T * (T - t2)) / (t1 * (t1 - t2));
-      l2 = (T * (T - t1)) / (t2 * (t2 - t1));
+    if (!collinearStep(this.lineInputs[n - 2], this.lineInputs[n - 1], target, line) || line[1] > 2) return false;
+    const T = line[0] * line[1]; // distance from the last pose to the target
+    const use = line[1] > 1.5 ? Math.min(3, n) : n;
+    const first = n - use;
+    const pos = this.linePos;
+    pos[n - 1] = 0;
+    for (let j = n - 2; j >= first; j--) pos[j] = pos[j + 1] - inputDistance(this.lineInputs[j], this.lineInputs[j + 1]);
+    const x = this.predicted;
+    x.fill(0);
+    for (let j = first; j < n; j++) {
+      let w = 1;
+      for (let l = first; l < n; l++) if (l !== j) w *= (T - pos[l]) / (pos[j] - pos[l]);
+      const state = this.lineState[j];
+      for (let v = 0; v < x.length; v++) x[v] += w * state[v];
     }
-    this.mechanism.extrapolate(this.prevCoord, this.prevSph, l1, this.prev2Coord, this.prev2Sph, l2);
+    this.mechanism.setUnknowns(x);
     return true;
   }
   /** collinearStep's answer: [length of the earlier step, ratio of the later to it]. */
@@ -559,6 +597,12 @@ function collinearStep(a: Float64Array, b: Float64Array, target: Float64Array, o
   out[0] = Math.sqrt(n1);
   out[1] = Math.sqrt(n2 / n1);
   return true;
+}
+
+function inputDistance(a: Float64Array, b: Float64Array): number {
+  let s = 0;
+  for (let k = 0; k < N_INPUTS; k++) s += (b[k] - a[k]) * (b[k] - a[k]);
+  return Math.sqrt(s);
 }
 
 function sameVector(a: Float64Array, b: Float64Array): boolean {

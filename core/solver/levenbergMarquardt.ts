@@ -42,6 +42,14 @@ export interface LmOptions {
   maxIterations: number;
   /** Initial damping relative to diag(J^T J) (Madsen's tau, with Marquardt scaling). */
   tau: number;
+  /**
+   * Start with up to two chord steps on the Jacobian and factorisation kept from an earlier
+   * solve (a warm start next to the last pose, such as a predicted point along a sweep): a
+   * start that close converges on them without forming a new Jacobian. Each step must shrink
+   * the largest residual at least tenfold; otherwise, or if it would not close, the solve goes
+   * on as plain LM with a fresh Jacobian from wherever the chord steps got to. Default false.
+   */
+  reuseFactorisation?: boolean;
 }
 
 export interface LmOutcome {
@@ -56,6 +64,17 @@ export interface LmOutcome {
 }
 
 const STAGNATION_WINDOW = 10;
+/** Chord steps tried on a kept factorisation before forming a fresh Jacobian. */
+const REUSED_CHORD_STEPS = 2;
+/**
+ * A kept factorisation's conditioning screen stands for the current pose only while it is
+ * this recent (solves since it was made) and this comfortable; otherwise the end of a solve
+ * re-forms the Jacobian at the solution. Healthy poses of the demos screen at 0.1-0.6; a dead
+ * centre drives the screen towards zero, so a pose one sweep step from a screen of 1e-2
+ * cannot be one.
+ */
+const SCREEN_TRUST_AGE = 4;
+const SCREEN_TRUST_LEVEL = 1e-2;
 /** Try a chord step once the residual is within this factor of the tolerance. */
 const CHORD_BELOW = 1e4;
 
@@ -79,6 +98,14 @@ export class LevenbergMarquardt {
   /** Conditioning screen from the last damped factorisation, and its damping. */
   private screen = 0;
   private screenMu = 1;
+  /**
+   * Solves begun since jac and aDamped last held a matching Jacobian and damped factor
+   * (0: made in this solve; Infinity: none).
+   */
+  private factorAge = Infinity;
+  /** tau of the solve under way, for a factorisation re-formed at its end. */
+  private tau = 1e-10;
+  private readonly conditioningWork: Float64Array;
 
   constructor(private readonly problem: LeastSquaresProblem) {
     const n = problem.nVars;
@@ -96,6 +123,7 @@ export class LevenbergMarquardt {
     this.scale = new Float64Array(n);
     this.pivots = new Float64Array(n);
     this.invSqrtDiag = new Float64Array(n);
+    this.conditioningWork = new Float64Array(n * n);
     // Columns sorted within each row, so the sparse products land in the lower triangle.
     this.pattern = problem.jacobianPattern?.().map((cols) => Int32Array.from(cols).sort());
   }
@@ -105,13 +133,19 @@ export class LevenbergMarquardt {
     return this.r;
   }
 
+  /** Drop the kept factorisation (the state it was made at is no longer near). */
+  forgetFactorisation(): void {
+    this.factorAge = Infinity;
+  }
+
   /** Solve from the problem's current state. The outcome record is reused by the next solve. */
   solve(opts: LmOptions): LmOutcome {
     const { n, r, rTrial, a, aDamped, g, negG, h, scale } = this;
     const p = this.problem;
     let evaluations = 1;
     this.normalValid = false;
-    this.screen = 0;
+    this.factorAge++;
+    this.tau = opts.tau;
     if (!p.residuals(r)) {
       const o = this.outcome;
       o.ending = 'non-finite';
@@ -127,18 +161,32 @@ export class LevenbergMarquardt {
     if (n === 0 || maxR < opts.tolerance) {
       return this.finish(maxR < opts.tolerance ? 'converged' : 'stationary', 0, evaluations, maxR);
     }
+    let iterations = 0;
+    if (opts.reuseFactorisation && this.factorAge < Infinity) {
+      for (let c = 0; c < REUSED_CHORD_STEPS && iterations < opts.maxIterations; c++) {
+        const before = maxR;
+        const after = this.chordStep();
+        evaluations += after === null ? 2 : 1;
+        iterations++;
+        if (after === null) break; // rejected; state and r restored
+        maxR = after;
+        if (maxR < opts.tolerance) return this.finish('converged', iterations, evaluations, maxR);
+        if (maxR > 0.1 * before) break;
+      }
+      cost = halfSquaredNorm(r);
+    }
     this.normalEquations();
     // With Marquardt's scaling D = diag(J^T J) the damping is dimensionless: mu = tau.
     let mu = opts.tau;
     let nu = 2;
-    let iterations = 0;
+    const firstIteration = iterations;
     const costHistory = this.costHistory;
     while (iterations < opts.maxIterations) {
       // Stagnation: a run that creeps (cost down by less than 1e-4 relative over the last
       // STAGNATION_WINDOW iterations) is stuck at a gap, not converging; say so early
       // instead of burning the iteration budget.
       costHistory[iterations % STAGNATION_WINDOW] = cost;
-      if (iterations >= STAGNATION_WINDOW && cost > (1 - 1e-4) * costHistory[(iterations + 1) % STAGNATION_WINDOW]) {
+      if (iterations - firstIteration >= STAGNATION_WINDOW && cost > (1 - 1e-4) * costHistory[(iterations + 1) % STAGNATION_WINDOW]) {
         return this.finish('stationary', iterations, evaluations, maxR);
       }
       iterations++;
@@ -154,10 +202,12 @@ export class LevenbergMarquardt {
         negG[i] = -g[i];
       }
       if (!choleskyFactor(aDamped, n, this.pivots)) {
+        this.factorAge = Infinity;
         mu *= nu;
         nu *= 2;
         continue;
       }
+      this.factorAge = 0;
       // A free conditioning screen from this factorisation: each pivot over its diagonal is
       // how much of that column is independent of the ones before it.
       let screen = Infinity;
@@ -257,6 +307,8 @@ export class LevenbergMarquardt {
     const { n, m, r, jac, a, g, scale, pattern } = this;
     this.problem.jacobian(jac);
     this.normalValid = true;
+    // jac no longer matches the kept factor until the next factorisation.
+    this.factorAge = Infinity;
     if (pattern) {
       a.fill(0);
       g.fill(0);
@@ -304,11 +356,42 @@ export class LevenbergMarquardt {
     o.iterations = iterations;
     o.evaluations = evaluations;
     o.maxResidual = maxResidual;
-    // Damping only raises pivots, so a screen far above the damping proves the Jacobian
-    // well conditioned; only a doubtful screen pays for the exact check.
-    o.pivotRatio = this.screen > 1e3 * this.screenMu && this.screen > 1e-8 ? this.screen : this.conditioning();
+    o.pivotRatio = this.pivotRatioHere();
     o.worstResidual = worstIndex(this.r);
     return o;
+  }
+
+  /**
+   * The conditioning measure at the end of a solve. Damping only raises pivots, so a screen
+   * far above the damping proves the Jacobian well conditioned; only a doubtful screen pays
+   * for the exact check. A screen from a kept factorisation (a solve that converged on reused
+   * chord steps, or at its start) speaks for this pose only while it is recent and
+   * comfortable; otherwise the Jacobian is re-formed here first, which also gives the next
+   * solve a fresh factor.
+   */
+  private pivotRatioHere(): number {
+    if (this.n === 0) return 1;
+    const trusted = this.factorAge === 0 || (this.factorAge <= SCREEN_TRUST_AGE && this.screen > SCREEN_TRUST_LEVEL);
+    if (!trusted) this.refactor();
+    return this.screen > 1e3 * this.screenMu && this.screen > 1e-8 ? this.screen : this.conditioning();
+  }
+
+  /** J^T J and its damped factor (damping tau, as a solve starts) at the current state, with its screen. */
+  private refactor(): void {
+    const { n, a, aDamped, scale, pivots } = this;
+    this.normalEquations();
+    const mu = this.tau;
+    for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) aDamped[i * n + j] = a[i * n + j];
+    for (let i = 0; i < n; i++) aDamped[i * n + i] += mu * scale[i];
+    if (!choleskyFactor(aDamped, n, pivots)) {
+      this.screen = 0;
+      return;
+    }
+    let screen = Infinity;
+    for (let i = 0; i < n; i++) screen = Math.min(screen, pivots[i] / (a[i * n + i] + mu * scale[i]));
+    this.screen = screen;
+    this.screenMu = mu;
+    this.factorAge = 0;
   }
 
   /**
@@ -317,7 +400,9 @@ export class LevenbergMarquardt {
    * Zero means J lost rank: a dead centre or a degenerate linkage.
    */
   private conditioning(): number {
-    const { n, a, aDamped, pivots, invSqrtDiag } = this;
+    const { n, a, pivots, invSqrtDiag } = this;
+    // Its own work array: the damped factor in aDamped is kept for the next solve's chord steps.
+    const aDamped = this.conditioningWork;
     if (n === 0) return 1;
     // The normal matrix from the last accepted step is close enough to the end state for a
     // conditioning check; recompute only when none was formed yet.
