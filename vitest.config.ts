@@ -46,6 +46,9 @@ export default defineConfig({
           testTimeout: 120_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+          // expect.poll gives up after 1 s by default; under the full suite's load a click that
+          // re-solves a pose in the worker can take longer to reach the page's state.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],

@@ -12,7 +12,7 @@
  * its axis.
  */
 
-import { rotationAboutAxis, rotationFromVectorAt, multiplyMat3, orthonormalize, angleBetweenRotations, vectorFromRotation } from '../math/rotation';
+import { rotationAboutAxis, rotationFromVectorAt, multiplyMat3, orthonormalize, vectorFromRotation } from '../math/rotation';
 import type { LeastSquaresProblem } from './levenbergMarquardt';
 import { INPUT_NAMES, type Constraint, type MechanismGraph, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
 
@@ -664,17 +664,27 @@ export class CompiledMechanism implements LeastSquaresProblem {
   }
 
   /**
-   * Largest rotation change (radians) of any unknown between a stored state and the current
-   * one: the measure continuation uses to spot a branch jump.
+   * Whether any unknown turned by more than limitRad between a stored state and the current
+   * one: the test continuation uses to spot a branch jump. A revolute joint compares angles; a
+   * spherical joint's turn exceeds the limit when the cosine of its angle, from the trace of
+   * S_ref^T S, is below cos(limit) (no arc cosine needed).
    */
-  largestChange(coordRef: Float64Array, sphRef: Float64Array): number {
-    let rad = 0;
+  changeExceeds(coordRef: Float64Array, sphRef: Float64Array, limitRad: number): boolean {
+    const { coord, sph, kind, firstVar } = this;
+    const cosLimit = limitRad < Math.PI ? Math.cos(limitRad) : -1;
     for (let b = 0; b < this.nBodies; b++) {
-      if (this.firstVar[b] < 0) continue;
-      if (this.kind[b] === KIND_SPHERICAL) rad = Math.max(rad, angleBetweenRotations(this.sph, 9 * b, sphRef, 9 * b));
-      else if (this.kind[b] === KIND_REVOLUTE) rad = Math.max(rad, Math.abs(this.coord[b] - coordRef[b]));
+      if (firstVar[b] < 0) continue;
+      if (kind[b] === KIND_SPHERICAL) {
+        if (limitRad >= Math.PI) continue;
+        const o = 9 * b;
+        let tr = 0;
+        for (let i = 0; i < 9; i++) tr += sph[o + i] * sphRef[o + i];
+        if ((tr - 1) / 2 < cosLimit) return true;
+      } else if (kind[b] === KIND_REVOLUTE && Math.abs(coord[b] - coordRef[b]) > limitRad) {
+        return true;
+      }
     }
-    return rad;
+    return false;
   }
 
   /**

@@ -62,8 +62,29 @@ export const DEFAULT_SOLVER_OPTIONS: PoseSolverOptions = {
 
 const DEG = Math.PI / 180;
 const N_INPUTS = INPUT_NAMES.length;
-/** Poses the predictor extrapolates through along a straight sweep (a quintic at most). */
-const LINE_HISTORY = 6;
+/**
+ * Poses kept along a straight sweep. Through up to INTERPOLATED of them the predictor
+ * interpolates (a quintic at most); once LINE_HISTORY evenly spaced ones are there it fits a
+ * degree-FIT_DEGREE polynomial to all of them by least squares instead: the poses are closed
+ * only to the solver's tolerance, and interpolating more of them would amplify that noise
+ * (the weights' absolute sum grows like 2^k), while the fit reaches a higher degree at a
+ * similar amplification (sum 84 against 63).
+ */
+const LINE_HISTORY = 10;
+const INTERPOLATED = 6;
+const FIT_DEGREE = 7;
+/** Least-squares weights: one step beyond LINE_HISTORY evenly spaced poses, oldest first. */
+const FIT_WEIGHTS = leastSquaresExtrapolation(LINE_HISTORY, FIT_DEGREE);
+/** EVEN_WEIGHTS[k][j] = (-1)^(k-1-j) C(k, j): one step beyond k evenly spaced poses, oldest first. */
+const EVEN_WEIGHTS: readonly Float64Array[] = Array.from({ length: INTERPOLATED + 1 }, (_, k) => {
+  const row = new Float64Array(k);
+  let c = 1; // C(k, 0)
+  for (let j = 0; j < k; j++) {
+    row[j] = (k - 1 - j) % 2 === 0 ? c : -c;
+    c = (c * (k - j)) / (j + 1);
+  }
+  return row;
+});
 /** Which inputs are angles (stepped in degrees) rather than lengths (mm). */
 const INPUT_IS_DEG: readonly boolean[] = INPUT_NAMES.map((n) => n.endsWith('Deg'));
 // solve() reads the record in this order by name; keep them in step with INPUT_NAMES.
@@ -98,6 +119,9 @@ export class PoseSolver {
   private readonly lineState: Float64Array[];
   private lineCount = 0;
   private readonly linePos = new Float64Array(LINE_HISTORY);
+  /** lineGap[k]: distance in inputs from line pose k-1 to pose k (lineGap[0] unused). */
+  private lineGap = new Float64Array(LINE_HISTORY);
+  private readonly lineWeight = new Float64Array(LINE_HISTORY);
   private readonly predicted: Float64Array;
   private readonly lmOptions: LmOptions;
   private readonly work = new Float64Array(N_INPUTS);
@@ -327,6 +351,7 @@ export class PoseSolver {
     }
     const k = this.lineCount;
     this.lineInputs[k].set(inputs);
+    this.lineGap[k] = k > 0 ? inputDistance(this.lineInputs[k - 1], inputs) : 0;
     this.mechanism.getUnknowns(this.lineState[k]);
     this.lineCount = k + 1;
   }
@@ -339,6 +364,9 @@ export class PoseSolver {
     const b = this.lineState[i];
     this.lineState[i] = this.lineState[j];
     this.lineState[j] = b;
+    const g = this.lineGap[i];
+    this.lineGap[i] = this.lineGap[j];
+    this.lineGap[j] = g;
   }
 
   private finishSuccess(res: LmOutcome, iterations: number, evaluations: number, substeps: number): SolveResult {
@@ -374,18 +402,40 @@ export class PoseSolver {
     const line = this.line;
     if (!collinearStep(this.lineInputs[n - 2], this.lineInputs[n - 1], target, line) || line[1] > 2) return false;
     const T = line[0] * line[1]; // distance from the last pose to the target
-    const use = line[1] > 1.5 ? Math.min(3, n) : n;
-    const first = n - use;
-    const pos = this.linePos;
-    pos[n - 1] = 0;
-    for (let j = n - 2; j >= first; j--) pos[j] = pos[j + 1] - inputDistance(this.lineInputs[j], this.lineInputs[j + 1]);
+    const gaps = this.lineGap;
+    const w = this.lineWeight;
+    // An evenly spaced sweep (the usual case) extrapolating one step: with a full history the
+    // least-squares weights; else the signed binomial coefficients, (-1)^(k-1-j) C(k, j) for k
+    // poses. Otherwise Lagrange's formula through the last few.
+    const h = gaps[n - 1];
+    let evenFrom = n - 1; // poses evenFrom..n-1 are evenly spaced, one step behind the target
+    if (Math.abs(T - h) <= 1e-9 * h) while (evenFrom > 0 && Math.abs(gaps[evenFrom] - h) <= 1e-9 * h) evenFrom--;
+    const evenCount = n - evenFrom;
+    let use = Math.min(n, INTERPOLATED);
+    if (line[1] > 1.5) use = Math.min(3, n);
+    let first = n - use;
+    if (evenCount === LINE_HISTORY) {
+      first = 0;
+      for (let j = 0; j < n; j++) w[j] = FIT_WEIGHTS[j];
+    } else if (evenCount >= use) {
+      const row = EVEN_WEIGHTS[use];
+      for (let j = first; j < n; j++) w[j] = row[j - first];
+    } else {
+      const pos = this.linePos;
+      pos[n - 1] = 0;
+      for (let j = n - 2; j >= first; j--) pos[j] = pos[j + 1] - gaps[j + 1];
+      for (let j = first; j < n; j++) {
+        let wj = 1;
+        for (let l = first; l < n; l++) if (l !== j) wj *= (T - pos[l]) / (pos[j] - pos[l]);
+        w[j] = wj;
+      }
+    }
     const x = this.predicted;
     x.fill(0);
     for (let j = first; j < n; j++) {
-      let w = 1;
-      for (let l = first; l < n; l++) if (l !== j) w *= (T - pos[l]) / (pos[j] - pos[l]);
+      const wj = w[j];
       const state = this.lineState[j];
-      for (let v = 0; v < x.length; v++) x[v] += w * state[v];
+      for (let v = 0; v < x.length; v++) x[v] += wj * state[v];
     }
     this.mechanism.setUnknowns(x);
     return true;
@@ -494,12 +544,11 @@ export class PoseSolver {
       if (INPUT_IS_DEG[k]) inputRad = Math.max(inputRad, d * DEG);
       else inputMm = Math.max(inputMm, d);
     }
-    const changeRad = this.mechanism.largestChange(this.stepCoord, this.stepSph);
     // A branch switch moves joints by a finite amount however small the step; a steep but
     // continuous motion shrinks with it. Allow generous gearing: 25 degrees, or 12 times
     // the input change (radians), plus the mm change of an input travelling 1:1.
     const allowedRad = Math.max(25 * DEG, 12 * (inputRad + inputMm / 100));
-    return changeRad > allowedRad;
+    return this.mechanism.changeExceeds(this.stepCoord, this.stepSph, allowedRad);
   }
 
   private finishFailure(
@@ -597,6 +646,41 @@ function collinearStep(a: Float64Array, b: Float64Array, target: Float64Array, o
   out[0] = Math.sqrt(n1);
   out[1] = Math.sqrt(n2 / n1);
   return true;
+}
+
+/**
+ * Weights w_j (oldest first) such that sum_j w_j x_j is the value at t = 0 of the
+ * least-squares polynomial of the given degree through samples x_j at t = -k..-1. Built by
+ * Gram-Schmidt (twice over, for accuracy) on the monomials in the centred variable
+ * s = (t - mean) / half-width, each basis vector carried together with its value at t = 0,
+ * which takes no part in the inner products: then w_j = sum_p phi_p(t_j) phi_p(0) for the
+ * orthonormal basis phi_p. For k = 10, degree 7 the weights come out as -0.8, 4.8, -10.6, 8,
+ * 5.6, -11.2, -2.8, 17.6, -16, 6.4 to about 5e-15.
+ */
+export function leastSquaresExtrapolation(k: number, degree: number): Float64Array {
+  const mid = -(k + 1) / 2;
+  const half = (k - 1) / 2;
+  const basis: Float64Array[] = [];
+  for (let p = 0; p <= degree; p++) {
+    const v = new Float64Array(k + 1); // k sample values, then the value at t = 0
+    for (let j = 0; j < k; j++) v[j] = ((j - k - mid) / half) ** p;
+    v[k] = (-mid / half) ** p;
+    for (let pass = 0; pass < 2; pass++) {
+      for (const q of basis) {
+        let d = 0;
+        for (let j = 0; j < k; j++) d += v[j] * q[j];
+        for (let j = 0; j <= k; j++) v[j] -= d * q[j];
+      }
+    }
+    let norm = 0;
+    for (let j = 0; j < k; j++) norm += v[j] * v[j];
+    norm = Math.sqrt(norm);
+    for (let j = 0; j <= k; j++) v[j] /= norm;
+    basis.push(v);
+  }
+  const w = new Float64Array(k);
+  for (const q of basis) for (let j = 0; j < k; j++) w[j] += q[j] * q[k];
+  return w;
 }
 
 function inputDistance(a: Float64Array, b: Float64Array): number {
