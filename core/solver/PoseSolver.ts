@@ -96,16 +96,16 @@ export class PoseSolver {
   readonly mechanism: CompiledMechanism;
   readonly options: PoseSolverOptions;
   private readonly lm: LevenbergMarquardt;
-  private readonly goodCoord: Float64Array;
-  private readonly goodSph: Float64Array;
+  private goodCoord: Float64Array;
+  private goodSph: Float64Array;
   private readonly stepCoord: Float64Array;
   private readonly stepSph: Float64Array;
   /** Input records are vectors in INPUT_NAMES order: the hot loops index, never key by name. */
   private goodInputs: Float64Array;
   private hasGood = false;
   /** The good pose before the last one, for the secant predictor. */
-  private readonly prevCoord: Float64Array;
-  private readonly prevSph: Float64Array;
+  private prevCoord: Float64Array;
+  private prevSph: Float64Array;
   private prevInputs: Float64Array;
   private hasPrev = false;
   /** Spare input record: the records rotate roles (spare -> good -> prev) instead of a new one per pose. */
@@ -118,6 +118,7 @@ export class PoseSolver {
   private readonly lineInputs: Float64Array[];
   private readonly lineState: Float64Array[];
   private lineCount = 0;
+  private lineHead = 0;
   private readonly linePos = new Float64Array(LINE_HISTORY);
   /** lineGap[k]: distance in inputs from line pose k-1 to pose k (lineGap[0] unused). */
   private lineGap = new Float64Array(LINE_HISTORY);
@@ -319,8 +320,13 @@ export class PoseSolver {
     }
     const spare = this.spareInputs;
     if (this.hasGood && warm && !turning) {
-      this.prevCoord.set(this.goodCoord);
-      this.prevSph.set(this.goodSph);
+      // The good pose becomes the previous one: swap the buffers instead of copying.
+      const c = this.prevCoord;
+      const sp = this.prevSph;
+      this.prevCoord = this.goodCoord;
+      this.prevSph = this.goodSph;
+      this.goodCoord = c;
+      this.goodSph = sp;
       this.hasPrev = true;
     } else {
       // After retracing, or from a cold start, there is no step behind the new pose.
@@ -340,33 +346,27 @@ export class PoseSolver {
   /** Add the pose just accepted (the mechanism's state) to the line history. */
   private recordOnLine(inputs: Float64Array): void {
     const n = this.lineCount;
-    if (n >= 2 && !collinearStep(this.lineInputs[n - 2], this.lineInputs[n - 1], inputs, this.line)) {
+    if (n >= 2 && !collinearStep(this.lineInputs[this.slot(n - 2)], this.lineInputs[this.slot(n - 1)], inputs, this.line)) {
       // Off the line: a new line starts from the last pose.
-      this.swapLine(0, n - 1);
+      this.lineHead = this.slot(n - 1);
       this.lineCount = 1;
     } else if (n === LINE_HISTORY) {
-      // Full: drop the oldest, rotating the buffers.
-      for (let k = 0; k < LINE_HISTORY - 1; k++) this.swapLine(k, k + 1);
+      // Full: drop the oldest.
+      this.lineHead = this.slot(1);
       this.lineCount = LINE_HISTORY - 1;
     }
     const k = this.lineCount;
-    this.lineInputs[k].set(inputs);
-    this.lineGap[k] = k > 0 ? inputDistance(this.lineInputs[k - 1], inputs) : 0;
-    this.mechanism.getUnknowns(this.lineState[k]);
+    const at = this.slot(k);
+    this.lineInputs[at].set(inputs);
+    this.lineGap[at] = k > 0 ? inputDistance(this.lineInputs[this.slot(k - 1)], inputs) : 0;
+    this.mechanism.getUnknowns(this.lineState[at]);
     this.lineCount = k + 1;
   }
 
-  private swapLine(i: number, j: number): void {
-    if (i === j) return;
-    const a = this.lineInputs[i];
-    this.lineInputs[i] = this.lineInputs[j];
-    this.lineInputs[j] = a;
-    const b = this.lineState[i];
-    this.lineState[i] = this.lineState[j];
-    this.lineState[j] = b;
-    const g = this.lineGap[i];
-    this.lineGap[i] = this.lineGap[j];
-    this.lineGap[j] = g;
+  /** Buffer index of the j-th pose on the line, oldest first (a ring of LINE_HISTORY). */
+  private slot(j: number): number {
+    const i = this.lineHead + j;
+    return i >= LINE_HISTORY ? i - LINE_HISTORY : i;
   }
 
   private finishSuccess(res: LmOutcome, iterations: number, evaluations: number, substeps: number): SolveResult {
@@ -400,16 +400,16 @@ export class PoseSolver {
     const n = this.lineCount;
     if (n < 2) return false;
     const line = this.line;
-    if (!collinearStep(this.lineInputs[n - 2], this.lineInputs[n - 1], target, line) || line[1] > 2) return false;
+    if (!collinearStep(this.lineInputs[this.slot(n - 2)], this.lineInputs[this.slot(n - 1)], target, line) || line[1] > 2) return false;
     const T = line[0] * line[1]; // distance from the last pose to the target
     const gaps = this.lineGap;
     const w = this.lineWeight;
     // An evenly spaced sweep (the usual case) extrapolating one step: with a full history the
     // least-squares weights; else the signed binomial coefficients, (-1)^(k-1-j) C(k, j) for k
     // poses. Otherwise Lagrange's formula through the last few.
-    const h = gaps[n - 1];
+    const h = gaps[this.slot(n - 1)];
     let evenFrom = n - 1; // poses evenFrom..n-1 are evenly spaced, one step behind the target
-    if (Math.abs(T - h) <= 1e-9 * h) while (evenFrom > 0 && Math.abs(gaps[evenFrom] - h) <= 1e-9 * h) evenFrom--;
+    if (Math.abs(T - h) <= 1e-9 * h) while (evenFrom > 0 && Math.abs(gaps[this.slot(evenFrom)] - h) <= 1e-9 * h) evenFrom--;
     const evenCount = n - evenFrom;
     let use = Math.min(n, INTERPOLATED);
     if (line[1] > 1.5) use = Math.min(3, n);
@@ -423,7 +423,7 @@ export class PoseSolver {
     } else {
       const pos = this.linePos;
       pos[n - 1] = 0;
-      for (let j = n - 2; j >= first; j--) pos[j] = pos[j + 1] - gaps[j + 1];
+      for (let j = n - 2; j >= first; j--) pos[j] = pos[j + 1] - gaps[this.slot(j + 1)];
       for (let j = first; j < n; j++) {
         let wj = 1;
         for (let l = first; l < n; l++) if (l !== j) wj *= (T - pos[l]) / (pos[j] - pos[l]);
@@ -434,7 +434,7 @@ export class PoseSolver {
     x.fill(0);
     for (let j = first; j < n; j++) {
       const wj = w[j];
-      const state = this.lineState[j];
+      const state = this.lineState[this.slot(j)];
       for (let v = 0; v < x.length; v++) x[v] += wj * state[v];
     }
     this.mechanism.setUnknowns(x);
