@@ -206,7 +206,7 @@ export function benchDesign(name: string, cfg: BenchConfig = DEFAULT_CONFIG): De
 // ---------------------------------------------------------------------------------------------
 
 const int = (x: number) => Math.round(x).toLocaleString('en-US');
-const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(2) : String(x));
+const sci = (x: number) => (Number.isFinite(x) ? x.toExponential(3) : String(x));
 const verdict = (ok: boolean) => (ok ? 'PASS' : 'MISS');
 /** Spread of the timed passes, as min..max in thousands. */
 const spread = (rates: number[]) => `${(Math.min(...rates) / 1000).toFixed(1)}k..${(Math.max(...rates) / 1000).toFixed(1)}k`;
