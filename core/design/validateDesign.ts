@@ -6,6 +6,7 @@
  * valid design, so they run only once the schema check has passed.
  */
 import { designFileSchema } from './designSchema';
+import { findDuplicateKeys } from './duplicateKeys';
 import { wheelSpinAxisAtDesign } from '../mechanism/wheelAxis';
 import { isTwoSided, resolveDesign } from './resolveDesign';
 import { describeFound, roundForMessage, validateAgainst, type SchemaIssue } from './schemaDsl';
@@ -56,6 +57,22 @@ export function parseDesignText(text: string, fileName: string): DesignResult {
     json = JSON.parse(body);
   } catch (error) {
     return { ok: false, issues: [jsonSyntaxIssue(body, error, fileName)] };
+  }
+  // JSON.parse keeps the last of two equal keys without a word: refuse instead of guessing.
+  const duplicates = findDuplicateKeys(body);
+  if (duplicates.length > 0) {
+    return {
+      ok: false,
+      issues: duplicates.map((d) => {
+        const { line, column } = lineAndColumn(body, d.offset);
+        return {
+          path: d.path,
+          line,
+          column,
+          message: `${fileName}:${line}:${column}: ${d.path}: ${JSON.stringify(d.key)} is given twice in the same object; keep one and delete the other`,
+        };
+      }),
+    };
   }
 
   const migrated = migrateDesign(json);

@@ -93,8 +93,23 @@ function checkFile(text: string, label: string): void {
 
   expect(result.issues.length, label).toBeGreaterThan(0);
   const problems = result.issues.flatMap((i) => issueProblems(i, text));
+  // A key given twice is refused though JSON.parse accepts the text (it would keep the last):
+  // the issue must point at a key's opening quote, in text that parses.
+  const isRepeat = (i: { message: string }) => / is given twice in the same object;/.test(i.message);
+  for (const repeat of result.issues.filter(isRepeat)) {
+    let parses = true;
+    try {
+      JSON.parse(body);
+    } catch {
+      parses = false;
+    }
+    if (!parses) problems.push(`a repeated key reported in text JSON.parse refuses: ${repeat.message}`);
+    const lines = body.split(/(?<=\r\n|\n|\r(?!\n))/);
+    const offset = lines.slice(0, repeat.line! - 1).join('').length + repeat.column! - 1;
+    if (body[offset] !== '"') problems.push(`repeated key reported at ${repeat.line}:${repeat.column}, which is not a quote`);
+  }
   // Where Node's own parser gives a position for a syntax error, ours must agree.
-  const syntax = result.issues.find((i) => i.line !== undefined);
+  const syntax = result.issues.find((i) => i.line !== undefined && !isRepeat(i));
   if (syntax) {
     let engine: string | undefined;
     try {
