@@ -688,39 +688,33 @@ export class CompiledMechanism implements LeastSquaresProblem {
   }
 
   /**
-   * Extrapolate the unknowns from the current state x0 using earlier states x1 and x2:
-   * x <- x0 + l1 (x1 - x0) + l2 (x2 - x0), the Lagrange form with weights l1, l2 (l2 = 0 for a
-   * secant step). Rotations use rotation vectors relative to the current rotation, which
-   * is accurate for the small spans of a sweep. Driven coordinates are left to the inputs.
+   * Move the unknowns from the current state x0 along the line to another state x1:
+   * x <- x0 + l (x1 - x0) (l = 1 reaches x1, l = -1 mirrors it about x0). Rotations use
+   * rotation vectors relative to the current rotation, which is accurate for the small spans
+   * of a sweep. Driven coordinates are left to the inputs. (The sweep predictor extrapolates
+   * through more poses with getUnknowns / setUnknowns.)
    */
-  extrapolate(c1: Float64Array, s1: Float64Array, l1: number, c2: Float64Array, s2: Float64Array, l2: number): void {
+  extrapolate(c1: Float64Array, s1: Float64Array, l: number): void {
     const { coord, sph, kind, firstVar, tmp9, scratch } = this;
     const w = this.pa;
-    const w2 = this.pb;
     for (let b = 0; b < this.nBodies; b++) {
       if (firstVar[b] < 0) continue;
       if (kind[b] === KIND_SPHERICAL) {
         const o = 9 * b;
         relativeRotationVector(w, s1, sph, o, tmp9);
-        w[0] *= l1;
-        w[1] *= l1;
-        w[2] *= l1;
-        if (l2 !== 0) {
-          relativeRotationVector(w2, s2, sph, o, tmp9);
-          w[0] += l2 * w2[0];
-          w[1] += l2 * w2[1];
-          w[2] += l2 * w2[2];
-        }
+        w[0] *= l;
+        w[1] *= l;
+        w[2] *= l;
         rotationFromVectorAt(scratch, 0, w, 0);
         multiplyMat3(tmp9, 0, scratch, 0, sph, o);
         for (let i = 0; i < 9; i++) sph[o + i] = tmp9[i];
         orthonormalize(sph, o);
       } else {
-        const x0 = coord[b];
-        coord[b] = x0 + l1 * (c1[b] - x0) + (l2 !== 0 ? l2 * (c2[b] - x0) : 0);
+        coord[b] += l * (c1[b] - coord[b]);
       }
     }
   }
+
 
   /** Columns each residual row can touch: the unknowns in the chains of its bodies. */
   jacobianPattern(): Int32Array[] {

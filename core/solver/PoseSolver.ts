@@ -209,7 +209,7 @@ export class PoseSolver {
       } else {
         from = this.goodInputs;
         m.setState(this.goodCoord, this.goodSph);
-        m.extrapolate(this.prevCoord, this.prevSph, back, this.prevCoord, this.prevSph, 0);
+        m.extrapolate(this.prevCoord, this.prevSph, back);
       }
     } else if (warm && this.hasGood) {
       from = this.goodInputs;
@@ -285,7 +285,7 @@ export class PoseSolver {
         // branch lies on the other side.
         m.getState(this.turnCoord, this.turnSph);
         m.setState(this.stepCoord, this.stepSph);
-        m.extrapolate(this.turnCoord, this.turnSph, -1, this.turnCoord, this.turnSph, 0);
+        m.extrapolate(this.turnCoord, this.turnSph, -1);
         const again = this.lm.solve(this.lmOptions);
         iterations += again.iterations;
         evaluations += again.evaluations;

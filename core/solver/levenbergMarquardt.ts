@@ -196,24 +196,12 @@ export class LevenbergMarquardt {
       }
       // Solve (A + mu D) h = -g, D = diag(A) floored (Marquardt scaling keeps mm and
       // radian variables on an equal footing).
-      for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) aDamped[i * n + j] = a[i * n + j];
-      for (let i = 0; i < n; i++) {
-        aDamped[i * n + i] += mu * scale[i];
-        negG[i] = -g[i];
-      }
-      if (!choleskyFactor(aDamped, n, this.pivots)) {
-        this.factorAge = Infinity;
+      for (let i = 0; i < n; i++) negG[i] = -g[i];
+      if (!this.factorDamped(mu)) {
         mu *= nu;
         nu *= 2;
         continue;
       }
-      this.factorAge = 0;
-      // A free conditioning screen from this factorisation: each pivot over its diagonal is
-      // how much of that column is independent of the ones before it.
-      let screen = Infinity;
-      for (let i = 0; i < n; i++) screen = Math.min(screen, this.pivots[i] / (a[i * n + i] + mu * scale[i]));
-      this.screen = screen;
-      this.screenMu = mu;
       choleskySolve(aDamped, n, negG, h);
       let hNorm = 0;
       for (let i = 0; i < n; i++) hNorm += h[i] * h[i];
@@ -378,21 +366,33 @@ export class LevenbergMarquardt {
 
   /** J^T J and its damped factor (damping tau, as a solve starts) at the current state, with its screen. */
   private refactor(): void {
-    const { n, a, aDamped, scale, pivots } = this;
     this.normalEquations();
-    const mu = this.tau;
+    this.factorDamped(this.tau);
+  }
+
+  /**
+   * Factor A + mu D into aDamped (kept for later chord steps) with its conditioning screen:
+   * each pivot over its damped diagonal is how much of that column is independent of the
+   * ones before it, free from the factorisation. False, with no factor kept, when A + mu D is
+   * not positive definite.
+   */
+  private factorDamped(mu: number): boolean {
+    const { n, a, aDamped, scale, pivots } = this;
     for (let i = 0; i < n; i++) for (let j = 0; j <= i; j++) aDamped[i * n + j] = a[i * n + j];
     for (let i = 0; i < n; i++) aDamped[i * n + i] += mu * scale[i];
     if (!choleskyFactor(aDamped, n, pivots)) {
+      this.factorAge = Infinity;
       this.screen = 0;
-      return;
+      return false;
     }
     let screen = Infinity;
     for (let i = 0; i < n; i++) screen = Math.min(screen, pivots[i] / (a[i * n + i] + mu * scale[i]));
     this.screen = screen;
     this.screenMu = mu;
     this.factorAge = 0;
+    return true;
   }
+
 
   /**
    * Conditioning of J at the current state: factor the normal matrix scaled to unit
