@@ -15,7 +15,7 @@ import { camberFromAxis, toeFromHeading, wheelHeading } from '../mechanism/wheel
 import { tyreLowestPoint } from './poseSnapshot';
 import type { WheelAlignment } from './analysisTypes';
 import type { SideGeometry } from './poseGeometry';
-import { RAD, cross, dot, norm, normalize, sub, xyz } from './vec3';
+import { RAD, cross, dot, norm, normalize, sub, xyz, type XyzMm } from './vec3';
 
 export interface TyreShape {
   rollingRadiusMm: number;
@@ -70,36 +70,26 @@ export function wheelAlignment(
   const camberToFrameDeg = camberFromAxis(side, a[0], a[1], a[2], frame.up) * RAD;
   // The axis meets the ground only if it is not horizontal (a near-horizontal axis would
   // put its ground point kilometres away: no meaningful trail or scrub).
-  if (k[2] < 1e-6) {
-    return {
-      side,
-      steerDeg,
-      toeDeg,
-      camberDeg,
-      camberToFrameDeg,
-      casterDeg: ground.caster * RAD,
-      kpiDeg: ground.kpi * RAD,
-      casterToFrameDeg: inFrame.caster * RAD,
-      kpiToFrameDeg: inFrame.kpi * RAD,
-      trailMm: null,
-      scrubRadiusMm: null,
-      casterOffsetMm: null,
-      kingpinOffsetAtCentreMm: null,
-      spindleLengthMm: spindle,
-      travelMm: travel,
-      centreMm: xyz(C),
-      contactPatchMm: xyz(contact),
-      axisGroundPointMm: null,
-      reason: 'the steering axis is horizontal: it does not meet the ground',
-    };
+  let trailMm: number | null = null;
+  let scrubRadiusMm: number | null = null;
+  let casterOffsetMm: number | null = null;
+  let kingpinOffsetAtCentreMm: number | null = null;
+  let axisGroundPointMm: XyzMm | null = null;
+  const meetsGround = k[2] >= 1e-6;
+  if (meetsGround) {
+    const G: Vec3 = [L[0] - (k[0] * L[2]) / k[2], L[1] - (k[1] * L[2]) / k[2], 0];
+    const t = (C[2] - L[2]) / k[2];
+    const atCentreHeight: Vec3 = [L[0] + k[0] * t, L[1] + k[1] * t, C[2]];
+    const gc = sub(G, contact);
+    const ac = sub(atCentreHeight, C);
+    trailMm = dot(gc, h);
+    scrubRadiusMm = dot(gc, inward);
+    casterOffsetMm = dot(ac, h);
+    kingpinOffsetAtCentreMm = dot(ac, inward);
+    axisGroundPointMm = xyz(G);
   }
-  const G: Vec3 = [L[0] - (k[0] * L[2]) / k[2], L[1] - (k[1] * L[2]) / k[2], 0];
-  const t = (C[2] - L[2]) / k[2];
-  const atCentreHeight: Vec3 = [L[0] + k[0] * t, L[1] + k[1] * t, C[2]];
-  const gc = sub(G, contact);
-  const ac = sub(atCentreHeight, C);
   // One object literal in one field order (object spread is slow in V8 and changes shapes).
-  return {
+  const out: WheelAlignment = {
     side,
     steerDeg,
     toeDeg,
@@ -109,14 +99,16 @@ export function wheelAlignment(
     kpiDeg: ground.kpi * RAD,
     casterToFrameDeg: inFrame.caster * RAD,
     kpiToFrameDeg: inFrame.kpi * RAD,
-    trailMm: dot(gc, h),
-    scrubRadiusMm: dot(gc, inward),
-    casterOffsetMm: dot(ac, h),
-    kingpinOffsetAtCentreMm: dot(ac, inward),
+    trailMm,
+    scrubRadiusMm,
+    casterOffsetMm,
+    kingpinOffsetAtCentreMm,
     spindleLengthMm: spindle,
     travelMm: travel,
     centreMm: xyz(C),
     contactPatchMm: xyz(contact),
-    axisGroundPointMm: xyz(G),
+    axisGroundPointMm,
   };
+  if (!meetsGround) out.reason = 'the steering axis is horizontal: it does not meet the ground';
+  return out;
 }

@@ -14,20 +14,14 @@ import { buildMechanism, type PoseMode } from '../mechanism/templates/buildMecha
 import { zeroInputs, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
 import { PoseSolver, type SolveResult } from '../solver/PoseSolver';
 import { takeSnapshot, type PoseSnapshot } from './poseSnapshot';
-import type { PoseAnalysis } from './analysisTypes';
+import type { PoseAnalysis, PoseInputsReport } from './analysisTypes';
 import { PoseAnalyser, frontLift, type ToeReference } from './PoseAnalyser';
 import { localSteeringRatio } from './steeringLinkage';
 import { formatPoseAnalysis } from './formatPoseAnalysis';
 import { ANALYSIS_DEFINITIONS } from './definitions';
 
-export interface PoseRequest extends PoseMode {
-  leanDeg: number;
-  handlebarDeg: number;
-  heaveMm: number;
-  travelRightMm: number;
-  travelLeftMm: number;
-  wheelAngleDeg: number;
-}
+/** A pose to solve: the front-end mode and the six inputs, as the report echoes them. */
+export type PoseRequest = PoseMode & PoseInputsReport;
 
 export interface WheelReport {
   toeDeg: number;
