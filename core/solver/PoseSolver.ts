@@ -388,13 +388,14 @@ export class PoseSolver {
 
   /**
    * Predictor along a sweep: when the target lies on the line the last poses were solved
-   * along, extrapolate their unknowns to it with the Lagrange polynomial through up to
-   * LINE_HISTORY of them (positions measured along the line). Along a smooth sweep each extra
-   * pose gains about an order of magnitude: measured on the demos' lean x steer sweep, the
-   * residual at the guess falls from about 2e-4 mm (three poses) to 1e-7..1e-9 mm (six), so the
-   * corrector usually needs no new Jacobian (see LmOptions.reuseFactorisation). Far beyond the
-   * last step (more than 1.5 steps) only the last three poses are used. A bad guess is
-   * harmless: the corrector and the jump check follow.
+   * along, extrapolate their unknowns to it (positions measured along the line): with
+   * LINE_HISTORY evenly spaced poses, one step on, the least-squares fit of FIT_DEGREE; else
+   * the interpolating polynomial through up to INTERPOLATED of them. Along a smooth sweep each
+   * extra pose gains about an order of magnitude: measured on the demos' lean x steer sweep,
+   * the residual at the guess falls from about 2e-4 mm (three poses) to about 1e-8 mm (the
+   * fit), so the corrector usually needs no new Jacobian (see
+   * LmOptions.reuseFactorisation). Far beyond the last step (more than 1.5 steps) only the last
+   * three poses are used. A bad guess is harmless: the corrector and the jump check follow.
    */
   private predict(target: Float64Array): boolean {
     const n = this.lineCount;

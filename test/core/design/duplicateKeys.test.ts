@@ -1,8 +1,9 @@
 /**
  * Duplicate keys in a design file. RFC 8259 (The JSON Data Interchange Format, section 4)
  * says names within an object SHOULD be unique and that parsers differ on what they do with
- * repeats; JavaScript's JSON.parse keeps the last one (ECMA-262, JSON.parse's internalize step
- * creates the properties in order, so a later one overwrites). The reader must refuse such a
+ * repeats; JavaScript's JSON.parse keeps the last one (ECMA-262's JSON.parse creates the
+ * properties in order, so a later one overwrites: from memory, and confirmed by the first
+ * test below). The reader must refuse such a
  * file and say where the repeat is, instead of loading whichever came last.
  */
 import { readFileSync } from 'node:fs';
