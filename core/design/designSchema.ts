@@ -154,7 +154,9 @@ const envelope = object('The operating range the design must cover', {
 });
 
 const tolerances = object('Allowed errors; missing ones take the defaults', {
-  toeErrorDeg: optional(positiveDeg('Allowed toe error')),
+  selfSteerDeg: optional(positiveDeg('Allowed self-steer: road-wheel angle change at zero handlebar with lean or travel')),
+  ratioChangePct: optional(number({ unit: '%', description: 'Allowed steering-ratio change with lean and travel, percent of upright', min: 0.1, max: 1000 })),
+  toeErrorDeg: optional(positiveDeg('Older name of selfSteerDeg, read when selfSteerDeg is absent')),
   slipDeg: optional(positiveDeg('Allowed slip angle')),
   jointMarginDeg: optional(positiveDeg('Required margin below a joint’s rated articulation')),
   clearanceMm: optional(positiveMm('Required clearance between parts')),

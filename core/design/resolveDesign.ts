@@ -69,6 +69,14 @@ function copyCrankInput(input: CrankInput): CrankInput {
 }
 
 /** Defaults for the keys a file leaves out (a key present with `undefined` counts as left out). */
+/** Tolerances with defaults filled; a file's older `toeErrorDeg` stands for `selfSteerDeg`. */
+function resolveTolerances(given: DesignFile['tolerances']): Tolerances {
+  const { toeErrorDeg, ...rest } = given ?? {};
+  const t = withDefaults<Tolerances>(DEFAULT_TOLERANCES, rest);
+  if (rest.selfSteerDeg === undefined && toeErrorDeg !== undefined) t.selfSteerDeg = toeErrorDeg;
+  return t;
+}
+
 function withDefaults<T extends object>(defaults: T, given: Partial<T> | undefined): T {
   const result = { ...defaults };
   for (const key of Object.keys(defaults) as (keyof T)[]) {
@@ -142,7 +150,7 @@ export function resolveDesign(d: DesignFile): ResolvedDesign {
     wheels: { front: { ...d.wheels.front }, rear: { ...d.wheels.rear } },
     joints,
     envelope: { ...d.envelope },
-    tolerances: withDefaults<Tolerances>(DEFAULT_TOLERANCES, d.tolerances),
+    tolerances: resolveTolerances(d.tolerances),
     ...(d.spring
       ? { spring: { on: d.spring.on, frameMount: resolveSidedVec(d.spring.frameMount), armMount: resolveSidedVec(d.spring.armMount) } }
       : {}),

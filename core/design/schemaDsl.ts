@@ -15,7 +15,7 @@
  * hand-written interfaces at compile time (see designSchema.ts).
  */
 
-export type Unit = 'mm' | 'deg' | 'ratio' | 'mm/deg' | '1';
+export type Unit = 'mm' | 'deg' | 'ratio' | 'mm/deg' | '1' | '%';
 
 // ---------------------------------------------------------------------------------------------
 // Nodes (runtime data)

@@ -154,7 +154,10 @@ export interface Joints {
 
 /** Allowed errors; every warning in the tool measures against these. */
 export interface Tolerances {
-  toeErrorDeg: number;
+  /** Self-steer: road-wheel angle change at zero handlebar as the vehicle leans or the wheels travel. */
+  selfSteerDeg: number;
+  /** Steering-ratio change with lean and travel, percent of the upright ratio at the same handlebar. */
+  ratioChangePct: number;
   slipDeg: number;
   jointMarginDeg: number;
   clearanceMm: number;
@@ -204,7 +207,8 @@ export interface DesignFile {
   wheels: Wheels;
   joints: Joints;
   envelope: Envelope;
-  tolerances?: Partial<Tolerances>;
+  /** `toeErrorDeg` is the older name of `selfSteerDeg`, read when that is absent. */
+  tolerances?: Partial<Tolerances> & { toeErrorDeg?: number };
   spring?: SpringMount;
   parts?: Partial<PartSizes>;
 }
@@ -256,11 +260,13 @@ export interface ResolvedDesign {
 /**
  * Defaults for tolerances and part sizes. Common practice, no source: a toe error of
  * 0.25 degrees and 1 degree of slip are what a careful builder would accept on a
- * human-powered trike; 3 degrees of joint margin and 10 mm of clearance leave room for
+ * human-powered trike; a steering ratio that moves by 15 % as the vehicle leans is about
+ * what a rider adapts to without noticing; 3 degrees of joint margin and 10 mm of clearance leave room for
  * build tolerances.
  */
 export const DEFAULT_TOLERANCES: Tolerances = {
-  toeErrorDeg: 0.25,
+  selfSteerDeg: 0.25,
+  ratioChangePct: 15,
   slipDeg: 1,
   jointMarginDeg: 3,
   clearanceMm: 10,
