@@ -350,6 +350,7 @@ const UNIT_PHRASE: Record<Unit, string> = {
   ratio: ' (a ratio)',
   'mm/deg': ' in mm per degree',
   '1': '',
+  '%': ' in percent',
 };
 
 const UNIT_LABEL: Record<Unit, string> = {
@@ -358,6 +359,7 @@ const UNIT_LABEL: Record<Unit, string> = {
   ratio: 'ratio',
   'mm/deg': 'mm per degree',
   '1': '',
+  '%': 'percent',
 };
 
 function boundsPhrase(node: NumberNode): string {
