@@ -9,6 +9,9 @@
 import { CompiledMechanism } from './CompiledMechanism';
 import { LevenbergMarquardt, type LmOptions, type LmOutcome } from './levenbergMarquardt';
 import { INPUT_NAMES, type MechanismGraph, type PoseInputs } from '../mechanism/MechanismGraph';
+import { DEFAULT_SOLVER_OPTIONS, solverOptionsProblem, type PoseSolverOptions } from './solverOptions';
+
+export { DEFAULT_SOLVER_OPTIONS, solverOptionsProblem, type PoseSolverOptions } from './solverOptions';
 
 export type SolveStatus = 'converged' | 'cannot-assemble' | 'singular' | 'did-not-converge' | 'invalid-input';
 
@@ -34,31 +37,6 @@ export interface SolveResult {
   /** The loop or joint that would not close, when one is to blame. */
   culprit?: string;
 }
-
-export interface PoseSolverOptions {
-  /** Converged when every residual is below this, mm. */
-  toleranceMm: number;
-  maxIterations: number;
-  /** Largest input change per continuation sub-step. */
-  maxStepDeg: number;
-  maxStepMm: number;
-  /** Sub-steps are halved at most this many times when a step fails or jumps. */
-  maxBisections: number;
-  /** A residual left above this at a stationary point means the loop cannot close. */
-  assemblyGapMm: number;
-  /** Below this scaled pivot ratio (about 1/cond(J)^2) the pose is called singular. */
-  singularPivotRatio: number;
-}
-
-export const DEFAULT_SOLVER_OPTIONS: PoseSolverOptions = {
-  toleranceMm: 1e-9,
-  maxIterations: 60,
-  maxStepDeg: 4,
-  maxStepMm: 20,
-  maxBisections: 8,
-  assemblyGapMm: 1e-6,
-  singularPivotRatio: 1e-20,
-};
 
 const DEG = Math.PI / 180;
 const N_INPUTS = INPUT_NAMES.length;
@@ -94,7 +72,10 @@ if (INPUT_NAMES.join() !== 'leanDeg,heaveMm,handlebarDeg,travelRightMm,travelLef
 
 export class PoseSolver {
   readonly mechanism: CompiledMechanism;
-  readonly options: PoseSolverOptions;
+  /** The options in force (frozen: the checks below were made on these values). */
+  readonly options: Readonly<PoseSolverOptions>;
+  /** Why the options are unusable (every solve then ends 'invalid-input'), or undefined. */
+  private readonly optionsProblem: string | undefined;
   private readonly lm: LevenbergMarquardt;
   private goodCoord: Float64Array;
   private goodSph: Float64Array;
@@ -130,7 +111,9 @@ export class PoseSolver {
   private readonly zeros = new Float64Array(N_INPUTS);
 
   constructor(graph: MechanismGraph, options: Partial<PoseSolverOptions> = {}) {
-    this.options = { ...DEFAULT_SOLVER_OPTIONS, ...options };
+    this.options = Object.freeze({ ...DEFAULT_SOLVER_OPTIONS, ...options });
+    // Checked up front and reported by every solve, not thrown: only an invalid graph throws.
+    this.optionsProblem = solverOptionsProblem(this.options);
     this.mechanism = new CompiledMechanism(graph);
     this.lm = new LevenbergMarquardt(this.mechanism);
     const nb = this.mechanism.nBodies;
@@ -171,6 +154,7 @@ export class PoseSolver {
    * pose; otherwise from the design pose with all inputs zero.
    */
   solve(inputs: PoseInputs, warm = true): SolveResult {
+    if (this.optionsProblem !== undefined) return this.fail('invalid-input', this.optionsProblem);
     const target = this.target;
     // Read by name once (in INPUT_NAMES order); everything after works on the vector.
     target[0] = inputs.leanDeg;

@@ -34,7 +34,8 @@ export type LmEnding =
   | 'stationary' // gradient vanished with the residual still above tolerance (no closure)
   | 'small-step' // the step shrank to nothing
   | 'max-iterations'
-  | 'non-finite'; // the residual could not be evaluated at the start
+  | 'non-finite' // the residual could not be evaluated at the start
+  | 'invalid-input'; // the options are unusable (LmOutcome.problem says which and why); nothing was evaluated
 
 export interface LmOptions {
   /** Converged when max |r_i| is below this. */
@@ -61,6 +62,21 @@ export interface LmOutcome {
   pivotRatio: number;
   /** Index of the residual with the largest magnitude at the end. */
   worstResidual: number;
+  /** For 'invalid-input': the option at fault, its value and what it must be; otherwise ''. */
+  problem: string;
+}
+
+/**
+ * The first problem with a set of LM options, naming the option and the value found; undefined
+ * when they are usable. Checked before a solve touches the problem, as mature least-squares
+ * solvers check theirs: a zero or negative tolerance could never be met, a non-positive damping
+ * would leave a singular normal matrix undamped, and an iteration cap below 1 solves nothing.
+ */
+export function lmOptionsProblem(opts: LmOptions): string | undefined {
+  if (!(Number.isFinite(opts.tolerance) && opts.tolerance > 0)) return `LM option tolerance is ${opts.tolerance}; it must be a finite number above 0`;
+  if (!(Number.isInteger(opts.maxIterations) && opts.maxIterations >= 1)) return `LM option maxIterations is ${opts.maxIterations}; it must be a whole number, 1 or more`;
+  if (!(Number.isFinite(opts.tau) && opts.tau > 0)) return `LM option tau is ${opts.tau}; it must be a finite number above 0`;
+  return undefined;
 }
 
 const STAGNATION_WINDOW = 10;
@@ -142,6 +158,9 @@ export class LevenbergMarquardt {
   solve(opts: LmOptions): LmOutcome {
     const { n, r, rTrial, a, aDamped, g, negG, h, scale } = this;
     const p = this.problem;
+    const problem = lmOptionsProblem(opts);
+    if (problem !== undefined) return this.refuse(problem);
+    this.outcome.problem = '';
     let evaluations = 1;
     this.normalValid = false;
     this.factorAge++;
@@ -336,7 +355,20 @@ export class LevenbergMarquardt {
   }
 
   /** One outcome record per solver, overwritten by each solve (no allocation per pose). */
-  private readonly outcome: LmOutcome = { ending: 'converged', iterations: 0, evaluations: 0, maxResidual: 0, pivotRatio: 1, worstResidual: -1 };
+  private readonly outcome: LmOutcome = { ending: 'converged', iterations: 0, evaluations: 0, maxResidual: 0, pivotRatio: 1, worstResidual: -1, problem: '' };
+
+  /** The outcome for unusable options: nothing evaluated, the state untouched. */
+  private refuse(problem: string): LmOutcome {
+    const o = this.outcome;
+    o.ending = 'invalid-input';
+    o.iterations = 0;
+    o.evaluations = 0;
+    o.maxResidual = Infinity;
+    o.pivotRatio = 0;
+    o.worstResidual = -1;
+    o.problem = problem;
+    return o;
+  }
 
   private finish(ending: LmEnding, iterations: number, evaluations: number, maxResidual: number): LmOutcome {
     const o = this.outcome;
