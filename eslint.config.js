@@ -2,6 +2,7 @@
 // and import boundaries: core/ is pure TypeScript, the renderer never touches Node or Electron.
 import { defineConfig, globalIgnores } from 'eslint/config';
 import tseslint from 'typescript-eslint';
+import reactHooks from 'eslint-plugin-react-hooks';
 
 const NODE_BUILTINS = ['fs', 'fs/promises', 'path', 'child_process', 'os', 'worker_threads'];
 
@@ -50,5 +51,11 @@ export default defineConfig(
         },
       ],
     },
+  },
+  // React's rules of hooks (and the compiler-backed checks of its recommended set) on the
+  // renderer's components and hooks.
+  {
+    files: ['renderer/**/*.{ts,tsx}'],
+    extends: [reactHooks.configs.flat.recommended],
   },
 );
