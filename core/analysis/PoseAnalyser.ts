@@ -3,10 +3,9 @@
  * bodies, points and clearance pairs it needs), then `analyse()` reads the mechanism's
  * current state after each solve. It never changes the mechanism or the solver.
  *
- * Two measures need other poses and are filled in by whoever has them (the sweep from
- * neighbouring cells, solveSinglePose from extra solves): the local steering ratio and the
- * front lift with steer. The toe error (lean steer + bump steer) needs the road-wheel angles
- * of the reference pose (zero lean, zero travel, same handlebar), passed to `analyse()`.
+ * The measures that need other poses (local steering ratio, self-steer, steering-ratio change,
+ * front lift) are filled in by relativeMeasures.ts from the poses the pose engine or a sweep
+ * has; until then they are null with a reason.
  */
 
 import type { ResolvedDesign, Side } from '../design/types';
@@ -18,10 +17,8 @@ import type {
   JointArticulation,
   PoseAnalysis,
   PoseInputsReport,
-  PoseStatus,
   SolverReport,
   SteeringMeasures,
-  ToeError,
   WheelAlignment,
 } from './analysisTypes';
 import { wheelAlignment } from './alignment';
@@ -32,7 +29,7 @@ import { GeometryReader, type PoseGeometry, type SideGeometry } from './poseGeom
 import { slipMeasures } from './scrub';
 import { designSign, overallSteeringRatio, rawTransmission, transmissionDeg } from './steeringLinkage';
 import { suspensionGeometry } from './suspensionGeometry';
-import { judgeAbs, judgeClearance, judgeJoint, judgeTransmission, statusOf, worse } from './tolerance';
+import { applyJudgement, noChecks } from './poseVerdict';
 import { turningCircle, type PlanTyre } from './turningCircle';
 import { RAD, normalize, sub } from './vec3';
 import { wheelHeading } from '../mechanism/wheelAxis';
@@ -42,8 +39,6 @@ export interface AnalyserOptions {
   findings?: boolean;
 }
 
-/** Toe at the reference pose (zero lean, zero travel, same handlebar), degrees; null with a reason when it could not be solved. */
-export type ToeReference = { leftDeg: number; rightDeg: number } | { reason: string };
 
 const JOINT_ORDER = ['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'] as const;
 const SIDE_ORDER: readonly Side[] = ['left', 'right'];
@@ -82,7 +77,7 @@ function reportsAnyInput(m: CompiledMechanism): boolean {
 
 /** A pose the solver did not reach: the inputs asked for and why, no measures. */
 export function failedPose(inputs: PoseInputsReport, r: SolveResult): FailedPose {
-  return { inputs, solver: solverReport(r), status: 'cannot-assemble' };
+  return { inputs, solver: solverReport(r), status: 'broken' };
 }
 
 /**
@@ -110,6 +105,7 @@ function planWheel(w: WheelAlignment, gs: SideGeometry): PlanWheel {
 export const NO_NEIGHBOURS = 'the local ratio needs a neighbouring pose along the handlebar';
 export const NO_DRAG_LINK = 'the design has no drag link';
 export const NO_LIFT_REFERENCE = 'front lift needs the straight-ahead pose at the same lean and travel';
+export const NO_STRAIGHT = 'self-steer needs the straight-ahead poses at this lean and travel and upright';
 
 export class PoseAnalyser {
   readonly design: ResolvedDesign;
@@ -157,7 +153,7 @@ export class PoseAnalyser {
   }
 
   /** Every measure of the pose the mechanism is in now (after a converged or singular solve). */
-  analyse(result: SolveResult, toeReference?: ToeReference): PoseAnalysis {
+  analyse(result: SolveResult): PoseAnalysis {
     const m = this.mechanism;
     const d = this.design;
     m.forward();
@@ -190,13 +186,6 @@ export class PoseAnalyser {
       { split: d.frontEnd.kind === 'splitWishbones', springOn: d.spring ? d.spring.on : null, lowerJointZ: this.lowerJointZ },
     );
 
-    let toeError: ToeError;
-    if (!toeReference) toeError = { leftDeg: null, rightDeg: null, reason: 'no reference pose (zero lean and travel, same handlebar) was solved' };
-    else if ('reason' in toeReference) toeError = { leftDeg: null, rightDeg: null, reason: toeReference.reason };
-    else toeError = { leftDeg: left.toeDeg - toeReference.leftDeg, rightDeg: right.toeDeg - toeReference.rightDeg };
-
-    // Worst values and the status against the tolerances.
-    const tol = d.tolerances;
     let jointMargin = Infinity;
     for (const j of joints) jointMargin = Math.min(jointMargin, j.marginDeg);
     let clearance = Infinity;
@@ -208,53 +197,8 @@ export class PoseAnalyser {
       steering.linkageTransmissionDeg.right,
       steering.dragLinkTransmissionDeg ?? Infinity,
     );
-    const toeWorst =
-      toeError.leftDeg === null || toeError.rightDeg === null ? null : Math.max(Math.abs(toeError.leftDeg), Math.abs(toeError.rightDeg));
 
-    // Status against the tolerances; findings (words) only when asked for.
-    let status: PoseStatus = 'within';
-    const findings: string[] = [];
-    const words = this.findings;
-    for (const side of SIDE_ORDER) {
-      const s = slip[side].slipDeg;
-      const v = judgeAbs(s, tol.slipDeg);
-      if (v !== 'pass') {
-        status = worse(status, statusOf('slip', v));
-        if (words) findings.push(`${v}: ${side} slip ${fmt(s)} deg (tolerance ${tol.slipDeg} deg)`);
-      }
-      const e = side === 'left' ? toeError.leftDeg : toeError.rightDeg;
-      if (e !== null) {
-        const ve = judgeAbs(e, tol.toeErrorDeg);
-        if (ve !== 'pass') {
-          status = worse(status, statusOf('toe', ve));
-          if (words) findings.push(`${ve}: ${side} toe error ${fmt(e, 3)} deg (tolerance ${tol.toeErrorDeg} deg)`);
-        }
-      }
-    }
-    for (const j of joints) {
-      const v = judgeJoint(j.articulationDeg, j.ratedDeg, tol);
-      if (v !== 'pass') {
-        status = worse(status, statusOf('joint', v, j.marginDeg < 0));
-        if (words) {
-          findings.push(
-            `${v}: ${j.side} ${j.joint} joint at ${fmt(j.articulationDeg, 1)} deg of ${j.ratedDeg} rated (margin ${fmt(j.marginDeg, 1)}, required ${tol.jointMarginDeg})`,
-          );
-        }
-      }
-    }
-    for (const c of clearances) {
-      const v = judgeClearance(c.distanceMm, tol);
-      if (v !== 'pass') {
-        status = worse(status, statusOf('clearance', v));
-        if (words) findings.push(`${v}: ${c.side} ${c.pair} clearance ${fmt(c.distanceMm, 1)} mm (required ${tol.clearanceMm} mm)`);
-      }
-    }
-    if (judgeTransmission(transmission) === 'fail') {
-      status = worse(status, 'over');
-      if (words) findings.push(`fail: a steering lever is at or past dead centre (transmission ${fmt(transmission, 1)} deg)`);
-    }
-
-    return {
+    const analysis: PoseAnalysis = {
       inputs,
       frameHeaveMm: g.frameOrigin[2],
       solver: solverReport(result),
@@ -274,11 +218,14 @@ export class PoseAnalyser {
         frontLiftReason: NO_LIFT_REFERENCE,
         reason: susp.reason,
       },
-      toeError,
-      worst: { slipDeg: slip.worstSlipDeg, toeErrorDeg: toeWorst, jointMarginDeg: jointMargin, clearanceMm: clearance, transmissionDeg: transmission },
-      status,
-      findings,
+      selfSteer: { leftDeg: null, rightDeg: null, reason: NO_STRAIGHT },
+      worst: { slipDeg: slip.worstSlipDeg, selfSteerDeg: null, ratioChangePct: null, jointMarginDeg: jointMargin, clearanceMm: clearance, transmissionDeg: transmission },
+      status: 'within',
+      checks: noChecks(),
+      findings: [],
     };
+    // Judged on what one pose gives; relativeMeasures.ts judges again once the neighbours are known.
+    return applyJudgement(analysis, d.tolerances, this.findings);
   }
 
 
@@ -300,6 +247,8 @@ export class PoseAnalyser {
       linkageTransmissionDeg: { left: this.linkTransmission(g, 'left'), right: this.linkTransmission(g, 'right') },
       dragLinkTransmissionDeg: dl ? transmissionDeg(rawTransmission(dl.crankArm, dl.columnArm, axisPoint, g.steerAxis, 'revolute'), this.dragSign) : null,
       localRatioReason: NO_NEIGHBOURS,
+      ratioChangePct: null,
+      ratioChangeReason: NO_NEIGHBOURS,
     };
     if (!dl) out.dragLinkTransmissionReason = NO_DRAG_LINK;
     if (ratio === null) out.reason = 'straight ahead: no overall ratio';

@@ -8,6 +8,7 @@
 import type { JointKind, Joints, Side } from '../design/types';
 import type { SolveStatus } from '../solver/PoseSolver';
 import type { XyzMm } from './vec3';
+import type { CheckKind, Verdict } from './tolerance';
 
 export interface XyMm {
   x: number;
@@ -77,6 +78,13 @@ export interface SteeringMeasures {
   /** Local ratio: d(handlebar) / d(mean road-wheel angle), from neighbouring poses. */
   localRatio: number | null;
   localRatioReason?: string;
+  /**
+   * Steering-ratio change with lean and travel: 100 (local ratio upright / local ratio here - 1),
+   * the upright pose having zero lean and travel and the same handlebar. Positive: the road
+   * wheels turn more per handlebar degree than upright (quicker steering).
+   */
+  ratioChangePct: number | null;
+  ratioChangeReason?: string;
   /**
    * Transmission angles, degrees: asin of the cosine between a link's line and the
    * velocity of the joint it drives; 90 is ideal, 0 is dead centre. Signed: positive on the
@@ -201,21 +209,23 @@ export interface SuspensionGeometry {
   reason?: string;
 }
 
-/** Lean steer and bump steer: road-wheel angle now minus at zero lean and zero travel, same handlebar. */
-export interface ToeError {
+/**
+ * Self-steer (lean steer and bump steer): road-wheel angle at zero handlebar, at this pose's
+ * lean and travel, minus the road-wheel angle at zero handlebar, lean and travel. Positive left.
+ * It depends on lean and travel only, not on the handlebar.
+ */
+export interface SelfSteer {
   leftDeg: number | null;
   rightDeg: number | null;
   reason?: string;
 }
 
-/** Cell and pose status, from best to worst. */
-export type PoseStatus = 'within' | 'warning' | 'over' | 'clearance-violated' | 'joint-over-rating' | 'cannot-assemble';
-
-export const POSE_STATUS_ORDER: readonly PoseStatus[] = ['within', 'warning', 'over', 'clearance-violated', 'joint-over-rating', 'cannot-assemble'];
-
 export interface WorstMeasures {
   slipDeg: number;
-  toeErrorDeg: number | null;
+  /** Largest |self-steer| of the two wheels; null until the straight-ahead poses are known. */
+  selfSteerDeg: number | null;
+  /** Steering-ratio change; null until the neighbouring poses are known. */
+  ratioChangePct: number | null;
   /** Smallest rated - articulation over every joint. */
   jointMarginDeg: number;
   /** Smallest clearance over every pair. */
@@ -247,10 +257,13 @@ export interface PoseAnalysis {
   tieRodSpinDeg: { left: number; right: number };
   clearances: ClearanceResult[];
   suspension: SuspensionGeometry;
-  toeError: ToeError;
+  selfSteer: SelfSteer;
   worst: WorstMeasures;
-  status: PoseStatus;
-  /** Human words for each measure outside its tolerance or its warning band. */
+  /** The pose's verdict: the worst of its checks (tolerance.ts is the judge). */
+  status: Verdict;
+  /** Each check's verdict; null where the measure is not known (no neighbouring pose). */
+  checks: Record<CheckKind, Verdict | null>;
+  /** Human words for each measure outside its tolerance or in its warning band. */
   findings: string[];
 }
 
@@ -258,5 +271,5 @@ export interface PoseAnalysis {
 export interface FailedPose {
   inputs: PoseInputsReport;
   solver: SolverReport;
-  status: 'cannot-assemble';
+  status: 'broken';
 }

@@ -1,8 +1,10 @@
 /**
  * 1-D curves a designer reads the front end by, each a one-axis sweep (sweep.ts, so the
  * same warm continuation and the same measures):
- *   leanSteer     toe and toe error against lean, handlebar held (tyres on the ground)
- *   bumpSteer     toe and toe error against wheel travel (relative to the frame, zero lean)
+ *   leanSteer     self-steer (road-wheel angle change at zero handlebar) and toe against lean
+ *   bumpSteer     self-steer and toe against wheel travel (relative to the frame, zero lean)
+ *   ratioLean     steering-ratio change from upright against lean, at the held handlebar
+ *   slipSteer     toe mismatch: the front slip angles against handlebar (zero lean)
  *   ackermann     outer road-wheel angle against inner, with the ideal outer and the percentages
  *   camberLean    camber to ground and to frame against lean
  *   camberTravel  camber against wheel travel
@@ -16,10 +18,14 @@
 import type { ResolvedDesign } from '../design/types';
 import type { PoseAnalysis } from './analysisTypes';
 import { runSweep, type SweepAxes, type SweepCell, type SweepContact } from './sweep';
+import { jointWords } from './words';
+import { LOCAL_RATIO_STEP_DEG } from './PoseEngine';
 
 export type CurveKind =
   | 'leanSteer'
   | 'bumpSteer'
+  | 'ratioLean'
+  | 'slipSteer'
   | 'ackermann'
   | 'camberLean'
   | 'camberTravel'
@@ -28,7 +34,7 @@ export type CurveKind =
   | 'steeringRatio'
   | 'frontLift';
 
-export const CURVE_KINDS: readonly CurveKind[] = ['leanSteer', 'bumpSteer', 'ackermann', 'camberLean', 'camberTravel', 'jointsLean', 'jointsSteer', 'steeringRatio', 'frontLift'];
+export const CURVE_KINDS: readonly CurveKind[] = ['leanSteer', 'bumpSteer', 'ratioLean', 'slipSteer', 'ackermann', 'camberLean', 'camberTravel', 'jointsLean', 'jointsSteer', 'steeringRatio', 'frontLift'];
 
 export interface CurveSeries {
   id: string;
@@ -60,8 +66,10 @@ export interface CurveOptions {
 type Axis = 'lean' | 'handlebar' | 'travel';
 
 const SPEC: Record<CurveKind, { title: string; axis: Axis; contact: SweepContact }> = {
-  leanSteer: { title: 'Lean steer: toe against lean, handlebar held', axis: 'lean', contact: 'ground' },
-  bumpSteer: { title: 'Bump steer: toe against wheel travel', axis: 'travel', contact: 'travel' },
+  leanSteer: { title: 'Self-steer against lean (lean steer), handlebar at zero', axis: 'lean', contact: 'ground' },
+  bumpSteer: { title: 'Self-steer against wheel travel (bump steer)', axis: 'travel', contact: 'travel' },
+  ratioLean: { title: 'Steering-ratio change against lean', axis: 'lean', contact: 'ground' },
+  slipSteer: { title: 'Toe mismatch: front slip angles against handlebar', axis: 'handlebar', contact: 'ground' },
   ackermann: { title: 'Ackermann: outer against inner road-wheel angle', axis: 'handlebar', contact: 'ground' },
   camberLean: { title: 'Camber against lean', axis: 'lean', contact: 'ground' },
   camberTravel: { title: 'Camber against wheel travel', axis: 'travel', contact: 'travel' },
@@ -99,7 +107,7 @@ function seriesFor(kind: CurveKind, design: ResolvedDesign): { id: string; label
     (['left', 'right'] as const).flatMap((side) =>
       (['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'] as const).map((name) => ({
         id: `joint.${name}.${side}`,
-        label: `${name} articulation, ${side} (rated ${design.joints[name].ratedDeg})`,
+        label: `${jointWords(name, side)} (rated ${design.joints[name].ratedDeg} deg)`,
         unit: 'deg',
         get: (a: PoseAnalysis) => a.joints.find((j) => j.joint === name && j.side === side)?.articulationDeg ?? null,
       })),
@@ -108,11 +116,16 @@ function seriesFor(kind: CurveKind, design: ResolvedDesign): { id: string; label
     case 'leanSteer':
     case 'bumpSteer':
       return [
+        ...both('selfSteer', 'self-steer (road-wheel angle change, left +)', 'deg', (a, s) => a.selfSteer[`${s}Deg`]),
         ...both('toe', 'toe (toe-in +)', 'deg', (a, s) => a.wheels[s].toeDeg),
-        ...both('toeError', kind === 'leanSteer' ? 'lean steer (toe change)' : 'bump steer (toe change)', 'deg', (a, s) =>
-          s === 'left' ? a.toeError.leftDeg : a.toeError.rightDeg,
-        ),
       ];
+    case 'ratioLean':
+      return [
+        { id: 'ratioChange', label: 'steering-ratio change from upright', unit: '%', get: (a) => a.steering.ratioChangePct },
+        { id: 'localRatio', label: 'local ratio (d handlebar / d mean road wheel)', unit: '', get: (a) => a.steering.localRatio },
+      ];
+    case 'slipSteer':
+      return [...both('slip', 'slip angle (ISO 8855)', 'deg', (a, s) => a.slip[s].slipDeg)];
     case 'ackermann':
       return [
         { id: 'outer', label: 'outer road-wheel angle', unit: 'deg', get: (a) => a.ackermann.outerDeg },
@@ -148,13 +161,18 @@ export function curve(design: ResolvedDesign, kind: CurveKind, options: CurveOpt
   const spec = SPEC[kind];
   const values = options.values ?? defaultValues(design, spec.axis, kind);
   const held = { lean: options.leanDeg ?? 0, handlebar: options.handlebarDeg ?? 0, travel: options.travelMm ?? 0 };
+  // The ratio change needs the local ratio, so its sweep carries the handlebar a step either
+  // side of the held value and keeps the middle column.
+  const withRatio = kind === 'ratioLean';
   const axes: SweepAxes = {
     leanDeg: spec.axis === 'lean' ? values : [held.lean],
-    handlebarDeg: spec.axis === 'handlebar' ? values : [held.handlebar],
+    handlebarDeg:
+      spec.axis === 'handlebar' ? values : withRatio ? [held.handlebar - LOCAL_RATIO_STEP_DEG, held.handlebar, held.handlebar + LOCAL_RATIO_STEP_DEG] : [held.handlebar],
     travelMm: spec.axis === 'travel' ? values : [held.travel],
   };
   const cells: SweepCell[] = new Array(values.length);
   runSweep(design, axes, { contact: spec.contact }, (c) => {
+    if (withRatio && c.handlebarIndex !== 1) return;
     cells[spec.axis === 'lean' ? c.leanIndex : spec.axis === 'handlebar' ? c.handlebarIndex : c.travelIndex] = c;
   });
   const defs = seriesFor(kind, design);

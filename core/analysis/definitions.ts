@@ -20,7 +20,12 @@ export const ANALYSIS_DEFINITIONS = {
   casterOffset: 'at wheel-centre height along the heading: steering axis ahead of the wheel centre positive',
   kingpinOffsetAtCentre: 'at wheel-centre height across the wheel: steering axis inboard of the wheel centre positive',
   travel: 'wheel-centre travel relative to the frame, bump (wheel up) positive; a sweep on the ground sets it by heave = -travel',
-  toeError: 'lean steer + bump steer: toe now minus toe at zero lean and zero travel with the same handlebar angle (toe-in positive)',
+  selfSteer:
+    'lean steer and bump steer: road-wheel angle at zero handlebar at this lean and travel minus that at zero handlebar, lean and travel (positive left); depends on lean and travel only',
+  ratioChange:
+    'steering-ratio change: 100 (local ratio upright / local ratio here - 1), upright = zero lean and travel at the same handlebar; positive = quicker steering than upright',
+  toeMismatch: 'how far the two wheels are from a common turn centre: the front slip angles (judged) and the Ackermann error',
+  verdict: 'within: inside the tolerance; close: has used 80 % or more of it; over: outside it; broken: the linkage cannot be assembled',
   slip: 'ISO 8855: from the wheel heading to its contact-centre velocity, anticlockwise from above positive; turn centre on the rear axle line where the front slip angles are equal and opposite',
   scrub: 'sideways scrub 1000 tan(slip) m per km travelled',
   ackermann:
@@ -34,5 +39,5 @@ export const ANALYSIS_DEFINITIONS = {
   joints: 'articulation: angle between housing axis and stud or bolt axis (both along studAxis at design); margin = rated - articulation',
   tieRodSpin: TIE_ROD_SPIN_TREATMENT,
   clearance: 'surface-to-surface distance of capsules (wishbone arms, frame rails, tie rods, steering arms, crank arms or rack) and the tyre torus; negative = intersecting',
-  warning: `a measure is a warning once it has used ${WARNING_FRACTION * 100} % of what its tolerance allows`,
+  close: `a measure is close once it has used ${WARNING_FRACTION * 100} % of what its tolerance allows`,
 } as const;

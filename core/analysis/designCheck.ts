@@ -8,7 +8,8 @@ import type { ResolvedDesign, Side } from '../design/types';
 import type { PoseAnalysis } from './analysisTypes';
 import { clearancePairs } from './clearance';
 import { envelopeAxes, runSweep, type SweepAxes, type SweepCell, type SweepContact, type SweepSummary } from './sweep';
-import { judgeAbs, judgeClearance, judgeJoint, judgeTransmission, type Verdict } from './tolerance';
+import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from './tolerance';
+import { JOINT_WORDS, PART_WORDS } from './words';
 import { TIE_ROD_SPIN_TREATMENT } from './jointArticulation';
 import { steerLimits, type LeanLimits } from './limits';
 
@@ -22,7 +23,7 @@ export interface CheckItem {
   id: string;
   group: 'tolerance' | 'joint' | 'clearance' | 'linkage';
   label: string;
-  unit: 'deg' | 'mm' | 'poses';
+  unit: 'deg' | 'mm' | '%' | 'poses';
   /** The worst value met (signed where the measure has a sign); null if never measured. */
   worst: number | null;
   where: CheckWhere | null;
@@ -38,7 +39,7 @@ export interface DesignCheck {
   contact: SweepContact;
   axes: SweepAxes;
   items: CheckItem[];
-  /** True when no item fails (warnings allowed). */
+  /** True when no item is over its limit or broken (close is allowed). */
   passed: boolean;
   /** Plain facts worth printing beside the table (turning circle at full lock, treatments). */
   info: string[];
@@ -57,13 +58,6 @@ interface Acc {
   score: number;
 }
 
-const JOINT_LABEL: Record<string, string> = {
-  upperOuter: 'upper outer joint',
-  lowerOuter: 'lower outer joint',
-  tieRodOuter: 'tie rod outer end',
-  tieRodInner: 'tie rod inner end',
-};
-
 export class CheckAccumulator {
   private readonly design: ResolvedDesign;
   private readonly accs = new Map<string, Acc>();
@@ -75,17 +69,18 @@ export class CheckAccumulator {
     this.design = design;
     const tol = design.tolerances;
     const add = (id: string, group: CheckItem['group'], label: string, unit: CheckItem['unit'], limit: string) =>
-      this.accs.set(id, { item: { id, group, label, unit, worst: null, where: null, limit, verdict: 'pass' }, score: -Infinity });
-    for (const side of ['left', 'right'] as Side[]) add(`toeError.${side}`, 'tolerance', `toe error (lean + bump steer), ${side}`, 'deg', `|x| <= ${tol.toeErrorDeg} deg`);
-    for (const side of ['left', 'right'] as Side[]) add(`slip.${side}`, 'tolerance', `slip angle, ${side}`, 'deg', `|x| <= ${tol.slipDeg} deg`);
+      this.accs.set(id, { item: { id, group, label, unit, worst: null, where: null, limit, verdict: 'within' }, score: -Infinity });
+    for (const side of ['left', 'right'] as Side[]) add(`selfSteer.${side}`, 'tolerance', `self-steer (lean and bump steer), ${side}`, 'deg', `|x| <= ${tol.selfSteerDeg} deg`);
+    add('ratioChange', 'tolerance', 'steering-ratio change from upright', '%', `|x| <= ${tol.ratioChangePct} %`);
+    for (const side of ['left', 'right'] as Side[]) add(`slip.${side}`, 'tolerance', `slip angle (toe mismatch), ${side}`, 'deg', `|x| <= ${tol.slipDeg} deg`);
     for (const side of ['left', 'right'] as Side[]) {
       for (const name of ['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'] as const) {
         const j = design.joints[name];
         const kind = j.kind === 'rodEnd' ? 'rod end' : 'ball joint';
-        add(`joint.${name}.${side}`, 'joint', `${JOINT_LABEL[name]}, ${side} (${kind})`, 'deg', `<= ${j.ratedDeg - tol.jointMarginDeg} deg (rated ${j.ratedDeg}, margin ${tol.jointMarginDeg})`);
+        add(`joint.${name}.${side}`, 'joint', `${JOINT_WORDS[name]}, ${side} (${kind})`, 'deg', `<= ${j.ratedDeg - tol.jointMarginDeg} deg (rated ${j.ratedDeg}, margin ${tol.jointMarginDeg})`);
       }
     }
-    for (const p of clearancePairs(design)) add(`clearance.${p.id}.${p.side}`, 'clearance', `clearance ${p.a} to ${p.b}, ${p.side}`, 'mm', `>= ${tol.clearanceMm} mm`);
+    for (const p of clearancePairs(design)) add(`clearance.${p.id}.${p.side}`, 'clearance', `clearance ${PART_WORDS[p.a]} to ${PART_WORDS[p.b]}, ${p.side}`, 'mm', `>= ${tol.clearanceMm} mm`);
     add('deadCentre', 'linkage', 'dead-centre margin (smallest transmission angle)', 'deg', '> 0 deg');
     add('assembly', 'linkage', 'poses that cannot be assembled', 'poses', '0');
   }
@@ -107,11 +102,13 @@ export class CheckAccumulator {
     }
     const a: PoseAnalysis = cell.analysis;
     for (const side of ['left', 'right'] as Side[]) {
-      const e = side === 'left' ? a.toeError.leftDeg : a.toeError.rightDeg;
-      if (e !== null) this.update(`toeError.${side}`, e, Math.abs(e), where);
+      const e = a.selfSteer[`${side}Deg`];
+      if (e !== null) this.update(`selfSteer.${side}`, e, Math.abs(e), where);
       const s = a.slip[side].slipDeg;
       this.update(`slip.${side}`, s, Math.abs(s), where);
     }
+    const rc = a.steering.ratioChangePct;
+    if (rc !== null) this.update('ratioChange', rc, Math.abs(rc), where);
     for (const j of a.joints) this.update(`joint.${j.joint}.${j.side}`, j.articulationDeg, j.articulationDeg, where);
     for (const c of a.clearances) this.update(`clearance.${c.pair}.${c.side}`, c.distanceMm, -c.distanceMm, where);
     this.update('deadCentre', a.worst.transmissionDeg, -a.worst.transmissionDeg, where);
@@ -132,13 +129,13 @@ export class CheckAccumulator {
       if (id === 'assembly') {
         it.worst = this.failedCount;
         it.where = this.firstFailure?.where ?? null;
-        it.verdict = this.failedCount > 0 ? 'fail' : 'pass';
+        it.verdict = this.failedCount > 0 ? 'broken' : 'within';
         if (this.firstFailure) it.detail = `first: ${this.firstFailure.message}`;
       } else if (w === null) {
-        it.verdict = 'pass';
+        it.verdict = 'within';
         it.detail = 'not measured (no pose solved, or no reference pose)';
       } else if (it.group === 'tolerance') {
-        it.verdict = judgeAbs(w, id.startsWith('slip') ? tol.slipDeg : tol.toeErrorDeg);
+        it.verdict = id.startsWith('slip') ? judgeSlip(w, tol) : id === 'ratioChange' ? judgeRatioChange(w, tol) : judgeSelfSteer(w, tol);
       } else if (it.group === 'joint') {
         const name = id.split('.')[1] as keyof ResolvedDesign['joints'];
         const rated = this.design.joints[name].ratedDeg;
@@ -163,7 +160,7 @@ export class CheckAccumulator {
       }
     }
     info.push(TIE_ROD_SPIN_TREATMENT);
-    return { items, passed: items.every((i) => i.verdict !== 'fail'), info };
+    return { items, passed: items.every((i) => i.verdict !== 'over' && i.verdict !== 'broken'), info };
   }
 }
 

@@ -1,20 +1,24 @@
 /**
  * The envelope map: lean x handlebar (x travel) with, per cell, the worst slip angle, the
- * worst joint margin, the worst clearance, the worst toe error and a status (within
- * tolerance, warning, over, clearance violated, joint over rating, cannot assemble). Cells
- * that cannot be assembled carry their solver status and message and no numbers.
+ * worst joint margin, the worst clearance, the worst self-steer, the steering-ratio change,
+ * each check's verdict and the cell's verdict (core's judge, tolerance.ts: the same words as
+ * the pose readouts). Cells that cannot be assembled are 'broken' and carry their solver
+ * status and message and no numbers.
  */
 
 import type { ResolvedDesign } from '../design/types';
 import type { SolveStatus } from '../solver/PoseSolver';
-import type { PoseStatus } from './analysisTypes';
+import { noChecks } from './poseVerdict';
+import type { CheckKind, Verdict } from './tolerance';
 import { runSweep, type SweepAxes, type SweepCell, type SweepContact, type SweepSummary } from './sweep';
 
 export interface EnvelopeCell {
   leanDeg: number;
   handlebarDeg: number;
   travelMm: number;
-  status: PoseStatus;
+  status: Verdict;
+  /** Each check's verdict (null: not measured here). */
+  checks: Record<CheckKind, Verdict | null>;
   solverStatus: SolveStatus;
   /** Largest |slip| of the front wheels, degrees. */
   worstSlipDeg: number | null;
@@ -22,8 +26,10 @@ export interface EnvelopeCell {
   worstJointMarginDeg: number | null;
   /** Smallest clearance over every pair, mm. */
   worstClearanceMm: number | null;
-  /** Largest |toe error| (lean steer + bump steer), degrees. */
-  worstToeErrorDeg: number | null;
+  /** Largest |self-steer| of the two wheels, degrees. */
+  worstSelfSteerDeg: number | null;
+  /** Steering-ratio change from upright, percent. */
+  ratioChangePct: number | null;
   /** Why the numbers are null (the solver's message), for a cell that cannot be assembled. */
   reason?: string;
 }
@@ -43,12 +49,14 @@ export function envelopeCell(c: SweepCell): EnvelopeCell {
       leanDeg: c.leanDeg,
       handlebarDeg: c.handlebarDeg,
       travelMm: c.travelMm,
-      status: 'cannot-assemble',
+      status: 'broken',
+      checks: noChecks(),
       solverStatus: c.failure.solver.status,
       worstSlipDeg: null,
       worstJointMarginDeg: null,
       worstClearanceMm: null,
-      worstToeErrorDeg: null,
+      worstSelfSteerDeg: null,
+      ratioChangePct: null,
       reason: c.failure.solver.message,
     };
   }
@@ -58,11 +66,13 @@ export function envelopeCell(c: SweepCell): EnvelopeCell {
     handlebarDeg: c.handlebarDeg,
     travelMm: c.travelMm,
     status: c.analysis.status,
+    checks: c.analysis.checks,
     solverStatus: c.analysis.solver.status,
     worstSlipDeg: w.slipDeg,
     worstJointMarginDeg: Number.isFinite(w.jointMarginDeg) ? w.jointMarginDeg : null,
     worstClearanceMm: Number.isFinite(w.clearanceMm) ? w.clearanceMm : null,
-    worstToeErrorDeg: w.toeErrorDeg,
+    worstSelfSteerDeg: w.selfSteerDeg,
+    ratioChangePct: w.ratioChangePct,
   };
 }
 

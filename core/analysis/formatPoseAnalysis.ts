@@ -7,6 +7,7 @@
 import type { ResolvedDesign } from '../design/types';
 import type { PoseAnalysis } from './analysisTypes';
 import { ANALYSIS_DEFINITIONS } from './definitions';
+import { JOINT_WORDS, clearancePairWords } from './words';
 
 const num = (x: number | null, d = 2, w = 10): string => (x === null ? '-' : x.toFixed(d)).padStart(w);
 
@@ -18,7 +19,7 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
   lines.push('alignment                                 left     right');
   row('road-wheel angle (deg, left +)', L.steerDeg, R.steerDeg, 3);
   row('toe (deg, toe-in +)', L.toeDeg, R.toeDeg, 3);
-  row('toe error: lean + bump steer (deg)', a.toeError.leftDeg, a.toeError.rightDeg, 3);
+  row('self-steer (deg, left +)', a.selfSteer.leftDeg, a.selfSteer.rightDeg, 3);
   row('camber to ground (deg, top out +)', L.camberDeg, R.camberDeg, 3);
   row('camber to frame (deg)', L.camberToFrameDeg, R.camberToFrameDeg, 3);
   row('caster (deg, top rearward +)', L.casterDeg, R.casterDeg);
@@ -36,12 +37,14 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
   row('slip angle (deg, ISO 8855)', a.slip.left.slipDeg, a.slip.right.slipDeg, 3);
   row('sideways scrub (m/km)', a.slip.left.scrubMPerKm, a.slip.right.scrubMPerKm, 1);
   for (const w of [L, R]) if (w.reason) lines.push(`  (${w.side}: ${w.reason})`);
+  if (a.selfSteer.reason) lines.push(`  (self-steer: ${a.selfSteer.reason})`);
 
   const s = a.steering;
   lines.push(
     '',
     `steering: handlebar ${s.handlebarDeg.toFixed(2)} deg, mean road wheel ${s.meanWheelDeg.toFixed(3)} deg, ` +
       `ratio overall ${s.overallRatio === null ? '-' : s.overallRatio.toFixed(3)}, local ${s.localRatio === null ? '-' : s.localRatio.toFixed(3)}`,
+    `  steering-ratio change from upright ${s.ratioChangePct === null ? `- (${s.ratioChangeReason})` : `${s.ratioChangePct.toFixed(2)} %`}`,
     `  transmission (deg; 90 ideal, 0 dead centre): steering arm L/R ${s.steeringArmTransmissionDeg.left.toFixed(1)} / ${s.steeringArmTransmissionDeg.right.toFixed(1)}, ` +
       `${design.steering.kind === 'rack' ? 'rack' : 'crank'} L/R ${s.linkageTransmissionDeg.left.toFixed(1)} / ${s.linkageTransmissionDeg.right.toFixed(1)}` +
       (s.dragLinkTransmissionDeg === null ? '' : `, drag link ${s.dragLinkTransmissionDeg.toFixed(1)}`),
@@ -80,7 +83,7 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
   lines.push('', 'joint                 side   kind        articulation  rated  margin (deg)');
   for (const j of a.joints) {
     lines.push(
-      `  ${j.joint.padEnd(19)} ${j.side.padEnd(6)} ${(j.kind === 'rodEnd' ? 'rod end' : 'ball joint').padEnd(10)} ${num(j.articulationDeg, 2, 12)} ${num(j.ratedDeg, 0, 6)} ${num(j.marginDeg, 2, 7)}`,
+      `  ${JOINT_WORDS[j.joint].padEnd(19)} ${j.side.padEnd(6)} ${(j.kind === 'rodEnd' ? 'rod end' : 'ball joint').padEnd(10)} ${num(j.articulationDeg, 2, 12)} ${num(j.ratedDeg, 0, 6)} ${num(j.marginDeg, 2, 7)}`,
     );
   }
   lines.push(`  tie-rod spin L/R ${a.tieRodSpinDeg.left.toFixed(1)} / ${a.tieRodSpinDeg.right.toFixed(1)} deg (${ANALYSIS_DEFINITIONS.tieRodSpin})`);
@@ -89,9 +92,9 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
   for (const p of pairs) {
     const l = a.clearances.find((c) => c.pair === p && c.side === 'left');
     const r = a.clearances.find((c) => c.pair === p && c.side === 'right');
-    row(p, l?.distanceMm ?? null, r?.distanceMm ?? null, 1);
+    row(clearancePairWords(p), l?.distanceMm ?? null, r?.distanceMm ?? null, 1);
   }
-  lines.push('', `status: ${a.status}`);
+  lines.push('', `verdict: ${a.status}`);
   for (const f of a.findings) lines.push(`  ${f}`);
   return lines.join('\n') + '\n';
 }

@@ -11,12 +11,12 @@
  */
 
 import type { ResolvedDesign } from '../design/types';
-import { buildMechanism } from '../mechanism/templates/buildMechanism';
 import { zeroInputs, type PoseInputs } from '../mechanism/MechanismGraph';
-import { PoseSolver, type SolveResult } from '../solver/PoseSolver';
-import { PoseAnalyser } from './PoseAnalyser';
+import type { SolveResult } from '../solver/PoseSolver';
 import type { PoseAnalysis } from './analysisTypes';
+import { PoseEngine } from './PoseEngine';
 import type { SweepContact } from './sweep';
+import { clearancePairWords, jointWords } from './words';
 
 export type LimitKind = 'cannot-assemble' | 'dead-centre' | 'joint-rating' | 'clearance';
 
@@ -48,6 +48,8 @@ export interface LimitOptions {
   contact?: SweepContact;
   /** Travel as in a sweep: heave = -travel on the ground, wheel travel with contact 'travel'. */
   travelMm?: number;
+  /** Run on this engine's main solver (handlebar mode, the same contact). */
+  engine?: PoseEngine;
 }
 
 interface Hit {
@@ -84,12 +86,12 @@ function limitHit(r: SolveResult, a: PoseAnalysis | null, design: ResolvedDesign
   const overJoints = a.joints.filter((j) => j.articulationDeg > j.ratedDeg).sort((x, y) => x.marginDeg - y.marginDeg);
   if (overJoints.length) {
     kinds.push('joint-rating');
-    details.push(listFirst(overJoints.map((j) => `${j.side} ${j.joint} ${j.articulationDeg.toFixed(1)} deg > ${j.ratedDeg} rated`)));
+    details.push(listFirst(overJoints.map((j) => `${jointWords(j.joint, j.side)} ${j.articulationDeg.toFixed(1)} deg > ${j.ratedDeg} rated`)));
   }
   const tight = a.clearances.filter((c) => c.distanceMm < design.tolerances.clearanceMm).sort((x, y) => x.distanceMm - y.distanceMm);
   if (tight.length) {
     kinds.push('clearance');
-    details.push(listFirst(tight.map((c) => `${c.side} ${c.pair} ${c.distanceMm.toFixed(1)} mm < ${design.tolerances.clearanceMm}`)));
+    details.push(listFirst(tight.map((c) => `${clearancePairWords(c.pair)}, ${c.side}, ${c.distanceMm.toFixed(1)} mm < ${design.tolerances.clearanceMm}`)));
   }
   return kinds.length ? { kinds, detail: details.join('; ') } : null;
 }
@@ -101,19 +103,16 @@ export function steerLimits(design: ResolvedDesign, leans: number[], options: Li
   const contact = options.contact ?? 'ground';
   const travel = options.travelMm ?? 0;
   if (!(step > 0) || !(max > 0) || !(tolDeg > 0)) throw new Error('steerLimits: step, maximum and tolerance must be positive');
-  const solver = new PoseSolver(buildMechanism(design, { contact, steerBy: 'handlebar' }));
-  const analyser = new PoseAnalyser(design, solver.mechanism, { findings: false });
+  const grid = (options.engine ?? new PoseEngine(design, { contact, steerBy: 'handlebar' }, { findings: false })).main;
   const input: PoseInputs = zeroInputs();
   if (contact === 'ground') input.heaveMm = -travel;
   else input.travelLeftMm = input.travelRightMm = travel;
-  let first = true;
 
   const at = (lean: number, bar: number): { r: SolveResult; a: PoseAnalysis | null } => {
     input.leanDeg = lean;
     input.handlebarDeg = bar;
-    const r = solver.solve(input, !first);
-    first = false;
-    const a = r.reached ? analyser.analyse(r) : null;
+    const r = grid.solve(input);
+    const a = r.reached ? grid.analyser.analyse(r) : null;
     return { r, a };
   };
 

@@ -43,7 +43,8 @@ export function nullReasons(a: A): string {
   add('right suspension', a.suspension.right.reason);
   add('roll centre', a.suspension.reason);
   add('front lift', a.suspension.frontLiftReason);
-  add('toe error', a.toeError.reason);
+  add('self-steer', a.selfSteer.reason);
+  add('ratio change', a.steering.ratioChangeReason);
   return out.join('; ');
 }
 
@@ -52,7 +53,7 @@ export function poseColumns(design: ResolvedDesign): Column[] {
     { name: 'leanDeg', unit: 'deg', get: (c) => c.leanDeg },
     { name: 'handlebarDeg', unit: 'deg', get: (c) => c.handlebarDeg },
     { name: 'travelMm', unit: 'mm', get: (c) => c.travelMm },
-    { name: 'status', unit: '', get: (c) => (c.ok ? c.analysis.status : 'cannot-assemble') },
+    { name: 'status', unit: '', get: (c) => (c.ok ? c.analysis.status : 'broken') },
     { name: 'solverStatus', unit: '', get: (c) => (c.ok ? c.analysis.solver.status : c.failure.solver.status) },
     { name: 'residualMm', unit: 'mm', get: (c) => (c.ok ? c.analysis.solver.residualMm : c.failure.solver.residualMm) },
     measure('frameHeaveMm', 'mm', (a) => a.frameHeaveMm),
@@ -62,7 +63,7 @@ export function poseColumns(design: ResolvedDesign): Column[] {
     cols.push(
       measure(`${s}.steerDeg`, 'deg', (a) => w(a).steerDeg),
       measure(`${s}.toeDeg`, 'deg', (a) => w(a).toeDeg),
-      measure(`${s}.toeErrorDeg`, 'deg', (a) => (s === 'left' ? a.toeError.leftDeg : a.toeError.rightDeg)),
+      measure(`${s}.selfSteerDeg`, 'deg', (a) => a.selfSteer[`${s}Deg`]),
       measure(`${s}.camberDeg`, 'deg', (a) => w(a).camberDeg),
       measure(`${s}.camberToFrameDeg`, 'deg', (a) => w(a).camberToFrameDeg),
       measure(`${s}.casterDeg`, 'deg', (a) => w(a).casterDeg),
@@ -96,6 +97,7 @@ export function poseColumns(design: ResolvedDesign): Column[] {
     measure('steering.meanWheelDeg', 'deg', (a) => a.steering.meanWheelDeg),
     measure('steering.overallRatio', '', (a) => a.steering.overallRatio),
     measure('steering.localRatio', '', (a) => a.steering.localRatio),
+    measure('steering.ratioChangePct', '%', (a) => a.steering.ratioChangePct),
     measure('steering.dragLinkTransmissionDeg', 'deg', (a) => a.steering.dragLinkTransmissionDeg),
     measure('ackermann.turn', '', (a) => a.ackermann.turn),
     measure('ackermann.innerDeg', 'deg', (a) => a.ackermann.innerDeg),
@@ -125,7 +127,7 @@ export function poseColumns(design: ResolvedDesign): Column[] {
   clearancePairs(design).forEach((p, i) => cols.push(measure(`clearance.${p.id}.${p.side}.mm`, 'mm', (a) => a.clearances[i].distanceMm)));
   cols.push(
     measure('worst.slipDeg', 'deg', (a) => a.worst.slipDeg),
-    measure('worst.toeErrorDeg', 'deg', (a) => a.worst.toeErrorDeg),
+    measure('worst.selfSteerDeg', 'deg', (a) => a.worst.selfSteerDeg),
     measure('worst.jointMarginDeg', 'deg', (a) => a.worst.jointMarginDeg),
     measure('worst.clearanceMm', 'mm', (a) => a.worst.clearanceMm),
     measure('worst.transmissionDeg', 'deg', (a) => a.worst.transmissionDeg),

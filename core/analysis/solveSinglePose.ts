@@ -1,24 +1,21 @@
 /**
- * One pose, start to finish: build the mechanism for the requested mode, solve from the
- * design pose with continuation (so the design's assembly branch is kept), and report the
- * result as plain data and as text, with every analysis measure (PoseAnalyser).
- *
- * The measures that need other poses come from a few extra solves with a second solver
- * (steer by handlebar, same contact), each from the design pose: the reference pose for the
- * toe error (zero lean and travel, same handlebar), the handlebar +-0.25 deg either side for
- * the local steering ratio, and straight ahead at the same lean and travel for the front lift.
+ * One pose for the `pose` command: the pose engine solves it from the design pose with
+ * continuation (so the design's assembly branch is kept), measures and judges it, with the
+ * relative measures from the poses beside it; this module reports the result as plain data
+ * and as text.
  */
 
 import type { ResolvedDesign } from '../design/types';
-import { buildMechanism, type PoseMode } from '../mechanism/templates/buildMechanism';
+import type { PoseMode } from '../mechanism/templates/buildMechanism';
 import { zeroInputs, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
-import { PoseSolver, type SolveResult } from '../solver/PoseSolver';
-import { takeSnapshot, type PoseSnapshot } from './poseSnapshot';
+import type { SolveResult } from '../solver/PoseSolver';
+import type { PoseSnapshot } from './poseSnapshot';
 import type { PoseAnalysis, PoseInputsReport } from './analysisTypes';
-import { PoseAnalyser, frontLift, type ToeReference } from './PoseAnalyser';
-import { localSteeringRatio } from './steeringLinkage';
+import { PoseEngine } from './PoseEngine';
 import { formatPoseAnalysis } from './formatPoseAnalysis';
 import { ANALYSIS_DEFINITIONS } from './definitions';
+
+export { LOCAL_RATIO_STEP_DEG } from './PoseEngine';
 
 /** A pose to solve: the front-end mode and the six inputs, as the report echoes them. */
 export type PoseRequest = PoseMode & PoseInputsReport;
@@ -48,9 +45,6 @@ export interface PoseReport {
   definitions?: typeof ANALYSIS_DEFINITIONS;
 }
 
-/** Half the handlebar step used for the local steering ratio, degrees. */
-export const LOCAL_RATIO_STEP_DEG = 0.25;
-
 export function requestInputs(r: PoseRequest): PoseInputs {
   return {
     ...zeroInputs(),
@@ -70,9 +64,10 @@ export function solveSinglePose(
   request: PoseRequest,
 ): { result: SolveResult; snapshot?: PoseSnapshot; report: PoseReport; text: string } {
   const mode: PoseMode = { contact: request.contact, steerBy: request.steerBy };
-  const solver = new PoseSolver(buildMechanism(design, mode));
+  const engine = new PoseEngine(design, mode);
   const inputs = requestInputs(request);
-  const result = solver.solve(inputs, false);
+  const pose = engine.solve(inputs);
+  const result = pose.result;
   const report: PoseReport = {
     status: result.status,
     residualMm: result.residualMm,
@@ -85,7 +80,7 @@ export function solveSinglePose(
   if (!result.reached) {
     return { result, report, text: `${design.name}\n${statusLine(result)}\n` };
   }
-  const snapshot = takeSnapshot(solver.mechanism);
+  const snapshot = pose.snapshot;
   report.inputs = snapshot.inputs;
   const wheel = (w: PoseSnapshot['wheels']['left']): WheelReport => ({
     toeDeg: w.toeDeg,
@@ -97,43 +92,9 @@ export function solveSinglePose(
   });
   report.wheels = { left: wheel(snapshot.wheels.left), right: wheel(snapshot.wheels.right) };
   report.points = Object.fromEntries(Object.entries(snapshot.points).map(([k, p]) => [k, xyz(p)]));
-  report.analysis = analyseSinglePose(design, mode, solver, result);
+  report.analysis = pose.analysis as PoseAnalysis;
   report.definitions = ANALYSIS_DEFINITIONS;
   return { result, snapshot, report, text: poseText(design, report, result) };
-}
-
-/** The analysis of the pose `solver` has just solved, with the extra solves its neighbour measures need. */
-function analyseSinglePose(design: ResolvedDesign, mode: PoseMode, solver: PoseSolver, result: SolveResult): PoseAnalysis {
-  const here = { ...solver.mechanism.currentInputs, ...solver.mechanism.reportedInputs() };
-  const aux = new PoseSolver(buildMechanism(design, { contact: mode.contact, steerBy: 'handlebar' }));
-  const auxAnalyser = new PoseAnalyser(design, aux.mechanism, { findings: false });
-  const at = (patch: Partial<PoseInputs>): PoseAnalysis | null => {
-    const r = aux.solve({ ...here, wheelAngleDeg: 0, ...patch }, false);
-    return r.reached ? auxAnalyser.analyse(r) : null;
-  };
-  const ref = at({ leanDeg: 0, heaveMm: 0, travelLeftMm: 0, travelRightMm: 0 });
-  const toeRef: ToeReference = ref
-    ? { leftDeg: ref.wheels.left.toeDeg, rightDeg: ref.wheels.right.toeDeg }
-    : { reason: 'the reference pose (zero lean and travel, same handlebar) could not be solved' };
-  const analysis = new PoseAnalyser(design, solver.mechanism).analyse(result, toeRef);
-  const lo = at({ handlebarDeg: here.handlebarDeg - LOCAL_RATIO_STEP_DEG });
-  const hi = at({ handlebarDeg: here.handlebarDeg + LOCAL_RATIO_STEP_DEG });
-  const st = analysis.steering;
-  if (lo && hi) {
-    st.localRatio = localSteeringRatio(lo.steering.handlebarDeg, lo.steering.meanWheelDeg, hi.steering.handlebarDeg, hi.steering.meanWheelDeg);
-    st.localRatioReason = st.localRatio === null ? 'the road wheels did not turn between the neighbouring poses' : undefined;
-  } else {
-    st.localRatioReason = `a pose ${LOCAL_RATIO_STEP_DEG} deg of handlebar either side could not be solved`;
-  }
-  const straight = here.handlebarDeg === 0 && mode.steerBy === 'handlebar' ? analysis : at({ handlebarDeg: 0 });
-  const su = analysis.suspension;
-  if (straight) {
-    su.frontLiftMm = frontLift(analysis, straight);
-    su.frontLiftReason = undefined;
-  } else {
-    su.frontLiftReason = 'the straight-ahead pose at this lean and travel could not be solved';
-  }
-  return analysis;
 }
 
 function statusLine(r: SolveResult): string {

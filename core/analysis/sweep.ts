@@ -13,20 +13,20 @@
  * linkage, so it takes no travel axis there. With contact 'travel' both wheel centres are
  * held at travel t relative to the frame (a centre-pivot pair takes it on the right wheel).
  *
- * Measures that need other poses are filled in here: the toe error from a reference pass
- * (zero lean, zero travel, each handlebar value, same solver) run first; the local steering
- * ratio from the neighbouring handlebar values of the same row; the front lift from the
- * row's straight-ahead cell (when the handlebar values include 0).
+ * Measures that need other poses are filled in here from the grid itself (relativeMeasures.ts):
+ * an upright pass (zero lean and travel, each handlebar value) run first gives the base pose
+ * and the upright local ratios; each row's neighbouring handlebar values give the local ratio;
+ * the row's straight-ahead cell gives self-steer and front lift (when the handlebar values do
+ * not include 0, the engine solves straight ahead for each row).
  */
 
 import type { ResolvedDesign } from '../design/types';
-import { buildMechanism } from '../mechanism/templates/buildMechanism';
 import { zeroInputs, type PoseInputs } from '../mechanism/MechanismGraph';
-import { PoseSolver } from '../solver/PoseSolver';
-import type { FailedPose, PoseAnalysis, PoseStatus } from './analysisTypes';
-import { POSE_STATUS_ORDER } from './analysisTypes';
-import { PoseAnalyser, failedPose, frontLift, type ToeReference } from './PoseAnalyser';
-import { localSteeringRatio } from './steeringLinkage';
+import type { FailedPose, PoseAnalysis } from './analysisTypes';
+import { failedPose } from './PoseAnalyser';
+import { PoseEngine } from './PoseEngine';
+import { completeMeasures, ratioBetween, type BaseSteer, type PoseRelatives, type Relative } from './relativeMeasures';
+import { VERDICT_ORDER, type Verdict } from './tolerance';
 
 export type SweepContact = 'ground' | 'travel';
 
@@ -43,6 +43,8 @@ export interface SweepOptions {
   /** Called every `progressEvery` poses and once at the end. */
   onProgress?: (done: number, total: number) => void;
   progressEvery?: number;
+  /** Run on this engine's solvers (its mode must steer by handlebar with the sweep's contact). */
+  engine?: PoseEngine;
 }
 
 /** Grid position and the inputs asked for. */
@@ -61,7 +63,7 @@ export interface SweepSummary {
   poses: number;
   solved: number;
   failed: number;
-  byStatus: Record<PoseStatus, number>;
+  byStatus: Record<Verdict, number>;
   /** Poses solved (main grid plus the reference pass). */
   solves: number;
   elapsedMs: number;
@@ -98,27 +100,41 @@ function setTravel(p: PoseInputs, contact: SweepContact, travel: number): void {
   }
 }
 
-function emptyCounts(): Record<PoseStatus, number> {
-  const c = {} as Record<PoseStatus, number>;
-  for (const s of POSE_STATUS_ORDER) c[s] = 0;
+function emptyCounts(): Record<Verdict, number> {
+  const c = {} as Record<Verdict, number>;
+  for (const s of VERDICT_ORDER) c[s] = 0;
   return c;
 }
 
 /** Which grid index the k-th step of a serpentine pass visits. */
 const serpentine = (k: number, n: number, forward: boolean): number => (forward ? k : n - 1 - k);
 
-const NO_STRAIGHT_CELL = 'the handlebar values of the sweep do not include 0 (straight ahead), the front lift reference';
+/** The local ratio of cell i of a row from its neighbours in the row (one-sided at the ends). */
+function rowNeighbours(row: (PoseAnalysis | null)[], i: number): PoseRelatives['neighbours'] {
+  const here = row[i];
+  const lower = i > 0 ? row[i - 1] : here;
+  const upper = i < row.length - 1 ? row[i + 1] : here;
+  if (!here || !lower || !upper || lower === upper) {
+    return { reason: row.length < 2 ? NO_ROW_NEIGHBOURS : 'a neighbouring pose along the handlebar could not be solved' };
+  }
+  return { value: { lower, upper } };
+}
+
+const NO_ROW_NEIGHBOURS = 'the sweep has one handlebar value: no neighbouring pose for the local ratio';
 
 /**
  * Run a sweep; `onCell` receives every cell once, row by row (a row is one lean and travel,
- * all handlebar values, in ascending handlebar order).
+ * all handlebar values, in ascending handlebar order). The sweep runs on the engine's main
+ * solver (given, or made for the design in handlebar mode with the sweep's contact).
  */
 export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: SweepOptions, onCell: (cell: SweepCell) => void): SweepSummary {
   const contact = options.contact ?? 'ground';
   checkAxes(design, axes, contact);
   const t0 = Date.now();
-  const solver = new PoseSolver(buildMechanism(design, { contact, steerBy: 'handlebar' }));
-  const analyser = new PoseAnalyser(design, solver.mechanism, { findings: options.findings ?? false });
+  const engine = options.engine ?? new PoseEngine(design, { contact, steerBy: 'handlebar' }, { findings: options.findings ?? false });
+  const words = options.findings ?? false;
+  const tol = design.tolerances;
+  const grid = engine.main;
   const nL = axes.leanDeg.length;
   const nS = axes.handlebarDeg.length;
   const nT = axes.travelMm.length;
@@ -127,30 +143,33 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
   const input = zeroInputs();
   let solves = 0;
 
-  // Reference pass: zero lean, zero travel, every handlebar value, ascending.
-  const toeRefs: ToeReference[] = new Array(nS);
+  // Upright pass: zero lean and travel, every handlebar value, ascending; its local ratios are
+  // the references of the ratio change, found on the same grid spacing as every row's.
+  const uprightRow: (PoseAnalysis | null)[] = new Array(nS);
   setTravel(input, contact, 0);
   for (let s = 0; s < nS; s++) {
     input.leanDeg = 0;
     input.handlebarDeg = axes.handlebarDeg[s];
-    const r = solver.solve(input, s > 0);
+    uprightRow[s] = grid.analyse(input);
     solves++;
-    if (r.reached) {
-      const a = analyser.analyse(r);
-      toeRefs[s] = { leftDeg: a.wheels.left.toeDeg, rightDeg: a.wheels.right.toeDeg };
-    } else {
-      toeRefs[s] = { reason: `the reference pose (zero lean and travel, handlebar ${axes.handlebarDeg[s]} deg) could not be solved: ${r.message}` };
-    }
   }
+  const uprightRatio: Relative<number>[] = uprightRow.map((_, i) => {
+    const n = rowNeighbours(uprightRow, i);
+    return 'value' in n ? ratioBetween(n.value.lower, n.value.upper) : { reason: `upright: ${n.reason}` };
+  });
   const straight = axes.handlebarDeg.indexOf(0);
+  const base: Relative<BaseSteer> =
+    straight >= 0 && uprightRow[straight]
+      ? { value: { leftDeg: uprightRow[straight]!.wheels.left.steerDeg, rightDeg: uprightRow[straight]!.wheels.right.steerDeg } }
+      : engine.baseSteer();
 
   const counts = emptyCounts();
   let solved = 0;
   let failed = 0;
   let done = 0;
-  let first = true;
   let row = 0;
   const rowCells: SweepCell[] = new Array(nS);
+  const rowAnalyses: (PoseAnalysis | null)[] = new Array(nS);
   for (let ti = 0; ti < nT; ti++) {
     const travel = axes.travelMm[ti];
     for (let lk = 0; lk < nL; lk++) {
@@ -164,30 +183,39 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
         input.leanDeg = lean;
         input.handlebarDeg = bar;
         setTravel(input, contact, travel);
-        // The first grid pose is reached from the design pose, by continuation.
-        const r = solver.solve(input, !first);
-        first = false;
+        const r = grid.solve(input);
         solves++;
         // Literal objects, no spread: V8's spread-with-extra-keys is slow and this runs per pose.
         if (r.reached) {
-          const analysis = analyser.analyse(r, toeRefs[si]);
+          const analysis = grid.analyser.analyse(r);
+          rowAnalyses[si] = analysis;
           rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: true, analysis };
         } else {
+          rowAnalyses[si] = null;
           const asked = { leanDeg: lean, handlebarDeg: bar, heaveMm: input.heaveMm, travelRightMm: input.travelRightMm, travelLeftMm: input.travelLeftMm, wheelAngleDeg: 0 };
           rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: false, failure: failedPose(asked, r) };
         }
         done++;
         if (options.onProgress && done % every === 0) options.onProgress(done, total);
       }
-      finishRow(rowCells, straight);
+      let straightRel: PoseRelatives['straight'];
+      if (straight >= 0) {
+        const p = rowAnalyses[straight];
+        straightRel = p ? { value: p } : { reason: 'the straight-ahead pose of this lean and travel could not be solved' };
+      } else {
+        straightRel = engine.straightAt(input);
+        solves++;
+      }
       for (let si = 0; si < nS; si++) {
         const c = rowCells[si];
         if (c.ok) {
+          const rel: PoseRelatives = { neighbours: rowNeighbours(rowAnalyses, si), straight: straightRel, base, uprightLocalRatio: uprightRatio[si] };
+          completeMeasures(c.analysis, rel, tol, words);
           solved++;
           counts[c.analysis.status]++;
         } else {
           failed++;
-          counts['cannot-assemble']++;
+          counts.broken++;
         }
         onCell(c);
       }
@@ -195,37 +223,6 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
   }
   if (options.onProgress && done % every !== 0) options.onProgress(done, total);
   return { poses: total, solved, failed, byStatus: counts, solves, elapsedMs: Date.now() - t0 };
-}
-
-/** Fill the measures that need neighbours: local steering ratio and front lift. */
-function finishRow(cells: SweepCell[], straight: number): void {
-  const n = cells.length;
-  const ref = straight >= 0 && cells[straight].ok ? (cells[straight] as { analysis: PoseAnalysis }).analysis : null;
-  for (let i = 0; i < n; i++) {
-    const c = cells[i];
-    if (!c.ok) continue;
-    const a = c.analysis;
-    const prev = i > 0 && cells[i - 1].ok ? (cells[i - 1] as { analysis: PoseAnalysis }).analysis : null;
-    const next = i < n - 1 && cells[i + 1].ok ? (cells[i + 1] as { analysis: PoseAnalysis }).analysis : null;
-    const lo = prev ?? a;
-    const hi = next ?? a;
-    if (lo !== hi) {
-      const ratio = localSteeringRatio(
-        lo.steering.handlebarDeg,
-        lo.steering.meanWheelDeg,
-        hi.steering.handlebarDeg,
-        hi.steering.meanWheelDeg,
-      );
-      a.steering.localRatio = ratio;
-      a.steering.localRatioReason = ratio === null ? 'the road wheels did not turn between the neighbouring poses' : undefined;
-    }
-    if (ref) {
-      a.suspension.frontLiftMm = frontLift(a, ref);
-      a.suspension.frontLiftReason = undefined;
-    } else {
-      a.suspension.frontLiftReason = straight < 0 ? NO_STRAIGHT_CELL : 'the straight-ahead pose of this lean and travel could not be solved';
-    }
-  }
 }
 
 /**

@@ -1,57 +1,84 @@
 /**
- * Judging measures against the design's tolerances. Every warning anywhere goes through
- * here, so the pose report, the sweep, the envelope map and `tiltbench check` agree.
+ * The one judge: every verdict anywhere (pose readouts, part colours, sweeps, the envelope
+ * map, `tiltbench check`) is made here, against the design's tolerances, in one vocabulary.
  *
- *   slip            |slip angle| <= tolerances.slipDeg
- *   toe error       |lean steer + bump steer| <= tolerances.toeErrorDeg
- *   joint           articulation <= rated - tolerances.jointMarginDeg (over rating: > rated)
- *   clearance       distance >= tolerances.clearanceMm
- *   dead centre     transmission angle > 0
+ *   within  inside the tolerance, with room to spare
+ *   close   inside, but the measure has used WARNING_FRACTION (80 %) or more of what it allows
+ *   over    outside the tolerance
+ *   broken  the linkage cannot be assembled in the pose (no measures at all)
  *
- * Warning band (a choice, documented in docs/conventions.md): a measure that has used
- * WARNING_FRACTION (80 %) or more of what its tolerance allows. For slip and toe error that
- * is |value| >= 0.8 tolerance; for a joint, articulation >= 0.8 (rated - required margin);
- * for a clearance, distance < required / 0.8.
+ * What each check compares (docs/conventions.md says the same at length):
+ *   slip         |front slip angle| <= tolerances.slipDeg (toe mismatch: the wheels disagree on a turn centre)
+ *   self-steer   |road-wheel angle change at zero handlebar from upright| <= tolerances.selfSteerDeg
+ *   ratio change |steering-ratio change with lean and travel| <= tolerances.ratioChangePct
+ *   joint        articulation <= rated - tolerances.jointMarginDeg
+ *   clearance    distance >= tolerances.clearanceMm (close: below required / 0.8)
+ *   dead centre  transmission angle > 0 (no warning band: it is a yes-or-no fact)
  */
 
 import type { Tolerances } from '../design/types';
-import { POSE_STATUS_ORDER, type PoseStatus } from './analysisTypes';
 
 export const WARNING_FRACTION = 0.8;
 
-export type Verdict = 'pass' | 'warning' | 'fail';
+/** One word for how a measure, a pose or a part stands; ordered from best to worst. */
+export type Verdict = 'within' | 'close' | 'over' | 'broken';
 
-export function worse(a: PoseStatus, b: PoseStatus): PoseStatus {
-  return POSE_STATUS_ORDER.indexOf(a) >= POSE_STATUS_ORDER.indexOf(b) ? a : b;
+export const VERDICT_ORDER: readonly Verdict[] = ['within', 'close', 'over', 'broken'];
+
+/** The checks a pose is judged by. */
+export type CheckKind = 'slip' | 'selfSteer' | 'ratioChange' | 'joint' | 'clearance' | 'deadCentre';
+
+export const CHECK_KINDS: readonly CheckKind[] = ['slip', 'selfSteer', 'ratioChange', 'joint', 'clearance', 'deadCentre'];
+
+/** Words for a check, as a person reads them. */
+export const CHECK_LABEL: Record<CheckKind, string> = {
+  slip: 'slip (toe mismatch)',
+  selfSteer: 'self-steer',
+  ratioChange: 'steering-ratio change',
+  joint: 'joint articulation',
+  clearance: 'clearance',
+  deadCentre: 'dead centre',
+};
+
+export function worse(a: Verdict, b: Verdict): Verdict {
+  return VERDICT_ORDER.indexOf(a) >= VERDICT_ORDER.indexOf(b) ? a : b;
 }
 
+/** The worse of two verdicts where either may be absent (not measured). */
+export function worseOf(a: Verdict | null, b: Verdict | null): Verdict | null {
+  if (a === null) return b;
+  if (b === null) return a;
+  return worse(a, b);
+}
+
+/** |value| against a symmetric limit. */
 export function judgeAbs(value: number, limit: number): Verdict {
   const a = Math.abs(value);
-  if (a > limit) return 'fail';
-  return a >= WARNING_FRACTION * limit ? 'warning' : 'pass';
+  if (a > limit) return 'over';
+  return a >= WARNING_FRACTION * limit ? 'close' : 'within';
 }
 
-/** A joint: fail below the required margin, warning once 80 % of the allowed articulation is used. */
+export const judgeSlip = (slipDeg: number, tol: Tolerances): Verdict => judgeAbs(slipDeg, tol.slipDeg);
+export const judgeSelfSteer = (deg: number, tol: Tolerances): Verdict => judgeAbs(deg, tol.selfSteerDeg);
+export const judgeRatioChange = (pct: number, tol: Tolerances): Verdict => judgeAbs(pct, tol.ratioChangePct);
+
+/** A joint: over below the required margin, close once 80 % of the allowed articulation is used. */
 export function judgeJoint(articulationDeg: number, ratedDeg: number, tol: Tolerances): Verdict {
   const allowed = ratedDeg - tol.jointMarginDeg;
-  if (articulationDeg > allowed) return 'fail';
-  return articulationDeg >= WARNING_FRACTION * allowed ? 'warning' : 'pass';
+  if (articulationDeg > allowed) return 'over';
+  return articulationDeg >= WARNING_FRACTION * allowed ? 'close' : 'within';
+}
+
+/** The same rule as judgeJoint, from the margin (rated - articulation) instead of the articulation. */
+export function judgeJointMargin(marginDeg: number, ratedDeg: number, tol: Tolerances): Verdict {
+  return judgeJoint(ratedDeg - marginDeg, ratedDeg, tol);
 }
 
 export function judgeClearance(distanceMm: number, tol: Tolerances): Verdict {
-  if (distanceMm < tol.clearanceMm) return 'fail';
-  return distanceMm < tol.clearanceMm / WARNING_FRACTION ? 'warning' : 'pass';
+  if (distanceMm < tol.clearanceMm) return 'over';
+  return distanceMm < tol.clearanceMm / WARNING_FRACTION ? 'close' : 'within';
 }
 
 export function judgeTransmission(deg: number): Verdict {
-  return deg > 0 ? 'pass' : 'fail';
-}
-
-/** Status a single verdict gives, by the kind of measure. */
-export function statusOf(kind: 'slip' | 'toe' | 'joint' | 'clearance' | 'deadCentre', verdict: Verdict, overRating = false): PoseStatus {
-  if (verdict === 'pass') return 'within';
-  if (verdict === 'warning') return 'warning';
-  if (kind === 'joint') return overRating ? 'joint-over-rating' : 'over';
-  if (kind === 'clearance') return 'clearance-violated';
-  return 'over';
+  return deg > 0 ? 'within' : 'over';
 }

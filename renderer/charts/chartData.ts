@@ -2,7 +2,8 @@
  * What the charts draw: core's 1-D curves and the lean x handlebar envelope map. Plain data (it crosses the worker boundary); null where a
  * pose could not be assembled.
  */
-import type { PoseStatus } from '../../core/analysis/analysisTypes';
+import type { Tolerances } from '../../core/design/types';
+import type { Verdict } from '../../core/analysis/tolerance';
 import type { Curve, CurveKind } from '../../core/analysis/curves';
 import type { Severity } from '../model/severity';
 
@@ -12,19 +13,20 @@ export interface CurveSet {
   curves: Partial<Record<CurveKind, Curve>>;
   /** Why a curve is missing (a non-tilting design has no lean curves, say). */
   missing: Partial<Record<CurveKind, string>>;
-  tolerances: { toeErrorDeg: number; slipDeg: number; jointMarginDeg: number; clearanceMm: number };
+  tolerances: Tolerances;
   /** Rated articulation of each joint, degrees. */
   ratedDeg: Record<string, number>;
   elapsedMs: number;
 }
 
-export type MapMetric = 'status' | 'slip' | 'jointMargin' | 'clearance' | 'toeError';
+export type MapMetric = 'status' | 'slip' | 'selfSteer' | 'ratioChange' | 'jointMargin' | 'clearance';
 
 export interface MapCell {
   leanIndex: number;
   handlebarIndex: number;
-  status: PoseStatus;
-  /** Condition of each metric by core's judges; 'broken' where the pose cannot be assembled. */
+  /** Core's verdict on the pose. */
+  status: Verdict;
+  /** Core's verdict on each metric ('none': not measured here; 'broken' where the pose cannot be assembled). */
   severity: Record<MapMetric, Severity>;
   values: Record<Exclude<MapMetric, 'status'>, number | null>;
   reason?: string;

@@ -63,25 +63,54 @@ function failuresNote(c: Curve): string {
   return c.failures.length ? `; ${c.failures.length} pose${c.failures.length === 1 ? '' : 's'} could not be assembled (gaps)` : '';
 }
 
-function toeChange(set: CurveSet, kind: 'leanSteer' | 'bumpSteer', x: number | null, title: string, subtitle: string, sign: string): EChartsCoreOption {
+function selfSteer(set: CurveSet, kind: 'leanSteer' | 'bumpSteer', x: number | null, title: string, subtitle: string, sign: string): EChartsCoreOption {
   const c = set.curves[kind];
   if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
-  const series: Record<string, unknown>[] = pick(c, 'toeError').map((s) => line(s.label, points(c, s), sideColour(s.id)));
-  series.push({ type: 'line', name: `tolerance ±${set.tolerances.toeErrorDeg} deg`, data: [], markLine: toleranceLines(set.tolerances.toeErrorDeg, `${set.tolerances.toeErrorDeg} deg`) });
+  const tol = set.tolerances.selfSteerDeg;
+  const series: Record<string, unknown>[] = pick(c, 'selfSteer').map((s) => line(s.label, points(c, s), sideColour(s.id)));
+  series.push({ type: 'line', name: `tolerance ±${tol} deg`, data: [], markLine: toleranceLines(tol, `${tol} deg`) });
   return {
     ...base(title, subtitle + failuresNote(c)),
     xAxis: axis(xName(c, sign)),
-    yAxis: axis('toe change (deg, toe-in +)'),
+    yAxis: axis('self-steer (deg, left +)'),
     series: withNow(series, x),
   };
 }
 
 export function leanSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
-  return toeChange(set, 'leanSteer', m.leanDeg, 'Lean steer', 'toe change with lean, handlebar straight ahead', ', right side down +');
+  return selfSteer(set, 'leanSteer', m.leanDeg, 'Lean steer', 'road-wheel angle change with lean, handlebar held at zero', ', right side down +');
 }
 
 export function bumpSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
-  return toeChange(set, 'bumpSteer', m.travelMm, 'Bump steer', 'toe change with wheel travel (both wheels), no lean, straight ahead', '');
+  return selfSteer(set, 'bumpSteer', m.travelMm, 'Bump steer', 'road-wheel angle change with wheel travel (both wheels), no lean, handlebar at zero', '');
+}
+
+export function ratioChangeOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  const c = set.curves.ratioLean;
+  if (!c) return unavailable('Ratio change', set.missing.ratioLean ?? 'not computed');
+  const tol = set.tolerances.ratioChangePct;
+  const s = pick(c, 'ratioChange').map((cs) => line(cs.label, points(c, cs), CHART_COLOURS.left));
+  s.push({ type: 'line', name: `tolerance ±${tol} %`, data: [], markLine: toleranceLines(tol, `${tol} %`) });
+  return {
+    ...base('Ratio change', 'road-wheel degrees per handlebar degree against upright, handlebar at zero' + failuresNote(c)),
+    xAxis: axis(xName(c, ', right side down +')),
+    yAxis: axis('steering-ratio change (%)'),
+    series: withNow(s, m.leanDeg),
+  };
+}
+
+export function slipOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  const c = set.curves.slipSteer;
+  if (!c) return unavailable('Toe mismatch', set.missing.slipSteer ?? 'not computed');
+  const tol = set.tolerances.slipDeg;
+  const s = pick(c, 'slip').map((cs) => line(cs.label, points(c, cs), sideColour(cs.id)));
+  s.push({ type: 'line', name: `tolerance ±${tol} deg`, data: [], markLine: toleranceLines(tol, `${tol} deg`) });
+  return {
+    ...base('Toe mismatch', 'front slip angles about the common turn centre against handlebar, no lean' + failuresNote(c)),
+    xAxis: axis(xName(c, ', left +')),
+    yAxis: axis('slip angle (deg, ISO 8855)'),
+    series: withNow(s, m.handlebarDeg),
+  };
 }
 
 export function ackermannOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {

@@ -9,30 +9,23 @@ import type { EnvelopeMapData, MapCell, MapMetric } from './chartData';
 import { CHART_COLOURS } from './chartStyle';
 
 export const MAP_METRICS: { id: MapMetric; label: string; unit: string }[] = [
-  { id: 'status', label: 'Overall status', unit: '' },
-  { id: 'slip', label: 'Worst slip', unit: 'deg' },
-  { id: 'toeError', label: 'Worst toe error', unit: 'deg' },
+  { id: 'status', label: 'Overall verdict', unit: '' },
+  { id: 'slip', label: 'Worst slip (toe mismatch)', unit: 'deg' },
+  { id: 'selfSteer', label: 'Worst self-steer', unit: 'deg' },
+  { id: 'ratioChange', label: 'Steering-ratio change', unit: '%' },
   { id: 'jointMargin', label: 'Least joint margin', unit: 'deg' },
   { id: 'clearance', label: 'Least clearance', unit: 'mm' },
 ];
 
 const LEVELS: Severity[] = ['none', 'within', 'close', 'over', 'broken'];
 
-const STATUS_WORDS: Record<string, string> = {
-  within: 'within tolerance',
-  warning: 'warning band',
-  over: 'over a tolerance',
-  'clearance-violated': 'clearance violated',
-  'joint-over-rating': 'joint over its rating',
-  'cannot-assemble': 'cannot assemble',
-};
 
 export function describeCell(map: EnvelopeMapData, cell: MapCell, metric: MapMetric): string[] {
   const lean = map.lean[cell.leanIndex];
   const bar = map.handlebar[cell.handlebarIndex];
   const meta = MAP_METRICS.find((m) => m.id === metric)!;
   const lines = [`lean ${lean.toFixed(1)} deg, handlebar ${bar.toFixed(1)} deg`];
-  if (cell.status === 'cannot-assemble' && cell.reason) {
+  if (cell.status === 'broken' && cell.reason) {
     lines.push(`cannot assemble: ${cell.reason}`);
     return lines;
   }
@@ -40,7 +33,7 @@ export function describeCell(map: EnvelopeMapData, cell: MapCell, metric: MapMet
     const v = cell.values[metric];
     lines.push(`${meta.label.toLowerCase()}: ${v === null ? '—' : `${v.toFixed(2)} ${meta.unit}`} (${SEVERITY_STYLE[cell.severity[metric]].word})`);
   }
-  lines.push(`pose: ${STATUS_WORDS[cell.status] ?? cell.status}`);
+  lines.push(`pose: ${SEVERITY_STYLE[cell.status].pose}`);
   return lines;
 }
 

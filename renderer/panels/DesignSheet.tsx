@@ -344,7 +344,8 @@ export function DesignSheet() {
         <Num path="envelope.reboundMm" label="Rebound" unit="mm" />
       </Section>
       <Section title="Tolerances">
-        <Num path="tolerances.toeErrorDeg" label="Toe error" unit="deg" fallback={DEFAULT_TOLERANCES.toeErrorDeg} />
+        <Num path="tolerances.selfSteerDeg" label="Self-steer" unit="deg" fallback={DEFAULT_TOLERANCES.selfSteerDeg} />
+        <Num path="tolerances.ratioChangePct" label="Steering-ratio change" unit="%" fallback={DEFAULT_TOLERANCES.ratioChangePct} />
         <Num path="tolerances.slipDeg" label="Slip (scrub)" unit="deg" fallback={DEFAULT_TOLERANCES.slipDeg} />
         <Num path="tolerances.jointMarginDeg" label="Joint margin" unit="deg" fallback={DEFAULT_TOLERANCES.jointMarginDeg} />
         <Num path="tolerances.clearanceMm" label="Clearance" unit="mm" fallback={DEFAULT_TOLERANCES.clearanceMm} />

@@ -3,7 +3,6 @@ import { useStore } from 'zustand';
 import { useWorkbench } from '../app/workbenchContext';
 import { useThrottledWorkbench } from '../app/useThrottled';
 import type { ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
-import { statusSeverity } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
 import { playbackStore } from './playback';
@@ -30,14 +29,6 @@ function Sev({ s }: { s: Severity | undefined }) {
 }
 
 const OPEN_TABLES = new Set(['wheel', 'joints', 'overall']);
-const STATUS_WORDS: Record<string, string> = {
-  within: 'within every tolerance',
-  warning: 'close to a tolerance',
-  over: 'over a tolerance',
-  'clearance-violated': 'a clearance is violated',
-  'joint-over-rating': 'a joint is over its rating',
-  'cannot-assemble': 'cannot assemble',
-};
 
 function cellTestId(table: ReadoutTable, r: ReadoutRow, i: number): string {
   return table.columns.length === 1 ? `readout-${r.id}` : `readout-${r.id}-${table.columns[i].toLowerCase()}`;
@@ -97,13 +88,13 @@ export function ReadoutPanel() {
   const outcome = useThrottledWorkbench((s) => s.outcome, useReadoutInterval());
   const reached = outcome.shown === 'requested';
   const ps = outcome.poseStatus;
-  const sev = ps ? statusSeverity(ps) : undefined;
+  const sev = ps ?? undefined;
   return (
     <section className="panel readout-panel" aria-labelledby="readout-title" data-testid="readouts">
       <h2 id="readout-title">Readings</h2>
       {ps && sev && (
         <p className={`pose-status sev-${sev}`} data-testid="pose-status" style={{ borderColor: SEVERITY_STYLE[sev].colour }}>
-          <span style={{ color: SEVERITY_STYLE[sev].colour }}>{SEVERITY_STYLE[sev].glyph}</span> This pose: {STATUS_WORDS[ps] ?? ps}
+          <span style={{ color: SEVERITY_STYLE[sev].colour }}>{SEVERITY_STYLE[sev].glyph}</span> This pose: {SEVERITY_STYLE[sev].pose}
         </p>
       )}
       {!reached && <p className="hint">No readings: this pose was not reached.</p>}

@@ -8,9 +8,9 @@ import type { DesignFile } from '../../core/design/types';
 import type { SweepAxes } from '../../core/analysis/sweep';
 import { CURVE_KINDS, curve } from '../../core/analysis/curves';
 import { envelopeMap } from '../../core/analysis/envelopeMap';
-import { judgeAbs, judgeClearance } from '../../core/analysis/tolerance';
+import type { Verdict } from '../../core/analysis/tolerance';
 import type { CurveSet, EnvelopeMapData, MapCell } from '../charts/chartData';
-import { statusSeverity, verdictSeverity } from '../model/analysisAdapter';
+import type { Severity } from '../model/severity';
 
 export type Progress = (done: number, total: number) => void;
 
@@ -30,7 +30,7 @@ export function computeCurves(req: CurveRequest, progress?: Progress): CurveSet 
   const t0 = Date.now();
   const d = resolveDesign(req.design);
   const kinds = CURVE_KINDS.filter((k) => {
-    if (!d.vehicle.tilting && (k === 'leanSteer' || k === 'camberLean' || k === 'jointsLean')) return false;
+    if (!d.vehicle.tilting && (k === 'leanSteer' || k === 'camberLean' || k === 'jointsLean' || k === 'ratioLean')) return false;
     return true;
   });
   const curves: CurveSet['curves'] = {};
@@ -66,36 +66,31 @@ export function computeMap(req: MapRequest, progress?: Progress): EnvelopeMapDat
     travelMm: [req.travelMm ?? 0],
   };
   const map = envelopeMap(d, axes, { contact: 'ground', onProgress: progress });
-  const tol = d.tolerances;
   const nH = axes.handlebarDeg.length;
+  // Verdicts are core's (the engine judged every cell); only reshaped here.
   const cells: MapCell[] = map.cells.map((c, k) => {
     const leanIndex = Math.floor(k / nH) % axes.leanDeg.length;
     const handlebarIndex = k % nH;
-    if (c.status === 'cannot-assemble' && c.worstSlipDeg === null) {
-      return {
-        leanIndex,
-        handlebarIndex,
-        status: c.status,
-        severity: { status: 'broken', slip: 'broken', jointMargin: 'broken', clearance: 'broken', toeError: 'broken' },
-        values: { slip: null, jointMargin: null, clearance: null, toeError: null },
-        reason: c.reason,
-      };
-    }
-    const joint = c.worstJointMarginDeg;
+    const of = (v: Verdict | null): Severity => (c.status === 'broken' ? 'broken' : (v ?? 'none'));
     return {
       leanIndex,
       handlebarIndex,
       status: c.status,
       severity: {
-        status: statusSeverity(c.status),
-        slip: c.worstSlipDeg === null ? 'none' : verdictSeverity(judgeAbs(c.worstSlipDeg, tol.slipDeg)),
-        // A joint's margin against the required margin (core's judgeJoint works on articulation; the
-        // margin form is the same rule: fail below the required margin).
-        jointMargin: joint === null ? 'none' : joint < tol.jointMarginDeg ? 'over' : 'within',
-        clearance: c.worstClearanceMm === null ? 'none' : verdictSeverity(judgeClearance(c.worstClearanceMm, tol)),
-        toeError: c.worstToeErrorDeg === null ? 'none' : verdictSeverity(judgeAbs(c.worstToeErrorDeg, tol.toeErrorDeg)),
+        status: c.status,
+        slip: of(c.checks.slip),
+        selfSteer: of(c.checks.selfSteer),
+        ratioChange: of(c.checks.ratioChange),
+        jointMargin: of(c.checks.joint),
+        clearance: of(c.checks.clearance),
       },
-      values: { slip: c.worstSlipDeg, jointMargin: joint, clearance: c.worstClearanceMm, toeError: c.worstToeErrorDeg },
+      values: {
+        slip: c.worstSlipDeg,
+        selfSteer: c.worstSelfSteerDeg,
+        ratioChange: c.ratioChangePct,
+        jointMargin: c.worstJointMarginDeg,
+        clearance: c.worstClearanceMm,
+      },
       ...(c.reason ? { reason: c.reason } : {}),
     };
   });
@@ -106,7 +101,7 @@ export function computeMap(req: MapRequest, progress?: Progress): EnvelopeMapDat
     travelMm: axes.travelMm[0],
     contact: 'ground',
     cells,
-    tolerances: { ...tol },
+    tolerances: { ...d.tolerances },
     elapsedMs: Date.now() - t0,
   };
 }

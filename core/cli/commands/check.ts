@@ -57,11 +57,11 @@ export function formatCheck(c: DesignCheck): string {
   }
   const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
   const table = rows.map((r) => r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]) : cell.padEnd(widths[i]))).join('  ').trimEnd());
-  const fails = c.items.filter((i) => i.verdict === 'fail').length;
-  const warns = c.items.filter((i) => i.verdict === 'warning').length;
+  const fails = c.items.filter((i) => i.verdict === 'over' || i.verdict === 'broken').length;
+  const close = c.items.filter((i) => i.verdict === 'close').length;
   const result = c.passed
-    ? `RESULT: PASS (${c.items.length} items, ${warns} warning${warns === 1 ? '' : 's'})`
-    : `RESULT: FAIL (${fails} of ${c.items.length} items violated, ${warns} warning${warns === 1 ? '' : 's'})`;
+    ? `RESULT: PASS (${c.items.length} items, ${close} close to the limit)`
+    : `RESULT: FAIL (${fails} of ${c.items.length} items over the limit or broken, ${close} close to the limit)`;
   const limits = ['steering limits (first limit met each way, zero travel; handlebar deg, road-wheel L/R deg):'];
   const lim = (l: LeanLimits['left']) =>
     l.handlebarDeg === null

@@ -6,7 +6,7 @@ import { ArgError, parseArgs, rangeOption } from '../args';
 // The analysis modules are loaded when the command runs, so other commands start faster.
 import type { SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
 import type { CellValue, Column } from '../../analysis/poseColumns';
-import { POSE_STATUS_ORDER } from '../../analysis/analysisTypes';
+import { VERDICT_ORDER } from '../../analysis/tolerance';
 
 export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --steer A:B:STEP [--travel A:B:STEP] --out FILE.csv|FILE.json
   Solves every pose of the grid lean x handlebar x travel (each range inclusive; an axis left
@@ -60,7 +60,7 @@ function jsonValue(v: CellValue): CellValue {
 }
 
 export function summaryLine(s: SweepSummary): string {
-  const parts = POSE_STATUS_ORDER.filter((k) => s.byStatus[k] > 0).map((k) => `${k} ${s.byStatus[k]}`);
+  const parts = VERDICT_ORDER.filter((k) => s.byStatus[k] > 0).map((k) => `${k} ${s.byStatus[k]}`);
   return `${s.poses} poses (${parts.join(', ') || 'none'}) in ${(s.elapsedMs / 1000).toFixed(2)} s`;
 }
 

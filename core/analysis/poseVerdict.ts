@@ -1,0 +1,75 @@
+/**
+ * A pose's verdict: each check judged by tolerance.ts, the worst of them, and the findings in
+ * words. Run once the pose's measures are complete (after the neighbouring poses filled in
+ * self-steer and the ratio change), so every caller judges the same numbers the same way.
+ */
+
+import type { Tolerances } from '../design/types';
+import type { PoseAnalysis } from './analysisTypes';
+import { CHECK_KINDS, judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, worseOf, type CheckKind, type Verdict } from './tolerance';
+import { clearancePairWords, jointWords } from './words';
+
+const fmt = (x: number, d = 2) => x.toFixed(d);
+
+export interface PoseJudgement {
+  status: Verdict;
+  checks: Record<CheckKind, Verdict | null>;
+  findings: string[];
+}
+
+export function noChecks(): Record<CheckKind, Verdict | null> {
+  const c = {} as Record<CheckKind, Verdict | null>;
+  for (const k of CHECK_KINDS) c[k] = null;
+  return c;
+}
+
+/** Judge every check of a solved pose; words only when asked for (sweeps skip them for speed). */
+export function judgePose(a: PoseAnalysis, tol: Tolerances, words: boolean): PoseJudgement {
+  const checks = noChecks();
+  const findings: string[] = [];
+  const note = (v: Verdict, text: string) => {
+    if (words && v !== 'within') findings.push(`${v}: ${text}`);
+  };
+  for (const side of ['left', 'right'] as const) {
+    const s = a.slip[side].slipDeg;
+    const v = judgeSlip(s, tol);
+    checks.slip = worseOf(checks.slip, v);
+    note(v, `${side} slip ${fmt(s)} deg (tolerance ${tol.slipDeg} deg)`);
+    const e = a.selfSteer[`${side}Deg`];
+    if (e !== null) {
+      const ve = judgeSelfSteer(e, tol);
+      checks.selfSteer = worseOf(checks.selfSteer, ve);
+      note(ve, `${side} self-steer ${fmt(e, 3)} deg (tolerance ${tol.selfSteerDeg} deg)`);
+    }
+  }
+  const rc = a.steering.ratioChangePct;
+  if (rc !== null) {
+    checks.ratioChange = judgeRatioChange(rc, tol);
+    note(checks.ratioChange, `steering-ratio change ${fmt(rc, 1)} % (tolerance ${tol.ratioChangePct} %)`);
+  }
+  for (const j of a.joints) {
+    const v = judgeJoint(j.articulationDeg, j.ratedDeg, tol);
+    checks.joint = worseOf(checks.joint, v);
+    note(v, `${jointWords(j.joint, j.side)} at ${fmt(j.articulationDeg, 1)} deg of ${j.ratedDeg} rated (margin ${fmt(j.marginDeg, 1)}, required ${tol.jointMarginDeg})`);
+  }
+  for (const c of a.clearances) {
+    const v = judgeClearance(c.distanceMm, tol);
+    checks.clearance = worseOf(checks.clearance, v);
+    note(v, `${clearancePairWords(c.pair)} clearance, ${c.side}, ${fmt(c.distanceMm, 1)} mm (required ${tol.clearanceMm} mm)`);
+  }
+  const t = a.worst.transmissionDeg;
+  checks.deadCentre = judgeTransmission(t);
+  note(checks.deadCentre, `a steering lever is at or past dead centre (transmission ${fmt(t, 1)} deg)`);
+  let status: Verdict = 'within';
+  for (const k of CHECK_KINDS) status = worseOf(status, checks[k]) ?? status;
+  return { status, checks, findings };
+}
+
+/** Put a judgement on the analysis (in place) and return it. */
+export function applyJudgement(a: PoseAnalysis, tol: Tolerances, words: boolean): PoseAnalysis {
+  const j = judgePose(a, tol, words);
+  a.status = j.status;
+  a.checks = j.checks;
+  a.findings = j.findings;
+  return a;
+}
