@@ -15,13 +15,18 @@
  * every timed pass starts from a collected heap, and the order alternates A B, B A, ... so a
  * drift in the machine's speed lands on both.
  *
+ * Even so, one copy can draw a slow compilation for a whole process (an A/A run, the same core
+ * twice, has shown ratios from 0.6 to 1.1 on a busy 2-core machine), so the comparison runs in
+ * COMPARE_PROCESSES fresh processes (default 5) and reports the median of their ratios.
+ *
  * Before timing, both copies solve the whole serpentine once and the script prints the largest
  * difference between their joint coordinates and statuses: a refactoring that should not
  * change the numbers shows 0 here.
  */
 
+import { execFileSync } from 'node:child_process';
 import { resolve } from 'node:path';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { collectGarbage, GROUND_MODE, loadDemoDesign, median, serpentineSweep, startClock, TILTING_DEMOS } from './measure';
 import type { MechanismGraph, PoseInputs } from '../../core/mechanism/MechanismGraph';
 import type { PoseMode } from '../../core/mechanism/templates/buildMechanism';
@@ -43,6 +48,7 @@ interface CoreCopy {
 }
 
 const PASSES = Number(process.env.COMPARE_PASSES ?? 10);
+const PROCESSES = Number(process.env.COMPARE_PROCESSES ?? 5);
 /** Serpentine sweeps per timed pass, every other one backwards (a pass of a few tens of ms). */
 const REPEATS = Number(process.env.COMPARE_REPEATS ?? 3);
 
@@ -52,8 +58,12 @@ async function loadCore(label: string, dir: string): Promise<CoreCopy> {
   return { label, dir, PoseSolver: mod.PoseSolver };
 }
 
-/** One timed pass: poses[0] solved cold untimed, then REPEATS warm sweeps on a collected heap. */
-function pass(solver: SolverLike, poses: PoseInputs[]): number {
+/**
+ * One timed pass: poses[0] solved cold untimed, then REPEATS warm sweeps on a collected heap.
+ * Returns poses per second of wall time and of this process's CPU time (the CPU reading is
+ * steadier when other processes share the machine).
+ */
+function pass(solver: SolverLike, poses: PoseInputs[]): { wall: number; cpu: number } {
   solver.reset();
   solver.solve(poses[0], false);
   const n = poses.length;
@@ -63,7 +73,8 @@ function pass(solver: SolverLike, poses: PoseInputs[]): number {
     const back = rep % 2 === 1;
     for (let k = 0; k < n; k++) solver.solve(poses[back ? n - 1 - k : k]);
   }
-  return ((n * REPEATS) / stop().wallMs) * 1000;
+  const clock = stop();
+  return { wall: ((n * REPEATS) / clock.wallMs) * 1000, cpu: ((n * REPEATS) / clock.cpuMs) * 1000 };
 }
 
 /** Largest coordinate difference and status disagreements along one warm sweep. */
@@ -87,18 +98,11 @@ function agreement(a: SolverLike, b: SolverLike, poses: PoseInputs[]): { maxDiff
   return { maxDiff, statusDiffs, iterationDiffs };
 }
 
-async function main(): Promise<void> {
-  const beforeDir = process.argv[2] ?? process.env.TILTBENCH_CORE_BEFORE;
-  if (!beforeDir) {
-    console.error('usage: npx tsx test/bench/compareCores.ts BEFORE_CORE_DIR [AFTER_CORE_DIR] (or set TILTBENCH_CORE_BEFORE)');
-    process.exit(2);
-  }
-  const afterDir = process.argv[3] ?? new URL('../../core', import.meta.url).pathname;
+/** One process's measurement: prints its table, then a JSON line of after/before ratios by design. */
+async function measureHere(beforeDir: string, afterDir: string): Promise<void> {
   const copies = [await loadCore('before', beforeDir), await loadCore('after', afterDir)];
   const { buildMechanism } = (await import(pathToFileURL(resolve(afterDir, 'mechanism/templates/buildMechanism.ts')).href)) as { buildMechanism: BuildMechanism };
-  console.log(`before: ${resolve(beforeDir)}\nafter:  ${resolve(afterDir)}`);
-  console.log(`${PASSES} timed passes each, alternating; a pass is ${REPEATS} warm serpentine sweeps on a collected heap.\n`);
-
+  const ratios: Record<string, number> = {};
   for (const name of TILTING_DEMOS) {
     const graph = buildMechanism(loadDemoDesign(name), GROUND_MODE);
     const solvers = copies.map((c) => new c.PoseSolver(structuredClone(graph)));
@@ -107,18 +111,50 @@ async function main(): Promise<void> {
     console.log(`${name}: ${poses.length} poses; before vs after: max |coordinate difference| ${agree.maxDiff.toExponential(2)}, status differences ${agree.statusDiffs}, iteration-count differences ${agree.iterationDiffs}`);
     // Warm-up: one untimed pass each.
     for (const s of solvers) pass(s, poses);
-    const rates: number[][] = [[], []];
-    const roundRatios: number[] = [];
+    const wall: number[][] = [[], []];
+    const cpu: number[][] = [[], []];
     for (let p = 0; p < PASSES; p++) {
       const order = p % 2 === 0 ? [0, 1] : [1, 0];
-      for (const i of order) rates[i].push(pass(solvers[i], poses));
-      roundRatios.push(rates[1][p] / rates[0][p]);
+      for (const i of order) {
+        const r = pass(solvers[i], poses);
+        wall[i].push(r.wall);
+        cpu[i].push(r.cpu);
+      }
     }
-    const [mb, ma] = [median(rates[0]), median(rates[1])];
-    const row = (label: string, r: number[]) => `  ${label.padEnd(7)} ${Math.round(median(r)).toLocaleString('en-US').padStart(9)} poses/s (passes ${r.map((x) => (x / 1000).toFixed(1)).join(' ')} k)`;
-    console.log(row('before', rates[0]));
-    console.log(row('after', rates[1]));
-    console.log(`  after/before: ${(ma / mb).toFixed(3)} (ratio of medians), ${median(roundRatios).toFixed(3)} (median of per-round ratios)\n`);
+    const row = (label: string, i: number) =>
+      `  ${label.padEnd(7)} ${Math.round(median(wall[i])).toLocaleString('en-US').padStart(9)} poses/s wall, ${Math.round(median(cpu[i])).toLocaleString('en-US').padStart(9)} per CPU s (wall passes ${wall[i].map((x) => (x / 1000).toFixed(1)).join(' ')} k)`;
+    console.log(row('before', 0));
+    console.log(row('after', 1));
+    ratios[`${name} wall`] = median(wall[1]) / median(wall[0]);
+    ratios[`${name} cpu`] = median(cpu[1]) / median(cpu[0]);
+    console.log(`  after/before: ${ratios[`${name} wall`].toFixed(3)} wall, ${ratios[`${name} cpu`].toFixed(3)} CPU`);
+  }
+  console.log(JSON.stringify(ratios));
+}
+
+async function main(): Promise<void> {
+  const args = process.argv.slice(2);
+  const child = args[0] === '--child';
+  if (child) args.shift();
+  const beforeDir = args[0] ?? process.env.TILTBENCH_CORE_BEFORE;
+  if (!beforeDir) {
+    console.error('usage: npx tsx test/bench/compareCores.ts BEFORE_CORE_DIR [AFTER_CORE_DIR] (or set TILTBENCH_CORE_BEFORE)');
+    process.exit(2);
+  }
+  const afterDir = args[1] ?? fileURLToPath(new URL('../../core', import.meta.url));
+  if (child) return measureHere(beforeDir, afterDir);
+  console.log(`before: ${resolve(beforeDir)}\nafter:  ${resolve(afterDir)}`);
+  console.log(`${PROCESSES} processes; in each, ${PASSES} timed passes per copy, alternating; a pass is ${REPEATS} warm serpentine sweeps on a collected heap.\n`);
+  const byDesign: Record<string, number[]> = {};
+  for (let k = 0; k < PROCESSES; k++) {
+    const out = execFileSync(process.execPath, [...process.execArgv, fileURLToPath(import.meta.url), '--child', beforeDir, afterDir], { encoding: 'utf8', maxBuffer: 1 << 22 });
+    const lines = out.trim().split('\n');
+    console.log(`-- process ${k + 1}\n${lines.slice(0, -1).join('\n')}`);
+    for (const [name, r] of Object.entries(JSON.parse(lines[lines.length - 1]) as Record<string, number>)) (byDesign[name] ??= []).push(r);
+  }
+  console.log('\nafter/before poses/s, per process and median:');
+  for (const [name, rs] of Object.entries(byDesign)) {
+    console.log(`  ${name.padEnd(33)} ${rs.map((r) => r.toFixed(3)).join(' ')}  median ${median(rs).toFixed(3)}`);
   }
 }
 
