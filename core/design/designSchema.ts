@@ -4,7 +4,7 @@
  *
  * Bounds are sanity limits that catch slips (a unit mix-up, a sign error), not design advice.
  * Rules that involve more than one field (crown radius vs rolling radius, coincident points,
- * the steering axis vs the spin axis, ...) are in validateDesign.ts.
+ * the steering axis vs the spin axis, ...) are in crossFieldChecks.ts.
  */
 import {
   array,
@@ -174,6 +174,26 @@ const parts = object('Radii used to model parts as capsules for clearance checks
   steeringArmRadiusMm: optional(positiveMm('Steering arm radius')),
 });
 
+const riding = object(
+  'How the vehicle is ridden: check judges the (lean, handlebar) that balanced turns in this speed range reach; missing values take the defaults',
+  {
+    minKmh: optional(number({ unit: 'km/h', description: 'Lowest speed of the balanced turns judged (default 5)', exclusiveMin: 0, max: 200 })),
+    maxKmh: optional(number({ unit: 'km/h', description: 'Highest speed of the balanced turns judged (default 45)', exclusiveMin: 0, max: 200 })),
+    maxLeanDeg: optional(
+      number({
+        unit: 'deg',
+        description: 'Largest lean the vehicle allows each way, at most envelope.leanDeg (default envelope.leanDeg; ignored when vehicle.tilting is false)',
+        min: 0,
+        max: 60,
+      }),
+    ),
+    transientBandDeg: optional(
+      number({ unit: 'deg', description: 'Lean either side of the balanced lean reached in transients such as countersteering (default 5)', min: 0, max: 30 }),
+    ),
+    gripG: optional(number({ unit: 'g', description: 'Lateral grip limit of the tyres (default 0.8)', exclusiveMin: 0, max: 1.5 })),
+  },
+);
+
 export const designFileSchema = object('A Tiltbench design ("tilt sheet"). Lengths in mm, angles in degrees; ISO 8855 axes: x forward, y left, z up.', {
   tiltsheet: literal(DESIGN_FORMAT_VERSION, 'Format version of this file'),
   name: string('Name of the design', { minLength: 1 }),
@@ -188,6 +208,7 @@ export const designFileSchema = object('A Tiltbench design ("tilt sheet"). Lengt
   tolerances: optional(tolerances),
   spring: optional(spring),
   parts: optional(parts),
+  riding: optional(riding),
 });
 
 // Compile-time guard: the schema and the hand-written DesignFile interface must describe the

@@ -280,7 +280,7 @@ export function importHardpointCsv(design: DesignFile, csv: string, fileName: st
       }),
     };
   }
-  return { ok: true, design: checked.design };
+  return checked;
 }
 
 /** The ids of a design's hardpoints, in table order (the first column of exportHardpointCsv). */

@@ -9,6 +9,7 @@
  */
 import {
   DEFAULT_PART_SIZES,
+  DEFAULT_RIDING,
   DEFAULT_TOLERANCES,
   DESIGN_FORMAT_VERSION,
   type CrankInput,
@@ -18,6 +19,7 @@ import {
   type PartSizes,
   type PerSide,
   type ResolvedDesign,
+  type Riding,
   type Sided,
   type Tolerances,
   type Vec3Mm,
@@ -68,7 +70,6 @@ function copyCrankInput(input: CrankInput): CrankInput {
   };
 }
 
-/** Defaults for the keys a file leaves out (a key present with `undefined` counts as left out). */
 /** Tolerances with defaults filled; a file's older `toeErrorDeg` stands for `selfSteerDeg`. */
 function resolveTolerances(given: DesignFile['tolerances']): Tolerances {
   const { toeErrorDeg, ...rest } = given ?? {};
@@ -77,6 +78,7 @@ function resolveTolerances(given: DesignFile['tolerances']): Tolerances {
   return t;
 }
 
+/** Defaults for the keys a file leaves out (a key present with `undefined` counts as left out). */
 function withDefaults<T extends object>(defaults: T, given: Partial<T> | undefined): T {
   const result = { ...defaults };
   for (const key of Object.keys(defaults) as (keyof T)[]) {
@@ -84,6 +86,20 @@ function withDefaults<T extends object>(defaults: T, given: Partial<T> | undefin
     if (value !== undefined) result[key] = value as T[keyof T];
   }
   return result;
+}
+
+/**
+ * The riding block with defaults filled: the lean limit defaults to the envelope's lean, and
+ * a vehicle that does not tilt has none (a lean limit written for it is ignored).
+ */
+function ridingDefaults(vehicle: Vehicle, envelope: DesignFile['envelope']): Riding {
+  return { ...DEFAULT_RIDING, maxLeanDeg: vehicle.tilting ? envelope.leanDeg : 0 };
+}
+
+function resolveRiding(d: DesignFile): Riding {
+  const riding = withDefaults<Riding>(ridingDefaults(d.vehicle, d.envelope), d.riding);
+  if (!d.vehicle.tilting) riding.maxLeanDeg = 0;
+  return riding;
 }
 
 const JOINT_NAMES: readonly (keyof Joints)[] = ['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'];
@@ -155,6 +171,7 @@ export function resolveDesign(d: DesignFile): ResolvedDesign {
       ? { spring: { on: d.spring.on, frameMount: resolveSidedVec(d.spring.frameMount), armMount: resolveSidedVec(d.spring.armMount) } }
       : {}),
     parts: withDefaults<PartSizes>(DEFAULT_PART_SIZES, d.parts),
+    riding: resolveRiding(d),
   };
 }
 
@@ -247,6 +264,7 @@ export function unresolveDesign(r: ResolvedDesign): DesignFile {
 
   const tolerances = differencesFrom<Tolerances>(DEFAULT_TOLERANCES, r.tolerances);
   const parts = differencesFrom<PartSizes>(DEFAULT_PART_SIZES, r.parts);
+  const riding = differencesFrom<Riding>(ridingDefaults(r.vehicle, r.envelope), r.riding);
 
   return {
     tiltsheet: DESIGN_FORMAT_VERSION,
@@ -270,5 +288,6 @@ export function unresolveDesign(r: ResolvedDesign): DesignFile {
       ? { spring: { on: r.spring.on, frameMount: compactPoint(r.spring.frameMount), armMount: compactPoint(r.spring.armMount) } }
       : {}),
     ...(parts ? { parts } : {}),
+    ...(riding ? { riding } : {}),
   };
 }

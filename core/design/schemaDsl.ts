@@ -15,7 +15,7 @@
  * hand-written interfaces at compile time (see designSchema.ts).
  */
 
-export type Unit = 'mm' | 'deg' | 'ratio' | 'mm/deg' | '1' | '%';
+export type Unit = 'mm' | 'deg' | 'ratio' | 'mm/deg' | '1' | '%' | 'km/h' | 'g';
 
 // ---------------------------------------------------------------------------------------------
 // Nodes (runtime data)
@@ -351,6 +351,8 @@ const UNIT_PHRASE: Record<Unit, string> = {
   'mm/deg': ' in mm per degree',
   '1': '',
   '%': ' in percent',
+  'km/h': ' in km/h',
+  g: ' in g (multiples of standard gravity)',
 };
 
 const UNIT_LABEL: Record<Unit, string> = {
@@ -360,6 +362,8 @@ const UNIT_LABEL: Record<Unit, string> = {
   'mm/deg': 'mm per degree',
   '1': '',
   '%': 'percent',
+  'km/h': 'km/h',
+  g: 'g',
 };
 
 function boundsPhrase(node: NumberNode): string {

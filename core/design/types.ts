@@ -187,6 +187,24 @@ export interface PartSizes {
   steeringArmRadiusMm: number;
 }
 
+/**
+ * How the vehicle is ridden. `check` judges the operating region: the (lean, handlebar,
+ * travel) that balanced turns between minKmh and maxKmh reach, widened by the transient band
+ * and bounded by the lean limit, the grip limit and the steering limits.
+ */
+export interface Riding {
+  /** Lowest speed of the balanced turns judged, km/h. */
+  minKmh: number;
+  /** Highest speed of the balanced turns judged, km/h. */
+  maxKmh: number;
+  /** Largest lean the vehicle allows each way, degrees (0 when the vehicle does not tilt). */
+  maxLeanDeg: number;
+  /** Lean either side of the balanced lean that transients reach (countersteering), degrees. */
+  transientBandDeg: number;
+  /** Lateral grip limit of the tyres, in g (multiples of standard gravity). */
+  gripG: number;
+}
+
 export interface Vehicle {
   wheelbaseMm: number;
   /** Whether the frame leans (false: lean stays at 0). */
@@ -211,6 +229,8 @@ export interface DesignFile {
   tolerances?: Partial<Tolerances> & { toeErrorDeg?: number };
   spring?: SpringMount;
   parts?: Partial<PartSizes>;
+  /** Missing values take DEFAULT_RIDING; maxLeanDeg defaults to envelope.leanDeg. */
+  riding?: Partial<Riding>;
 }
 
 export type Side = 'left' | 'right';
@@ -255,6 +275,8 @@ export interface ResolvedDesign {
   tolerances: Tolerances;
   spring?: { on: 'upper' | 'lower'; frameMount: PerSide<Vec3Mm>; armMount: PerSide<Vec3Mm> };
   parts: PartSizes;
+  /** Always present: defaults filled; maxLeanDeg is 0 for a vehicle that does not tilt. */
+  riding: Riding;
 }
 
 /**
@@ -276,4 +298,19 @@ export const DEFAULT_PART_SIZES: PartSizes = {
   wishboneTubeRadiusMm: 10,
   tieRodRadiusMm: 6,
   steeringArmRadiusMm: 8,
+};
+
+/**
+ * Defaults of the riding block for a human-powered or small electric leaning trike. Common
+ * practice, no source: below 5 km/h a rider balances with the handlebar rather than by
+ * leaning into a steady turn; 45 km/h is about the top speed of such a vehicle on the flat;
+ * 5 degrees either side of balance covers the countersteer that starts a turn; 0.8 g is what
+ * a road tyre holds on dry tarmac without sliding. The lean limit defaults to the envelope's
+ * lean, so it is not here.
+ */
+export const DEFAULT_RIDING: Omit<Riding, 'maxLeanDeg'> = {
+  minKmh: 5,
+  maxKmh: 45,
+  transientBandDeg: 5,
+  gripG: 0.8,
 };

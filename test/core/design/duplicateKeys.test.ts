@@ -9,7 +9,7 @@
 import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { findDuplicateKeys } from '../../../core/design/duplicateKeys';
+import { findDuplicateKeys } from '../../../core/design/readJsonText';
 import { parseDesignText } from '../../../core/design/validateDesign';
 
 const FIXTURE_TEXT = readFileSync(new URL('../../fixtures/minimal.tiltsheet', import.meta.url), 'utf8');

@@ -1,0 +1,196 @@
+/**
+ * Rules across fields, checked on a design that passed the schema: coincident points, points
+ * on a line they must stay off, the steering axis against the spin axis, crown against rolling
+ * radius, a lean on a vehicle that does not tilt, the riding block against the envelope.
+ * Each issue names the path a user would fix.
+ */
+import { angleBetween, norm, RAD, scale, sub, tuple } from '../math/vec3';
+import type { DesignIssue } from './designIssue';
+import { fixed, IssueList, locate, sidePath, type Located } from './issueList';
+import { resolveDesign } from './resolveDesign';
+import { describeFound, roundForMessage } from './schemaDsl';
+import { SIDES, type DesignFile, type ResolvedDesign, type Side, type Vec3Mm } from './types';
+import { wheelSpinAxisAtDesign } from './wheelAxis';
+
+export { MIN_DISTINCT_MM } from './issueList';
+
+/** Centre-pivot pivots must lie within this of the centre line (y = 0). */
+export const CENTRE_LINE_TOLERANCE_MM = 1;
+/**
+ * The steering axis must be at least this far from the wheel's spin axis. Real axes are
+ * 60-90 degrees from it; near 0 the wheel would just spin about the axis instead of steering.
+ * The bound only catches broken input (wrong point, swapped coordinates).
+ */
+export const MIN_STEER_TO_SPIN_AXIS_DEG = 10;
+
+/**
+ * The wheel's spin axis at design position from static toe and camber, pointing outward
+ * (the mechanism's convention, which points left on both sides, turned outward here).
+ */
+export function spinAxis(side: Side, toeDeg: number, camberDeg: number): Vec3Mm {
+  const [x, y, z] = wheelSpinAxisAtDesign(side, toeDeg, camberDeg);
+  const s = side === 'right' ? -1 : 1;
+  return { x: s * x, y: s * y, z: s * z };
+}
+
+export function checkAcrossFields(d: DesignFile): DesignIssue[] {
+  const r = resolveDesign(d);
+  const list = new IssueList();
+  checkFrontEnd(d, r, list);
+  checkUpright(d, r, list);
+  checkSteering(d, r, list);
+  checkSpring(d, r, list);
+  checkWheels(d, list);
+  checkEnvelope(d, list);
+  checkRiding(d, r, list);
+  return list.issues;
+}
+
+function outerJoints(d: DesignFile, r: ResolvedDesign, side: Side): { upper: Located; lower: Located } {
+  return {
+    upper: locate(d.frontEnd.upper.outerJoint, r.frontEnd.upper.outerJoint, 'frontEnd.upper.outerJoint', side),
+    lower: locate(d.frontEnd.lower.outerJoint, r.frontEnd.lower.outerJoint, 'frontEnd.lower.outerJoint', side),
+  };
+}
+
+function checkFrontEnd(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  for (const side of SIDES) {
+    if (d.frontEnd.kind === 'splitWishbones' && r.frontEnd.kind === 'splitWishbones') {
+      for (const which of ['upper', 'lower'] as const) {
+        const raw = d.frontEnd[which];
+        const res = r.frontEnd[which];
+        const base = `frontEnd.${which}`;
+        const front = locate(raw.frontPivot, res.frontPivot, `${base}.frontPivot`, side);
+        const rear = locate(raw.rearPivot, res.rearPivot, `${base}.rearPivot`, side);
+        const outer = locate(raw.outerJoint, res.outerJoint, `${base}.outerJoint`, side);
+        list.distinct(front, rear, 'the two inner pivots define the wishbone pivot axis');
+        list.offLine(outer, front, rear, 'the outer joint on the pivot axis would give the wishbone no length');
+      }
+    } else if (d.frontEnd.kind === 'centrePivot' && r.frontEnd.kind === 'centrePivot') {
+      for (const which of ['upper', 'lower'] as const) {
+        const res = r.frontEnd[which];
+        const base = `frontEnd.${which}`;
+        const outer = locate(d.frontEnd[which].outerJoint, res.outerJoint, `${base}.outerJoint`, side);
+        list.offLine(outer, fixed(res.pivot, `${base}.pivot`), { direction: res.pivotAxis, path: `${base}.pivotAxis` },
+          'the outer joint on the pivot axis would give the member no length');
+      }
+    }
+    const { upper, lower } = outerJoints(d, r, side);
+    list.distinct(upper, lower, 'the upper and lower outer joints define the steering axis');
+  }
+
+  if (d.frontEnd.kind === 'centrePivot' && r.frontEnd.kind === 'centrePivot') {
+    list.distinct(fixed(r.frontEnd.upper.pivot, 'frontEnd.upper.pivot'), fixed(r.frontEnd.lower.pivot, 'frontEnd.lower.pivot'),
+      'the upper and lower members form a parallelogram with the uprights');
+    for (const which of ['upper', 'lower'] as const) {
+      const y = r.frontEnd[which].pivot.y;
+      if (Math.abs(y) >= CENTRE_LINE_TOLERANCE_MM) {
+        list.expected(`frontEnd.${which}.pivot.y`, `a y within ${CENTRE_LINE_TOLERANCE_MM} mm of 0 (a centre-pivot member pivots on the centre line)`, String(y));
+      }
+    }
+  }
+}
+
+function checkUpright(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  for (const side of SIDES) {
+    const { upper, lower } = outerJoints(d, r, side);
+    const arm = locate(d.upright.steeringArmJoint, r.upright.steeringArmJoint, 'upright.steeringArmJoint', side);
+    list.offLine(arm, upper, lower, 'the steering arm needs length off the steering axis to turn the wheel');
+
+    const centre = r.upright.wheelCentre[side];
+    if (!(centre.z > 0)) {
+      list.expected(`${sidePath(d.upright.wheelCentre, 'upright.wheelCentre', side)}.z`, 'a wheel centre above the ground (z > 0 mm)', String(centre.z), side);
+    }
+
+    const steerAxis = sub(tuple(upper.at), tuple(lower.at));
+    if (norm(steerAxis) === 0) continue; // coincident joints, reported above
+    const spin = tuple(spinAxis(side, r.upright.staticToeDeg[side], r.upright.staticCamberDeg[side]));
+    // The angle between the lines, whichever way each points: at most 90 degrees.
+    const lineAngleDeg = Math.min(angleBetween(steerAxis, spin), angleBetween(steerAxis, scale(spin, -1))) * RAD;
+    if (lineAngleDeg < MIN_STEER_TO_SPIN_AXIS_DEG) {
+      const found = `${roundForMessage(lineAngleDeg)}°`;
+      const expected = `at least ${MIN_STEER_TO_SPIN_AXIS_DEG}° between the steering axis and the spin axis`;
+      list.add({
+        path: upper.path,
+        message:
+          `${upper.path}: the steering axis (${upper.path} to ${lower.path}) is only ${found} from the wheel's spin axis ` +
+          `(set by upright.staticToeDeg and upright.staticCamberDeg); expected ${expected}, or turning it would not steer the wheel`,
+        expected,
+        found,
+      }, side);
+    }
+  }
+}
+
+function checkSteering(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  const s = d.steering;
+  const rs = r.steering;
+  for (const side of SIDES) {
+    const inner = locate(s.tieRodJoint, rs.tieRodJoint, 'steering.tieRodJoint', side);
+    const outer = locate(d.upright.steeringArmJoint, r.upright.steeringArmJoint, 'upright.steeringArmJoint', side);
+    list.distinct(outer, inner, 'the tie rod runs between them');
+    if (rs.kind === 'bellCrank' || rs.kind === 'direct') {
+      list.offLine(inner, fixed(rs.pivot, 'steering.pivot'), { direction: rs.axis, path: 'steering.axis' },
+        'a joint on the pivot axis does not move when the crank turns');
+    }
+  }
+  if (s.kind === 'bellCrank' && s.input.kind === 'dragLink') {
+    const input = s.input;
+    const columnArm = fixed(input.columnArmJoint, 'steering.input.columnArmJoint');
+    const crankArm = fixed(input.crankArmJoint, 'steering.input.crankArmJoint');
+    list.distinct(columnArm, crankArm, 'the drag link runs between them');
+    list.offLine(columnArm, fixed(input.columnPivot, 'steering.input.columnPivot'), { direction: input.columnAxis, path: 'steering.input.columnAxis' },
+      'a joint on the column axis does not move when the handlebar turns');
+    list.offLine(crankArm, fixed(s.pivot, 'steering.pivot'), { direction: s.axis, path: 'steering.axis' },
+      'a joint on the crank axis cannot turn the crank');
+  }
+}
+
+function checkSpring(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  if (!d.spring || !r.spring) return;
+  for (const side of SIDES) {
+    list.distinct(
+      locate(d.spring.frameMount, r.spring.frameMount, 'spring.frameMount', side),
+      locate(d.spring.armMount, r.spring.armMount, 'spring.armMount', side),
+      'the spring runs between them',
+    );
+  }
+}
+
+function checkWheels(d: DesignFile, list: IssueList): void {
+  for (const axle of ['front', 'rear'] as const) {
+    const tyre = d.wheels[axle];
+    if (tyre.crownRadiusMm > tyre.rollingRadiusMm) {
+      const expected = `a crown radius in mm at most the rolling radius (wheels.${axle}.rollingRadiusMm = ${tyre.rollingRadiusMm})`;
+      list.expected(`wheels.${axle}.crownRadiusMm`, expected, String(tyre.crownRadiusMm));
+    }
+  }
+}
+
+function checkEnvelope(d: DesignFile, list: IssueList): void {
+  if (!d.vehicle.tilting && d.envelope.leanDeg !== 0) {
+    list.expected('envelope.leanDeg', '0 degrees, because vehicle.tilting is false (the frame does not lean)', describeFound(d.envelope.leanDeg));
+  }
+}
+
+/**
+ * The speed range must be a range, and the lean limit must lie inside the envelope that the
+ * design is checked over. Judged on the resolved values, so a bound given against a default
+ * is caught too; the message names the field the file gives (or the other bound's default).
+ */
+function checkRiding(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  const given = d.riding;
+  if (!given) return;
+  const { minKmh, maxKmh } = r.riding;
+  if (!(minKmh < maxKmh)) {
+    const blamed = given.maxKmh !== undefined ? 'maxKmh' : 'minKmh';
+    const other = blamed === 'maxKmh' ? 'minKmh' : 'maxKmh';
+    const otherValue = `${r.riding[other]} km/h${given[other] === undefined ? ', the default' : ''}`;
+    const expected = blamed === 'maxKmh' ? `a speed in km/h above riding.minKmh (${otherValue})` : `a speed in km/h below riding.maxKmh (${otherValue})`;
+    list.expected(`riding.${blamed}`, expected, String(r.riding[blamed]));
+  }
+  if (d.vehicle.tilting && given.maxLeanDeg !== undefined && given.maxLeanDeg > d.envelope.leanDeg) {
+    const expected = `at most envelope.leanDeg (${d.envelope.leanDeg} degrees), the largest lean the design is checked over; raise envelope.leanDeg too`;
+    list.expected('riding.maxLeanDeg', expected, String(given.maxLeanDeg));
+  }
+}
