@@ -8,6 +8,8 @@
  * coordinates are zero). A body's pose maps design coordinates to world coordinates.
  */
 
+import type { DrawingLayout } from './drawingLayout';
+
 export type Vec3 = [number, number, number];
 
 /** Named inputs of a pose, in the units of the user interface (degrees, millimetres). */
@@ -166,4 +168,9 @@ export interface MechanismGraph {
   links: LinkRef[];
   /** Index of the body that is the vehicle frame (lean and heave act on it). */
   frameBody: number;
+  /**
+   * How to draw the mechanism, from the template that built it (`drawingLayout.ts`). Graphs
+   * built by hand (tests) may leave it out; the solver never reads it.
+   */
+  drawing?: DrawingLayout;
 }
