@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import type { ResolvedDesign, Vec3Mm, PerSide } from '../../../core/design/types';
 import { validateDesign } from '../../../core/design/validateDesign';
 import { resolveDesign } from '../../../core/design/resolveDesign';
-import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES } from '../../../core/design/types';
+import { DEFAULT_PART_SIZES, DEFAULT_RIDING, DEFAULT_TOLERANCES } from '../../../core/design/types';
 
 export const P = (x: number, y: number, z: number): Vec3Mm => ({ x, y, z });
 
@@ -60,6 +60,8 @@ export function splitDesign(l: SplitLayout): ResolvedDesign {
     },
     joints: { upperOuter: joint, lowerOuter: joint, tieRodOuter: joint, tieRodInner: joint },
     envelope: { leanDeg: 45, handlebarDeg: 40, bumpMm: 100, reboundMm: 100 },
+    // as resolveDesign fills it: the lean limit defaults to the envelope's lean
+    riding: { ...DEFAULT_RIDING, maxLeanDeg: 45 },
     tolerances: { ...DEFAULT_TOLERANCES },
     parts: { ...DEFAULT_PART_SIZES },
   };
