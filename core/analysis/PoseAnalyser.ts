@@ -22,7 +22,7 @@ import type {
   WheelAlignment,
 } from './analysisTypes';
 import { wheelAlignment } from './alignment';
-import { ackermann, type PlanWheel } from './ackermann';
+import { ackermann, straightAheadDeg, type PlanWheel } from './ackermann';
 import { clearancePairs, measureClearances, type ClearancePair } from './clearance';
 import { articulation, tieRodArticulation } from './jointArticulation';
 import { GeometryReader, type PoseGeometry, type SideGeometry } from './poseGeometry';
@@ -120,6 +120,8 @@ export class PoseAnalyser {
   private readonly rear: PlanTyre[];
   private readonly pivotWorld: Vec3 = [0, 0, 0];
   private readonly lowerJointZ: { left: number; right: number };
+  /** Straight-ahead threshold of the inner road-wheel angle (ackermann.ts), degrees. */
+  private readonly straightDeg: number;
 
   constructor(design: ResolvedDesign, mechanism: CompiledMechanism, options: AnalyserOptions = {}) {
     this.design = design;
@@ -144,6 +146,7 @@ export class PoseAnalyser {
     this.armSign = arm;
     this.linkSign = link;
     this.tieAxisDesign = tie;
+    this.straightDeg = straightAheadDeg(design.upright.staticToeDeg);
     this.lowerJointZ = { left: design.frontEnd.lower.outerJoint.left.z, right: design.frontEnd.lower.outerJoint.right.z };
     const rt = design.wheels.rear;
     const rearTyre = (y: number): PlanTyre => ({ x: -design.vehicle.wheelbaseMm, y, heading: 0, rollingRadiusMm: rt.rollingRadiusMm, widthMm: rt.tyreWidthMm });
@@ -167,7 +170,7 @@ export class PoseAnalyser {
 
     const pl = planWheel(left, g.left);
     const pr = planWheel(right, g.right);
-    const ack = ackermann(pl, pr, rearX);
+    const ack = ackermann(pl, pr, rearX, this.straightDeg);
     const slip = slipMeasures(pl, pr, rearX);
     const tc = turningCircle({
       left: { x: pl.x, y: pl.y, heading: pl.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
@@ -175,6 +178,7 @@ export class PoseAnalyser {
       rear: this.rear,
       rearAxleX: rearX,
       bodyOutline: d.vehicle.bodyOutline,
+      straightAheadDeg: this.straightDeg,
     });
 
     const steering = this.steering(g, inputs, left.steerDeg, right.steerDeg);

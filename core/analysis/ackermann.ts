@@ -20,7 +20,23 @@ import type { AckermannMeasures, XyMm } from './analysisTypes';
 import { DEG, RAD } from './vec3';
 
 /** Below this inner angle the turn is called straight ahead: no turn centre to speak of. */
-export const STRAIGHT_AHEAD_DEG = 0.1;
+/**
+ * Below this inner road-wheel angle (in the direction of the turn) the vehicle is called
+ * straight ahead: no Ackermann figures, turn centre or turning circle. A choice: 1 degree, or
+ * twice the larger static toe when that is more, so that static toe alone (the wheels
+ * pointing in or out with the handlebar centred) never reads as a turn.
+ */
+export const STRAIGHT_AHEAD_DEG = 1;
+
+export function straightAheadDeg(staticToeDeg: { left: number; right: number }): number {
+  return Math.max(STRAIGHT_AHEAD_DEG, 2 * Math.max(Math.abs(staticToeDeg.left), Math.abs(staticToeDeg.right)));
+}
+
+/** The inner road-wheel angle in the direction of the turn the mean angle makes, degrees. */
+export function innerWheelDeg(left: PlanWheel, right: PlanWheel): number {
+  const mean = (left.heading + right.heading) / 2;
+  return mean >= 0 ? left.heading * RAD : -right.heading * RAD;
+}
 
 export interface PlanWheel {
   /** Contact centre in the ground plane, mm. */
@@ -68,9 +84,11 @@ function none(reason: string): AckermannMeasures {
   };
 }
 
+export const straightAheadReason = (straightDeg: number) => `straight ahead (inner road wheel under ${straightDeg} deg)`;
+
 const cot = (d: number): number => 1 / Math.tan(d * DEG);
 
-export function ackermann(left: PlanWheel, right: PlanWheel, rearAxleX: number): AckermannMeasures {
+export function ackermann(left: PlanWheel, right: PlanWheel, rearAxleX: number, straightDeg = STRAIGHT_AHEAD_DEG): AckermannMeasures {
   const mean = (left.heading + right.heading) / 2;
   const turn: 'left' | 'right' = mean >= 0 ? 'left' : 'right';
   const dir = turn === 'left' ? 1 : -1;
@@ -79,7 +97,7 @@ export function ackermann(left: PlanWheel, right: PlanWheel, rearAxleX: number):
   const outer = turn === 'left' ? right : left;
   const innerDeg = dir * inner.heading * RAD;
   const outerDeg = dir * outer.heading * RAD;
-  if (!(innerDeg >= STRAIGHT_AHEAD_DEG)) return none(`straight ahead (inner wheel under ${STRAIGHT_AHEAD_DEG} deg): no turn centre`);
+  if (!(innerDeg >= straightDeg)) return none(straightAheadReason(straightDeg));
   const centre = axisLineMeetsX(inner, rearAxleX);
   if (!centre) return none('straight ahead: no turn centre');
   const ideal = dir * headingThrough(outer.x, outer.y, centre) * RAD;

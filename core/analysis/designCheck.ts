@@ -1,7 +1,10 @@
 /**
  * Checking a design over its envelope: sweep design.envelope and keep, for each tolerance,
  * each joint and each clearance pair, the worst value and where it occurs, judged against
- * the design's tolerances (tolerance.ts). Made for `tiltbench check` and for CI of designs.
+ * the design's tolerances (tolerance.ts). Two sections from one sweep: the operating region
+ * (the poses balanced turns within the riding block reach, ridingRegion.ts), which decides by
+ * default, and the full grid, which `--region full` makes decide. Made for `tiltbench check`
+ * and for CI of designs.
  */
 
 import type { ResolvedDesign, Side } from '../design/types';
@@ -12,6 +15,7 @@ import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip
 import { JOINT_WORDS, PART_WORDS } from './words';
 import { TIE_ROD_SPIN_TREATMENT } from './jointArticulation';
 import { steerLimits, type LeanLimits } from './limits';
+import { PoseEngine } from './PoseEngine';
 
 export interface CheckWhere {
   leanDeg: number;
@@ -34,13 +38,33 @@ export interface CheckItem {
   detail?: string;
 }
 
+/** One judged set of poses: the operating region, or the whole lean x handlebar x travel grid. */
+export interface CheckSection {
+  region: CheckRegion;
+  /** Poses of the grid in this section. */
+  poses: number;
+  items: CheckItem[];
+  /** True when no item is over its limit or broken (close is allowed). */
+  passed: boolean;
+}
+
+/** 'operating': the poses balanced turns reach (ridingRegion.ts); 'full': the whole grid. */
+export type CheckRegion = 'operating' | 'full';
+
 export interface DesignCheck {
   design: string;
   contact: SweepContact;
   axes: SweepAxes;
+  /** Which section decides `passed` (and whose items `items` are). */
+  judged: CheckRegion;
+  operating: CheckSection;
+  full: CheckSection;
+  /** The judged section's items. */
   items: CheckItem[];
-  /** True when no item is over its limit or broken (close is allowed). */
+  /** The judged section passed. */
   passed: boolean;
+  /** The riding assumptions that define the operating region. */
+  riding: ResolvedDesign['riding'];
   /** Plain facts worth printing beside the table (turning circle at full lock, treatments). */
   info: string[];
   /**
@@ -63,7 +87,9 @@ export class CheckAccumulator {
   private readonly accs = new Map<string, Acc>();
   private failedCount = 0;
   private firstFailure: { where: CheckWhere; message: string } | null = null;
-  private bestTurn: Record<Side, { kerb: number; wall: number; where: CheckWhere } | null> = { left: null, right: null };
+  private poses = 0;
+  /** Turning circles at lean 0 and travel 0, per turn direction, for the info lines. */
+  private turns: Record<Side, { kerb: number; wall: number; where: CheckWhere }[]> = { left: [], right: [] };
 
   constructor(design: ResolvedDesign) {
     this.design = design;
@@ -94,6 +120,7 @@ export class CheckAccumulator {
   }
 
   add(cell: SweepCell): void {
+    this.poses++;
     const where = { leanDeg: cell.leanDeg, handlebarDeg: cell.handlebarDeg, travelMm: cell.travelMm };
     if (!cell.ok) {
       this.failedCount++;
@@ -115,12 +142,38 @@ export class CheckAccumulator {
     const tc = a.turningCircle;
     if (cell.leanDeg === 0 && cell.travelMm === 0 && tc.outerSide && tc.kerbToKerbMm !== null && tc.wallToWallMm !== null) {
       const turn: Side = tc.outerSide === 'right' ? 'left' : 'right';
-      const best = this.bestTurn[turn];
-      if (!best || tc.kerbToKerbMm < best.kerb) this.bestTurn[turn] = { kerb: tc.kerbToKerbMm, wall: tc.wallToWallMm, where };
+      this.turns[turn].push({ kerb: tc.kerbToKerbMm, wall: tc.wallToWallMm, where });
     }
   }
 
-  result(): { items: CheckItem[]; passed: boolean; info: string[] } {
+  /**
+   * The tightest turning circle each way at lean 0, only at handlebar angles inside the
+   * steering limit found for that way (`limitDeg`, signed; null: no limit met).
+   */
+  turningCircleInfo(limitDeg: Record<Side, number | null>): string[] {
+    const info: string[] = [];
+    for (const turn of ['left', 'right'] as Side[]) {
+      const lim = limitDeg[turn];
+      const allowed = this.turns[turn].filter((t) => lim === null || Math.abs(t.where.handlebarDeg) <= Math.abs(lim) + 1e-9);
+      const b = allowed.reduce<(typeof allowed)[number] | null>((best, t) => (!best || t.kerb < best.kerb ? t : best), null);
+      if (b) {
+        info.push(
+          `turning circle, ${turn} turn at lean 0 (handlebar ${b.where.handlebarDeg.toFixed(1)} deg${lim === null ? '' : `, inside the steering limit ${lim.toFixed(1)} deg`}): ` +
+            `kerb to kerb ${(b.kerb / 1000).toFixed(2)} m, wall to wall ${(b.wall / 1000).toFixed(2)} m (SAE J695)`,
+        );
+      } else if (this.turns[turn].length) {
+        info.push(`turning circle, ${turn} turn: none inside the steering limit`);
+      }
+    }
+    return info;
+  }
+
+  section(region: CheckRegion): CheckSection {
+    const { items, passed } = this.result();
+    return { region, poses: this.poses, items, passed };
+  }
+
+  result(): { items: CheckItem[]; passed: boolean } {
     const tol = this.design.tolerances;
     const items: CheckItem[] = [];
     for (const [id, acc] of this.accs) {
@@ -149,43 +202,59 @@ export class CheckAccumulator {
       }
       items.push(it);
     }
-    const info: string[] = [];
-    for (const turn of ['left', 'right'] as Side[]) {
-      const b = this.bestTurn[turn];
-      if (b) {
-        info.push(
-          `turning circle, ${turn} turn at lean 0 (handlebar ${b.where.handlebarDeg.toFixed(1)} deg): ` +
-            `kerb to kerb ${(b.kerb / 1000).toFixed(2)} m, wall to wall ${(b.wall / 1000).toFixed(2)} m (SAE J695)`,
-        );
-      }
-    }
-    info.push(TIE_ROD_SPIN_TREATMENT);
-    return { items, passed: items.every((i) => i.verdict !== 'over' && i.verdict !== 'broken'), info };
+    return { items, passed: items.every((i) => i.verdict !== 'over' && i.verdict !== 'broken') };
   }
 }
 
 export interface CheckOptions {
   contact?: SweepContact;
   steps?: { leanDeg?: number; handlebarDeg?: number; travelMm?: number };
+  /** Which section decides the verdict (default 'operating'). */
+  judged?: CheckRegion;
   onProgress?: (done: number, total: number) => void;
 }
 
 export function checkDesign(design: ResolvedDesign, options: CheckOptions = {}): DesignCheck {
   const contact = options.contact ?? 'ground';
+  const judged = options.judged ?? 'operating';
   const axes = envelopeAxes(design, options.steps, contact);
-  const acc = new CheckAccumulator(design);
-  const summary = runSweep(design, axes, { contact, onProgress: options.onProgress }, (c) => acc.add(c));
-  const { items, passed, info } = acc.result();
+  const engine = new PoseEngine(design, { contact, steerBy: 'handlebar' }, { findings: false });
+  const operatingAcc = new CheckAccumulator(design);
+  const fullAcc = new CheckAccumulator(design);
+  const summary = runSweep(design, axes, { contact, engine, onProgress: options.onProgress }, (c) => {
+    fullAcc.add(c);
+    if (c.region.inside) operatingAcc.add(c);
+  });
+  const operating = operatingAcc.section('operating');
+  const full = fullAcc.section('full');
   const L = design.vehicle.tilting ? design.envelope.leanDeg : 0;
   const leans = L > 0 ? [-L, -L / 2, 0, L / 2, L] : [0];
   const limits = steerLimits(design, leans, {
     contact,
+    engine,
     stepDeg: Math.max(0.5, design.envelope.handlebarDeg / 25),
     maxHandlebarDeg: Math.max(10, 2 * design.envelope.handlebarDeg),
     toleranceDeg: 0.05,
   });
+  const upright = limits.find((l) => l.leanDeg === 0);
+  const info = fullAcc.turningCircleInfo({ left: upright?.left.handlebarDeg ?? null, right: upright?.right.handlebarDeg ?? null });
+  info.push(TIE_ROD_SPIN_TREATMENT);
   if (contact === 'ground' && design.frontEnd.kind === 'centrePivot' && (design.envelope.bumpMm > 0 || design.envelope.reboundMm > 0)) {
     info.unshift('travel not swept: a centre-pivot front end on the ground has its ride height set by the linkage');
   }
-  return { design: design.name, contact, axes, items, passed, info, limits, summary };
+  const decides = judged === 'operating' ? operating : full;
+  return {
+    design: design.name,
+    contact,
+    axes,
+    judged,
+    operating,
+    full,
+    items: decides.items,
+    passed: decides.passed,
+    riding: design.riding,
+    info,
+    limits,
+    summary,
+  };
 }

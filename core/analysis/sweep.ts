@@ -27,6 +27,7 @@ import { failedPose } from './PoseAnalyser';
 import { PoseEngine } from './PoseEngine';
 import { completeMeasures, ratioBetween, type BaseSteer, type PoseRelatives, type Relative } from './relativeMeasures';
 import { VERDICT_ORDER, type Verdict } from './tolerance';
+import { inRidingRegion, turnOf, type RegionVerdict, type Turn } from './ridingRegion';
 
 export type SweepContact = 'ground' | 'travel';
 
@@ -57,7 +58,10 @@ export interface SweepPoint {
   travelMm: number;
 }
 
-export type SweepCell = SweepPoint & ({ ok: true; analysis: PoseAnalysis } | { ok: false; failure: FailedPose });
+export type SweepCell = SweepPoint & {
+  /** Whether the pose lies in the design's operating region (ridingRegion.ts). */
+  region: RegionVerdict;
+} & ({ ok: true; analysis: PoseAnalysis } | { ok: false; failure: FailedPose });
 
 export interface SweepSummary {
   poses: number;
@@ -66,6 +70,10 @@ export interface SweepSummary {
   byStatus: Record<Verdict, number>;
   /** Poses solved (main grid plus the reference pass). */
   solves: number;
+  /** Poses in the operating region. */
+  inRegion: number;
+  /** The turn each handlebar value makes upright (zero lean and travel), in handlebar order. */
+  uprightTurns: Turn[];
   elapsedMs: number;
 }
 
@@ -157,6 +165,13 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
     const n = rowNeighbours(uprightRow, i);
     return 'value' in n ? ratioBetween(n.value.lower, n.value.upper) : { reason: `upright: ${n.reason}` };
   });
+  const turnAt = (a: PoseAnalysis | null): Turn => (a ? turnOf(a.slip.turnCentreMm?.y ?? null, a.slip.turnRadiusMm) : { side: 'straight' });
+  const uprightTurns = uprightRow.map(turnAt);
+  const tilting = design.vehicle.tilting;
+  // A cell's region from the turn it makes; a cell that failed takes the upright turn of its handlebar.
+  const regionOf = (lean: number, a: PoseAnalysis | null, si: number): RegionVerdict =>
+    inRidingRegion(lean, a ? turnAt(a) : uprightTurns[si], design.riding, tilting);
+  let inRegion = 0;
   const straight = axes.handlebarDeg.indexOf(0);
   const base: Relative<BaseSteer> =
     straight >= 0 && uprightRow[straight]
@@ -189,11 +204,13 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
         if (r.reached) {
           const analysis = grid.analyser.analyse(r);
           rowAnalyses[si] = analysis;
-          rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: true, analysis };
+          const region = regionOf(lean, analysis, si);
+          rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, region, ok: true, analysis };
         } else {
           rowAnalyses[si] = null;
           const asked = { leanDeg: lean, handlebarDeg: bar, heaveMm: input.heaveMm, travelRightMm: input.travelRightMm, travelLeftMm: input.travelLeftMm, wheelAngleDeg: 0 };
-          rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, ok: false, failure: failedPose(asked, r) };
+          const region = regionOf(lean, null, si);
+          rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, region, ok: false, failure: failedPose(asked, r) };
         }
         done++;
         if (options.onProgress && done % every === 0) options.onProgress(done, total);
@@ -208,6 +225,7 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
       }
       for (let si = 0; si < nS; si++) {
         const c = rowCells[si];
+        if (c.region.inside) inRegion++;
         if (c.ok) {
           const rel: PoseRelatives = { neighbours: rowNeighbours(rowAnalyses, si), straight: straightRel, base, uprightLocalRatio: uprightRatio[si] };
           completeMeasures(c.analysis, rel, tol, words);
@@ -222,7 +240,7 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
     }
   }
   if (options.onProgress && done % every !== 0) options.onProgress(done, total);
-  return { poses: total, solved, failed, byStatus: counts, solves, elapsedMs: Date.now() - t0 };
+  return { poses: total, solved, failed, byStatus: counts, solves, inRegion, uprightTurns, elapsedMs: Date.now() - t0 };
 }
 
 /**

@@ -17,7 +17,7 @@
 
 import type { Side, Vec2Mm } from '../design/types';
 import type { TurningCircle, XyMm } from './analysisTypes';
-import { axisLineMeetsX, STRAIGHT_AHEAD_DEG, type PlanWheel } from './ackermann';
+import { axisLineMeetsX, innerWheelDeg, STRAIGHT_AHEAD_DEG, straightAheadReason, type PlanWheel } from './ackermann';
 import { RAD } from './vec3';
 
 export interface PlanTyre extends PlanWheel {
@@ -32,6 +32,8 @@ export interface TurningCircleInputs {
   rear: PlanTyre[];
   rearAxleX: number;
   bodyOutline?: Vec2Mm[];
+  /** Straight-ahead threshold on the inner road-wheel angle (ackermann.ts), degrees. */
+  straightAheadDeg?: number;
 }
 
 /** Farthest squared distance from c to a tyre's plan-view rectangle (its four corners). */
@@ -63,7 +65,9 @@ export function turningCircle(p: TurningCircleInputs): TurningCircle {
   const mean = (p.left.heading + p.right.heading) / 2;
   const outerSide: Side = mean >= 0 ? 'right' : 'left';
   const outer = outerSide === 'right' ? p.right : p.left;
-  if (Math.abs(outer.heading) * RAD < STRAIGHT_AHEAD_DEG || Math.sign(outer.heading) !== Math.sign(mean)) {
+  const straightDeg = p.straightAheadDeg ?? STRAIGHT_AHEAD_DEG;
+  if (!(innerWheelDeg(p.left, p.right) >= straightDeg)) return none(straightAheadReason(straightDeg));
+  if (Math.sign(outer.heading) !== Math.sign(mean)) {
     return none('the outer wheel is not steered into the turn: no turning circle');
   }
   const centre = axisLineMeetsX(outer, p.rearAxleX);

@@ -72,7 +72,7 @@ describe('tiltbench sweep', () => {
     expect(j.definitions.ackermann).toMatch(/adopted/);
     expect(j.rows.length).toBe(4);
     const col = (name: string) => j.columns.findIndex((c: { name: string }) => c.name === name);
-    const failed = j.rows.filter((row: unknown[]) => row[col('status')] === 'cannot-assemble');
+    const failed = j.rows.filter((row: unknown[]) => row[col('status')] === 'broken');
     expect(failed.length).toBe(2);
     for (const row of failed) {
       expect(row[col('left.toeDeg')]).toBeNull();
@@ -156,19 +156,20 @@ describe('tiltbench pose gains every measure', () => {
     expect(r.code).toBe(0);
     const j = JSON.parse(r.out);
     expect(j.wheels.left.toeDeg).toBeCloseTo(j.analysis.wheels.left.toeDeg, 12);
-    for (const key of ['wheels', 'steering', 'ackermann', 'slip', 'turningCircle', 'joints', 'clearances', 'suspension', 'toeError', 'worst', 'status']) {
+    for (const key of ['wheels', 'steering', 'ackermann', 'slip', 'turningCircle', 'joints', 'clearances', 'suspension', 'selfSteer', 'worst', 'status', 'checks']) {
       expect(j.analysis[key]).toBeDefined();
     }
     expect(j.analysis.steering.localRatio).not.toBeNull();
     expect(j.analysis.suspension.frontLiftMm).not.toBeNull();
-    expect(j.analysis.toeError.leftDeg).not.toBeNull();
+    expect(j.analysis.selfSteer.leftDeg).not.toBeNull();
+    expect(j.analysis.steering.ratioChangePct).not.toBeNull();
     expect(j.definitions.tieRodSpin).toMatch(/minimax/);
     expect(r.out).not.toMatch(/NaN/);
   });
 
   it('the text output shows the measures', async () => {
     const r = await run(['pose', HERON, '--steer', '15']);
-    for (const text of ['caster', 'KPI', 'trail', 'scrub radius', 'Ackermann', 'turning circle', 'roll centre', 'tieRodInner', 'tyre-lowerArm', 'status:']) {
+    for (const text of ['caster', 'KPI', 'trail', 'scrub radius', 'Ackermann', 'turning circle', 'roll centre', 'tie rod, inner end', 'tyre to lower arm', 'self-steer', 'steering-ratio change', 'verdict:']) {
       expect(r.out).toContain(text);
     }
   });

@@ -3,16 +3,19 @@ import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
 // The analysis modules are loaded when the command runs, so other commands start faster.
-import type { CheckItem, DesignCheck } from '../../analysis/designCheck';
-import type { LeanLimits } from '../../analysis/limits';
+import type { CheckItem, CheckRegion, CheckSection, DesignCheck } from '../../analysis/designCheck';
+import type { LeanLimits, LimitKind } from '../../analysis/limits';
 import type { SweepAxes } from '../../analysis/sweep';
 import { parseContact, progressBar, summaryLine } from './sweep';
 
-export const checkHelp = `tiltbench check <design.tiltsheet> [--lean-step DEG] [--steer-step DEG] [--travel-step MM] [--contact ground|travel] [--json]
+export const checkHelp = `tiltbench check <design.tiltsheet> [--region operating|full] [--lean-step DEG] [--steer-step DEG] [--travel-step MM] [--contact ground|travel] [--json]
   Sweeps the design's envelope (envelope.leanDeg each way, envelope.handlebarDeg each way,
-  -envelope.reboundMm..envelope.bumpMm of travel, each including 0) and prints a table of every
-  tolerance (toe error, slip), every joint and every clearance pair with its worst value, where
-  it occurs (lean, handlebar, travel) and whether it passes the design's tolerances.
+  -envelope.reboundMm..envelope.bumpMm of travel, each including 0) and prints, for the
+  operating region (the poses balanced turns at the riding block's speeds reach, widened by its
+  transient band, within its lean and grip limits) and for the full rectangle, a table of every
+  tolerance (self-steer, steering-ratio change, slip), every joint and every clearance pair with
+  its worst value, where it occurs (lean, handlebar, travel) and its verdict.
+  --region operating|full             which section decides the result (default operating)
   --lean-step DEG, --steer-step DEG   grid spacing, at most (default 1)
   --travel-step MM                    grid spacing, at most (default 10)
   --contact ground|travel             tyres on the ground (default; travel lowers the frame), or
@@ -44,43 +47,73 @@ function axisText(values: number[], unit: string): string {
   return `${values[0]}..${values[values.length - 1]} ${unit} (${values.length} values)`;
 }
 
+function sectionTable(sec: CheckSection): string[] {
+  const rows: string[][] = [['item', 'worst', 'where (lean, handlebar, travel)', 'allowed', 'verdict', '']];
+  for (const it of sec.items) rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), it.detail ?? '']);
+  const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
+  return rows.map((r) => r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]) : cell.padEnd(widths[i]))).join('  ').trimEnd());
+}
+
+function sectionVerdict(sec: CheckSection): string {
+  const fails = sec.items.filter((i) => i.verdict === 'over' || i.verdict === 'broken').length;
+  const close = sec.items.filter((i) => i.verdict === 'close').length;
+  return sec.passed
+    ? `PASS (${sec.items.length} items, ${close} close to the limit)`
+    : `FAIL (${fails} of ${sec.items.length} items over the limit or broken, ${close} close to the limit)`;
+}
+
+const SECTION_TITLE: Record<CheckRegion, string> = {
+  operating: 'operating region: the poses balanced turns reach, where the vehicle is ridden',
+  full: 'full rectangle: every pose of the grid, including poses the vehicle never rides',
+};
+
 export function formatCheck(c: DesignCheck): string {
   const a: SweepAxes = c.axes;
+  const r = c.riding;
   const header = [
     `${c.design}: check over the envelope, ${c.contact === 'ground' ? 'tyres on the ground' : 'wheel travel relative to the frame'}`,
-    `  lean ${axisText(a.leanDeg, 'deg')} x handlebar ${axisText(a.handlebarDeg, 'deg')} x travel ${axisText(a.travelMm, 'mm')}: ${summaryLine(c.summary)}`,
+    `  grid: lean ${axisText(a.leanDeg, 'deg')} x handlebar ${axisText(a.handlebarDeg, 'deg')} x travel ${axisText(a.travelMm, 'mm')}: ${summaryLine(c.summary)}`,
+    `  riding: ${r.minKmh}..${r.maxKmh} km/h, lean limit ${r.maxLeanDeg} deg, transient band ${r.transientBandDeg} deg, grip ${r.gripG} g ` +
+      '(balanced turn: tan(lean) = v^2 / (g R), R the rear axle centre path radius)',
     '',
   ];
-  const rows: string[][] = [['item', 'worst', 'where (lean, handlebar, travel)', 'allowed', 'verdict', '']];
-  for (const it of c.items) {
-    rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), it.detail ?? '']);
+  const order: CheckRegion[] = c.judged === 'operating' ? ['operating', 'full'] : ['full', 'operating'];
+  const sections: string[] = [];
+  for (const region of order) {
+    const sec = region === 'operating' ? c.operating : c.full;
+    const role = region === c.judged ? 'judged' : 'for information';
+    sections.push(`== ${SECTION_TITLE[region]} (${sec.poses} poses; ${role})`, ...sectionTable(sec), `section verdict: ${sectionVerdict(sec)}`, '');
   }
-  const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
-  const table = rows.map((r) => r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]) : cell.padEnd(widths[i]))).join('  ').trimEnd());
-  const fails = c.items.filter((i) => i.verdict === 'over' || i.verdict === 'broken').length;
-  const close = c.items.filter((i) => i.verdict === 'close').length;
-  const result = c.passed
-    ? `RESULT: PASS (${c.items.length} items, ${close} close to the limit)`
-    : `RESULT: FAIL (${fails} of ${c.items.length} items over the limit or broken, ${close} close to the limit)`;
   const limits = ['steering limits (first limit met each way, zero travel; handlebar deg, road-wheel L/R deg):'];
   const lim = (l: LeanLimits['left']) =>
     l.handlebarDeg === null
       ? `none (${l.reason})`
-      : `${l.handlebarDeg.toFixed(1)} (${l.leftWheelDeg!.toFixed(1)}/${l.rightWheelDeg!.toFixed(1)}): ${l.kinds.join(', ')}: ${l.detail}`;
+      : `${l.handlebarDeg.toFixed(1)} (${wheelText(l.leftWheelDeg)}/${wheelText(l.rightWheelDeg)}): ${l.kinds.map((k) => LIMIT_WORDS[k]).join(', ')}: ${l.detail}`;
   for (const l of c.limits) {
     limits.push(`  lean ${f1(l.leanDeg).padStart(5)}  left turn ${lim(l.left)}`);
     limits.push(`              right turn ${lim(l.right)}`);
   }
-  return [...header, ...table, '', ...limits, '', ...c.info.map((i) => `note: ${i}`), '', result].join('\n') + '\n';
+  const result = `RESULT (${c.judged === 'operating' ? 'operating region' : 'full rectangle'}): ${sectionVerdict(c.judged === 'operating' ? c.operating : c.full)}`;
+  return [...header, ...sections, ...limits, '', ...c.info.map((i) => `note: ${i}`), '', result].join('\n') + '\n';
 }
+
+const wheelText = (x: number | null) => (x === null ? '-' : x.toFixed(1));
+
+const LIMIT_WORDS: Record<LimitKind, string> = {
+  'cannot-assemble': 'cannot assemble',
+  'dead-centre': 'dead centre',
+  'joint-rating': 'joint over its rating',
+  clearance: 'clearance',
+};
 
 export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   let designPath: string;
   let steps: { leanDeg: number; handlebarDeg: number; travelMm: number };
   let json: boolean;
   let contact: ReturnType<typeof parseContact>;
+  let region: CheckRegion;
   try {
-    const args = parseArgs(argv, { flags: ['json'], values: ['lean-step', 'steer-step', 'travel-step', 'contact'] });
+    const args = parseArgs(argv, { flags: ['json'], values: ['lean-step', 'steer-step', 'travel-step', 'contact', 'region'] });
     if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
     steps = {
@@ -90,6 +123,11 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     };
     json = args.options.has('json');
     contact = parseContact(args.options.get('contact'));
+    const rawRegion = args.options.get('region');
+    if (rawRegion !== undefined && rawRegion !== 'operating' && rawRegion !== 'full') {
+      throw new ArgError(`option --region: expected operating or full, found ${rawRegion === true ? 'no value' : rawRegion}`);
+    }
+    region = rawRegion ?? 'operating';
   } catch (e) {
     return reportArgError(e, io, 'check', checkHelp);
   }
@@ -101,7 +139,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   const bar = progressBar(io, 'check');
   let result: DesignCheck;
   try {
-    result = checkDesign(loaded.design, { contact, steps, onProgress: (d, t) => bar.update(d, t) });
+    result = checkDesign(loaded.design, { contact, steps, judged: region, onProgress: (d, t) => bar.update(d, t) });
   } catch (e) {
     if (e instanceof SweepInputError) {
       io.err(`tiltbench check: ${e.message}\n`);
@@ -116,9 +154,13 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
       design: loaded.path,
       name: result.design,
       passed: result.passed,
+      judged: result.judged,
       contact: result.contact,
       axes: result.axes,
+      riding: result.riding,
       items: result.items,
+      operating: result.operating,
+      full: result.full,
       info: result.info,
       limits: result.limits,
       summary: result.summary,
