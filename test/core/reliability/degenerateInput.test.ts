@@ -256,21 +256,24 @@ describe('a tyre that does not touch the ground at design position', () => {
     expect(Math.abs(s.wheels.left.contactPoint[2])).toBeLessThan(1);
   });
 
-  it('BUG: is refused naming the wheel or the tyre, or solved; not reported as a dead centre', () => {
+  // This used to end 'singular' with "passes a dead centre ... (0 % of the way)": the settle onto
+  // the ground needed more than the 25 degrees PoseSolver.jumped allows a step with no input
+  // change. The design pose is now settled before continuation, and the loader warns.
+  it('is accepted with a warning naming the wheel-centre height and the tyre, and solved with the tyres on the ground', () => {
     const v = validateDesign(design360());
-    if (!v.ok) {
-      // Proposed fix A (core/design/validateDesign.ts, checkUpright): refuse a wheel centre whose
-      // height differs from the loaded radius at design position, naming both fields.
-      expect(v.issues.map((i) => i.path)).toEqual(expect.arrayContaining([expect.stringMatching(/^(upright\.wheelCentre|wheels\.front\.rollingRadiusMm)/)]));
-      return;
-    }
+    expect(v.ok).toBe(true);
+    if (!v.ok) return;
+    const warning = v.warnings.find((w) => w.path.startsWith('upright.wheelCentre'));
+    expect(warning, JSON.stringify(v.warnings)).toBeDefined();
+    expect(warning!.message).toContain('wheels.front.rollingRadiusMm');
     const solver = new PoseSolver(buildMechanism(resolveDesign(v.design)));
     const r = solver.solve(zeroInputs(), false);
-    // Today: status "singular", message "the linkage passes a dead centre or would switch
-    // assembly branch before reaching lean 0.0 deg, handlebar 0.0 deg, ... (0 % of the way)".
-    // Nothing passes a dead centre: the settle onto the ground needs more than the 25 degrees
-    // PoseSolver.jumped allows a step with no input change.
     expect(r.message).not.toMatch(/dead centre/);
-    expect(['converged', 'cannot-assemble']).toContain(r.status);
+    expect(r.status, r.message).toBe('converged');
+    expect(r.reached).toBe(true);
+    // Each tyre's lowest point is on the ground to the solver's tolerance (the snapshot's
+    // contact point is computed from the wheel's pose, not read from the residual).
+    const s = takeSnapshot(solver.mechanism);
+    for (const side of ['right', 'left'] as const) expect(Math.abs(s.wheels[side].contactPoint[2])).toBeLessThan(1e-6);
   });
 });

@@ -119,11 +119,9 @@ describe('a linkage that cannot close', () => {
 
   for (const contact of ['travel', 'ground'] as const) {
     for (const length of [60, 150]) {
-      // CORE BUG (reported, fails until fixed): this ends 'singular' with "passes a dead centre
-      // or would switch assembly branch ... (0 % of the way)" because PoseSolver.solve flags a
-      // branch jump even when LM did not converge, and LM needs about 150 iterations (limit 60)
-      // to see that it is stuck at a minimum with the residual left (linear convergence).
-      // The loop plainly cannot close: the arm end and the crank joint are 280 mm apart.
+      // The loop plainly cannot close: the arm end and the crank joint are 280 mm apart. (This
+      // once ended 'singular', "passes a dead centre ... (0 % of the way)", when a branch jump
+      // was flagged for steps LM had not converged on; only a converged step is checked now.)
       it(`right tie rod far too short (${length} mm, ${contact}) -> 'cannot-assemble' naming the tie rod`, () => {
         const g = buildMechanism(heron, { contact, steerBy: 'handlebar' });
         const graph: MechanismGraph = { ...g, constraints: g.constraints.map((c) => (c.id === 'right.tieRod' ? { ...c, length } : c)) };
