@@ -29,7 +29,8 @@ function full(): Doc {
   ];
   d.upright.staticToeDeg = { right: 0.5, left: 0.25 };
   d.frontEnd.lower.outerJoint = { right: { x: 10, y: -345, z: 180 }, left: { x: 12, y: 345, z: 180 } };
-  d.tolerances = { toeErrorDeg: 0.5, slipDeg: 2, jointMarginDeg: 4, clearanceMm: 12 };
+  d.tolerances = { selfSteerDeg: 0.5, ratioChangePct: 20, slipDeg: 2, jointMarginDeg: 4, clearanceMm: 12 };
+  d.riding = { minKmh: 8, maxKmh: 40, maxLeanDeg: 30, transientBandDeg: 4, gripG: 0.9 };
   d.parts = { wishboneTubeRadiusMm: 11, tieRodRadiusMm: 5, steeringArmRadiusMm: 7 };
   d.spring = { on: 'lower', frameMount: { x: -20, y: -100, z: 450 }, armMount: { x: -20, y: -250, z: 190 } };
   d.steering.input = {

@@ -29,7 +29,8 @@ function full(): DesignFile {
   d.upright.staticCamberDeg = 1;
   d.frontEnd.lower.outerJoint = { right: { x: 10, y: -345, z: 180 }, left: { x: 12, y: 345, z: 180 } };
   d.joints.upperOuter.studAxis = { x: 0.1, y: -0.2, z: 1 };
-  d.tolerances = { toeErrorDeg: 0.5, clearanceMm: DEFAULT_TOLERANCES.clearanceMm + 5 };
+  d.tolerances = { selfSteerDeg: 0.5, clearanceMm: DEFAULT_TOLERANCES.clearanceMm + 5 };
+  d.riding = { maxKmh: 35, gripG: 0.7 };
   d.parts = { tieRodRadiusMm: 5 };
   d.spring = { on: 'lower', frameMount: { x: -20, y: -100, z: 450 }, armMount: { right: { x: -20, y: -250, z: 190 }, left: { x: -20, y: 255, z: 190 } } };
   d.steering.input = {
@@ -76,9 +77,17 @@ describe('resolveDesign', () => {
 
   it('fills only the missing tolerances and part sizes', () => {
     const r = resolveDesign(full());
-    expect(r.tolerances).toEqual({ ...DEFAULT_TOLERANCES, toeErrorDeg: 0.5, clearanceMm: DEFAULT_TOLERANCES.clearanceMm + 5 });
+    expect(r.tolerances).toEqual({ ...DEFAULT_TOLERANCES, selfSteerDeg: 0.5, clearanceMm: DEFAULT_TOLERANCES.clearanceMm + 5 });
     expect(r.parts).toEqual({ ...DEFAULT_PART_SIZES, tieRodRadiusMm: 5 });
     expect(r.notes).toBe('second prototype');
+  });
+
+  it('reads the older tolerance name toeErrorDeg as selfSteerDeg, unless selfSteerDeg is given too', () => {
+    const d = minimal();
+    d.tolerances = { toeErrorDeg: 0.4 };
+    expect(resolveDesign(d).tolerances.selfSteerDeg).toBe(0.4);
+    d.tolerances = { toeErrorDeg: 0.4, selfSteerDeg: 0.3 };
+    expect(resolveDesign(d).tolerances.selfSteerDeg).toBe(0.3);
   });
 
   it('shares no objects with the file, so editing one leaves the other alone', () => {
