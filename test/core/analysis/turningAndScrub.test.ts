@@ -73,10 +73,20 @@ describe('turning circle (SAE J695)', () => {
       expect(a.turningCircle.kerbToKerbMm!).toBeCloseTo(j695 + 40, 6); // tread 40 mm
       expect(a.turningCircle.wallToWallMm!).toBeGreaterThan(a.turningCircle.kerbToKerbMm!);
       expect(a.turningCircle.wallToWallFrom).toMatch(/wheels only/);
-      // Negative control: using the inner wheel's angle in the same formula is clearly wrong.
-      const inner = Math.abs(a.wheels[outerSide === 'right' ? 'left' : 'right'].steerDeg) * DEG;
-      expect(Math.abs(2 * (1000 / Math.sin(inner) + 30) - j695)).toBeGreaterThan(50);
     }
+  });
+
+  it('negative control: the same check fails on a design whose offset at ground is not the 30 mm it assumes', () => {
+    // Deliberately wrong input through the real path (design -> solve -> analysis): the
+    // steering axis 35 mm inboard of the wheel's mid-plane, checked against the 30 mm formula.
+    const wrong = resolveDoc(kingpinTrike({ armInward: 25, scrubMm: 35 }));
+    const { analysis: a } = solveAnalyse(wrong, { handlebarDeg: 25 });
+    const outer = Math.abs(a.wheels.right.steerDeg) * DEG;
+    const j695For30 = 2 * (1000 / Math.sin(outer) + 30);
+    // The check above fails on it ...
+    expect(() => expect(a.turningCircle.turningDiameterMm!).toBeCloseTo(j695For30, 6)).toThrow();
+    // ... by the diameter the extra 5 mm of offset adds (SAE J695's formula again, 2 x 5 mm).
+    expect(a.turningCircle.turningDiameterMm! - j695For30).toBeCloseTo(10, 6);
   });
 
   it('wall to wall encloses the body outline (Heron has one) and is null straight ahead', () => {
