@@ -102,6 +102,11 @@ export class PoseSolver {
     this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10, reuseFactorisation: false };
   }
 
+  /** Whether the mechanism holds a closed pose (a solve, or a continuation sub-step, closed since the last reset). */
+  get holdsGoodPose(): boolean {
+    return this.hasGood;
+  }
+
   /** The inputs of the last good pose. */
   get inputs(): Readonly<PoseInputs> {
     return vectorToInputs(this.goodInputs);
