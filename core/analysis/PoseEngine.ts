@@ -108,7 +108,7 @@ export class PoseEngine {
     }
     const m = this.main.solver.mechanism;
     let shown: EnginePose['shown'] = result.reached ? 'requested' : 'last-good';
-    if (!result.reached && !this.main.hasGood) {
+    if (!result.reached && !this.main.solver.holdsGoodPose) {
       m.applyInputs(zeroInputs());
       m.resetToDesign();
       shown = 'as-entered';

@@ -11,14 +11,48 @@ import { zeroInputs, type PoseInputs, type Vec3 } from '../mechanism/MechanismGr
 import type { SolveResult } from '../solver/PoseSolver';
 import type { PoseSnapshot } from './poseSnapshot';
 import type { PoseAnalysis, PoseInputsReport } from './analysisTypes';
-import { PoseEngine } from './PoseEngine';
+import { PoseEngine, type EnginePose } from './PoseEngine';
+import { solveRide } from './ridePose';
+import { buildMechanism } from '../mechanism/templates/buildMechanism';
+import { PoseSolver } from '../solver/PoseSolver';
 import { formatPoseAnalysis } from './formatPoseAnalysis';
 import { ANALYSIS_DEFINITIONS } from './definitions';
 
 export { LOCAL_RATIO_STEP_DEG } from './PoseEngine';
 
-/** A pose to solve: the front-end mode and the six inputs, as the report echoes them. */
-export type PoseRequest = PoseMode & PoseInputsReport;
+/**
+ * A pose to solve: the front-end mode and the six inputs, as the report echoes them; with
+ * `speedKmh` the lean is found from the balanced turn instead (ridePose.ts).
+ */
+export type PoseRequest = PoseMode & PoseInputsReport & { speedKmh?: number };
+
+/** A request the design cannot take (the CLI exits 2 on it). */
+export class PoseRequestError extends Error {}
+
+/** Where the linkage stopped closing, for a pose past the steering limit. */
+export interface LimitReport {
+  /** The last pose reached on the way to the request: its handlebar and road-wheel angles. */
+  handlebarDeg: number;
+  leftWheelDeg: number;
+  rightWheelDeg: number;
+  /** The loop that would not close beyond it, in words. */
+  loop: string | null;
+  /**
+   * Least misclosure at the requested inputs themselves: the largest loop gap a least-squares
+   * fit of every loop leaves there (started from the design pose, no continuation), mm.
+   */
+  misclosureAtRequestMm: number | null;
+}
+
+export interface RideReport {
+  speedKmh: number;
+  leanDeg: number;
+  balancedLeanDeg: number | null;
+  balanceResidualDeg: number | null;
+  lateralG: number | null;
+  steps: number;
+  notes: string[];
+}
 
 export interface WheelReport {
   toeDeg: number;
@@ -43,6 +77,10 @@ export interface PoseReport {
   analysis?: PoseAnalysis;
   /** Sign conventions and definitions of the measures. */
   definitions?: typeof ANALYSIS_DEFINITIONS;
+  /** With a speed: the balanced lean found and how well it balances. */
+  ride?: RideReport;
+  /** When the request was not reached: where the linkage stopped closing. */
+  limit?: LimitReport;
 }
 
 export function requestInputs(r: PoseRequest): PoseInputs {
@@ -64,9 +102,21 @@ export function solveSinglePose(
   request: PoseRequest,
 ): { result: SolveResult; snapshot?: PoseSnapshot; report: PoseReport; text: string } {
   const mode: PoseMode = { contact: request.contact, steerBy: request.steerBy };
+  if (!design.vehicle.tilting && request.leanDeg !== 0) {
+    throw new PoseRequestError(`the design does not tilt (vehicle.tilting is false): lean must be 0, found ${request.leanDeg} deg`);
+  }
   const engine = new PoseEngine(design, mode);
   const inputs = requestInputs(request);
-  const pose = engine.solve(inputs);
+  let ride: RideReport | undefined;
+  let pose: EnginePose;
+  if (request.speedKmh !== undefined) {
+    const r = solveRide(engine, request.speedKmh, inputs);
+    pose = r.pose;
+    ride = { speedKmh: r.speedKmh, leanDeg: r.leanDeg, balancedLeanDeg: r.balancedLeanDeg, balanceResidualDeg: r.balanceResidualDeg, lateralG: r.lateralG, steps: r.steps, notes: r.notes };
+    inputs.leanDeg = r.leanDeg;
+  } else {
+    pose = engine.solve(inputs);
+  }
   const result = pose.result;
   const report: PoseReport = {
     status: result.status,
@@ -77,8 +127,10 @@ export function solveSinglePose(
     mode,
     inputs,
   };
+  if (ride) report.ride = ride;
   if (!result.reached) {
-    return { result, report, text: `${design.name}\n${statusLine(result)}\n` };
+    if (pose.shown === 'last-good') report.limit = limitReport(design, mode, inputs, pose);
+    return { result, report, text: failureText(design, report, result) };
   }
   const snapshot = pose.snapshot;
   report.inputs = snapshot.inputs;
@@ -94,15 +146,64 @@ export function solveSinglePose(
   report.points = Object.fromEntries(Object.entries(snapshot.points).map(([k, p]) => [k, xyz(p)]));
   report.analysis = pose.analysis as PoseAnalysis;
   report.definitions = ANALYSIS_DEFINITIONS;
-  return { result, snapshot, report, text: poseText(design, report, result) };
+  const labels = Object.fromEntries(engine.graph.points.map((p) => [p.id, p.label]));
+  return { result, snapshot, report, text: poseText(design, report, result, labels) };
+}
+
+function limitReport(design: ResolvedDesign, mode: PoseMode, inputs: PoseInputs, pose: EnginePose): LimitReport {
+  const w = pose.snapshot.wheels;
+  return {
+    handlebarDeg: pose.snapshot.inputs.handlebarDeg,
+    leftWheelDeg: w.left.steerDeg,
+    rightWheelDeg: w.right.steerDeg,
+    loop: pose.result.culprit ?? null,
+    misclosureAtRequestMm: misclosureAt(design, mode, inputs),
+  };
+}
+
+/** The largest loop gap a least-squares fit leaves at the inputs, from the design pose in one step. */
+export function misclosureAt(design: ResolvedDesign, mode: PoseMode, inputs: PoseInputs): number | null {
+  const direct = new PoseSolver(buildMechanism(design, mode), { maxStepDeg: 1e9, maxStepMm: 1e9, maxBisections: 0 });
+  const r = direct.solve(inputs, false);
+  return r.reached ? 0 : r.residualMm;
+}
+
+function failureText(design: ResolvedDesign, rep: PoseReport, r: SolveResult): string {
+  const lines = [design.name, statusLine(r)];
+  if (rep.ride) lines.push(...rideLines(rep.ride));
+  const l = rep.limit;
+  if (l) {
+    lines.push(
+      `steering limit: the linkage last closed at handlebar ${l.handlebarDeg.toFixed(2)} deg (road wheels left ${l.leftWheelDeg.toFixed(2)}, right ${l.rightWheelDeg.toFixed(2)} deg)` +
+        (l.loop ? `; beyond it the ${l.loop} would not close` : ''),
+      `misclosure at the requested pose: ${misclosureWords(l.misclosureAtRequestMm)}`,
+    );
+  }
+  return lines.join('\n') + '\n';
+}
+
+function misclosureWords(mm: number | null): string {
+  if (mm === null) return 'not found';
+  if (mm === 0) return '0 mm: the loops close there, but on an assembly branch not reachable by turning continuously from the design pose';
+  return `${mm.toFixed(3)} mm (largest loop gap of a least-squares fit there)`;
+}
+
+function rideLines(r: RideReport): string[] {
+  const f = (x: number | null, d: number, unit: string) => (x === null ? '-' : `${x.toFixed(d)} ${unit}`);
+  return [
+    `ride: ${r.speedKmh} km/h, balanced lean ${r.leanDeg.toFixed(3)} deg (right side down +), balance residual ${f(r.balanceResidualDeg, 6, 'deg')}, ` +
+      `lateral acceleration ${f(r.lateralG, 3, 'g')}, ${r.steps} lean-and-solve steps`,
+    ...r.notes.map((n) => `  (ride: ${n})`),
+  ];
 }
 
 function statusLine(r: SolveResult): string {
   const res = r.residualMm === null ? 'n/a' : `${r.residualMm.toExponential(1)} mm`;
-  return `status: ${r.status} (${r.message}); max residual ${res}; ${r.iterations} iterations`;
+  const where = r.reached ? 'largest residual' : 'largest residual at the last continuation step tried';
+  return `solver: ${r.status} (${r.message}); ${where} ${res}; ${r.iterations} iterations`;
 }
 
-function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult): string {
+function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult, labels: Record<string, string>): string {
   const f = (x: number, d = 2) => x.toFixed(d).padStart(9);
   const i = rep.inputs;
   const lines = [
@@ -110,6 +211,7 @@ function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult): stri
     `pose: lean ${i.leanDeg.toFixed(2)} deg, handlebar ${i.handlebarDeg.toFixed(2)} deg, ` +
       (rep.mode.contact === 'ground' ? 'tyres on the ground' : `travel R/L ${i.travelRightMm.toFixed(1)}/${i.travelLeftMm.toFixed(1)} mm`),
     statusLine(r),
+    ...(rep.ride ? rideLines(rep.ride) : []),
     '',
     'wheel      toe(deg)  steer(deg) camber-ground camber-frame   centre x,y,z (mm)',
   ];
@@ -124,7 +226,7 @@ function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult): stri
   if (rep.analysis) lines.push(formatPoseAnalysis(rep.analysis, design));
   lines.push('hardpoint                                   x(mm)      y(mm)      z(mm)');
   for (const [id, p] of Object.entries(rep.points!)) {
-    lines.push(`${id.padEnd(38)} ${f(p.x)}  ${f(p.y)}  ${f(p.z)}`);
+    lines.push(`${(labels[id] ?? id).padEnd(38)} ${f(p.x)}  ${f(p.y)}  ${f(p.z)}`);
   }
   return lines.join('\n') + '\n';
 }

@@ -50,6 +50,8 @@ export class PoseSolver {
   /** Input records are vectors in INPUT_NAMES order: the hot loops index, never key by name. */
   private goodInputs: Float64Array;
   private hasGood = false;
+  /** See holdsGoodPose. */
+  private holdsClosed = false;
   /** The good pose before the last one: reversing along a sweep retraces from it. */
   private prevCoord: Float64Array;
   private prevSph: Float64Array;
@@ -102,9 +104,13 @@ export class PoseSolver {
     this.lmOptions = { tolerance: this.options.toleranceMm, maxIterations: this.options.maxIterations, tau: 1e-10, reuseFactorisation: false };
   }
 
-  /** Whether the mechanism holds a closed pose (a solve, or a continuation sub-step, closed since the last reset). */
+  /**
+   * Whether the mechanism holds a closed pose: the last solve's answer, or after a failure the
+   * last good pose or the last continuation sub-step that closed (false before any solve, after
+   * reset, and when a cold start could not even settle the design pose).
+   */
   get holdsGoodPose(): boolean {
-    return this.hasGood;
+    return this.holdsClosed;
   }
 
   /** The inputs of the last good pose. */
@@ -114,6 +120,7 @@ export class PoseSolver {
 
   /** Forget the warm start: the next solve starts from the design pose. */
   reset(): void {
+    this.holdsClosed = false;
     this.failedAt = undefined;
     this.hasGood = false;
     this.hasPrev = false;
@@ -252,7 +259,9 @@ export class PoseSolver {
     this.from = this.zeros;
     m.applyInputVector(this.zeros);
     m.resetToDesign();
-    return this.settleDesignPose();
+    const settled = this.settleDesignPose();
+    this.holdsClosed = settled === undefined;
+    return settled;
   }
 
   /**
@@ -297,6 +306,7 @@ export class PoseSolver {
     const m = this.mechanism;
     const same = this.hasGood && warm && sameVector(target, this.goodInputs);
     this.failedAt = undefined;
+    this.holdsClosed = true;
     if (same) {
       // The same pose again: keep the direction the sweep came from.
       m.getState(this.goodCoord, this.goodSph);

@@ -2,12 +2,15 @@ import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
-import { solveSinglePose, type PoseRequest } from '../../analysis/solveSinglePose';
+import { PoseRequestError, solveSinglePose, type PoseRequest } from '../../analysis/solveSinglePose';
 
-export const poseHelp = `tiltbench pose [design.tiltsheet] --lean DEG --steer DEG [--travel MM | --on-ground] [--json]
-  Solves one pose of the closed linkage and prints every hardpoint's posed position and,
-  per wheel, toe and camber. Without a design it uses the bundled demo.
+export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed KMH) --steer DEG [--travel MM | --on-ground] [--json]
+  Solves one pose of the closed linkage and prints every measure, every hardpoint's posed
+  position and, per wheel, toe and camber. Without a design it uses the bundled demo.
   --lean DEG          frame roll, positive lowers the right side (leaning into a right turn)
+  --speed KMH         instead of --lean: the lean at which the vehicle balances in the turn the
+                      handlebar makes at this speed, tan(lean) = v^2 / (g R); prints the lean
+                      found and the balance residual
   --steer DEG         handlebar angle, positive turns left
   --wheel-angle DEG   instead of --steer: target road-wheel angle of the wheel named by --wheel
   --wheel left|right  which wheel --wheel-angle sets (default left)
@@ -26,7 +29,7 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
   try {
     const args = parseArgs(argv, {
       flags: ['json', 'on-ground'],
-      values: ['lean', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel'],
+      values: ['lean', 'speed', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel'],
     });
     if (args.positionals.length > 1) throw new ArgError(`expected at most one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
@@ -37,6 +40,9 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
     const wheel = args.options.get('wheel') ?? 'left';
     if (wheel !== 'left' && wheel !== 'right') throw new ArgError(`option --wheel: expected left or right, found "${String(wheel)}"`);
     if (args.options.has('wheel-angle') && args.options.has('steer')) throw new ArgError('give either --steer or --wheel-angle, not both');
+    if (args.options.has('speed') && args.options.has('lean')) throw new ArgError('give either --lean or --speed, not both (the speed sets the lean)');
+    const speed = args.options.has('speed') ? numberOption(args, 'speed', 'km/h', 0) : undefined;
+    if (speed !== undefined && !(speed >= 0)) throw new ArgError(`option --speed: expected a speed of 0 km/h or more, found ${speed}`);
     request = {
       leanDeg: numberOption(args, 'lean', 'degrees', 0),
       handlebarDeg: numberOption(args, 'steer', 'degrees', 0),
@@ -44,6 +50,7 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
       contact: travelGiven ? 'travel' : 'ground',
       travelRightMm: numberOption(args, 'travel-right', 'mm', travel),
       travelLeftMm: numberOption(args, 'travel-left', 'mm', travel),
+      ...(speed !== undefined ? { speedKmh: speed } : {}),
       ...(args.options.has('wheel-angle')
         ? { steerBy: wheel === 'left' ? 'leftWheel' : 'rightWheel', wheelAngleDeg: numberOption(args, 'wheel-angle', 'degrees', 0) }
         : { steerBy: 'handlebar', wheelAngleDeg: 0 }),
@@ -53,7 +60,16 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
   }
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
-  const out = solveSinglePose(loaded.design, request);
+  let out: ReturnType<typeof solveSinglePose>;
+  try {
+    out = solveSinglePose(loaded.design, request);
+  } catch (e) {
+    if (e instanceof PoseRequestError) {
+      io.err(`tiltbench pose: ${e.message}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw e;
+  }
   const solved = out.result.reached;
   if (json) {
     io.out(JSON.stringify({ design: loaded.path, ...out.report, caution: SAFETY_CAUTION }, null, 2) + '\n');
