@@ -6,8 +6,6 @@ const BENCH = ['test/bench/**', '**/node_modules/**', '**/dist/**', '**/dist-ele
 
 export default defineConfig({
   test: {
-    // Some projects have no tests yet; an empty project must not fail the run.
-    passWithNoTests: true,
     reporters: ['default'],
     exclude: BENCH,
     projects: [
