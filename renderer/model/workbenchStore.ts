@@ -9,6 +9,7 @@ import { createStore, type StoreApi } from 'zustand/vanilla';
 import { resolveDesign } from '../../core/design/resolveDesign';
 import { validateDesign, type DesignIssue } from '../../core/design/validateDesign';
 import type { DesignFile, ResolvedDesign, Vec3Mm } from '../../core/design/types';
+import type { DrawingLayout } from '../../core/mechanism/drawingLayout';
 import { invalidDesignOutcome, PoseSession, type MechanismLayout, type PoseOutcome } from './analysisAdapter';
 import { describeRow, movePoint, type ActionResult, type DesignAction } from './designActions';
 import { designToText } from './designText';
@@ -50,6 +51,8 @@ export interface WorkbenchState {
   issues: DesignIssue[];
   resolved: ResolvedDesign | null;
   layout: MechanismLayout | null;
+  /** How to draw the mechanism, from core's layout template; null while the design is invalid. */
+  drawing: DrawingLayout | null;
   pose: PoseUi;
   outcome: PoseOutcome;
   selection: string | null;
@@ -89,6 +92,7 @@ interface Derived {
   issues: DesignIssue[];
   resolved: ResolvedDesign | null;
   layout: MechanismLayout | null;
+  drawing: DrawingLayout | null;
   outcome: PoseOutcome;
 }
 
@@ -104,11 +108,11 @@ export function createWorkbench(design: DesignFile, doc: DocInfo): Workbench {
     const checked = validateDesign(d);
     if (!checked.ok) {
       session = null;
-      return { issues: checked.issues, resolved: null, layout: null, outcome: invalidDesignOutcome(checked.issues.length) };
+      return { issues: checked.issues, resolved: null, layout: null, drawing: null, outcome: invalidDesignOutcome(checked.issues.length) };
     }
     const resolved = resolveDesign(checked.design);
     session = new PoseSession(resolved, pose.contact);
-    return { issues: [], resolved, layout: session.layout, outcome: session.solve(pose) };
+    return { issues: [], resolved, layout: session.layout, drawing: session.engine.graph.drawing ?? null, outcome: session.solve(pose) };
   };
 
   const initialText = designToText(design);

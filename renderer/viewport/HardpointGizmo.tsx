@@ -12,24 +12,20 @@ import { Group, Matrix4, Object3D } from 'three';
 import { useWorkbench, useWorkbenchApi } from '../app/workbenchContext';
 import { hardpointRows } from '../model/hardpoints';
 import type { WorkbenchState } from '../model/workbenchStore';
-import { bodyMatrix } from './LinkageModel';
-import { buildTopology } from './sceneTopology';
+import { bodyIndexOf, bodyPose } from './scenePlacement';
 import { gizmoStore } from './gizmoStore';
 import { motion } from './viewSignals';
 
 const m4 = new Matrix4();
 
-/** Body carrying a hardpoint row, from the drawing's topology and the mechanism layout. */
-function carrierOf(s: WorkbenchState, rowId: string, topoJoints: ReturnType<typeof buildTopology>['joints'] | null): string | null {
-  const j = topoJoints?.find((x) => x.id === rowId);
-  if (j) return 'named' in j.at ? (s.layout?.points[j.at.named]?.body ?? null) : j.at.body;
-  return s.layout?.points[rowId]?.body ?? null;
+/** Id of the body carrying a hardpoint, from the mechanism's drawing. */
+function carrierOf(s: WorkbenchState, hardpoint: string): string | null {
+  return s.drawing?.joints.find((j) => j.hardpoint === hardpoint)?.body ?? null;
 }
 
 export function HardpointGizmo() {
   const wb = useWorkbenchApi();
   const selection = useWorkbench((s) => s.selection);
-  const resolved = useWorkbench((s) => s.resolved);
   const constraint = useStore(gizmoStore, (s) => s.constraint);
   const snap = useStore(gizmoStore, (s) => s.snapMm);
   const enabled = useStore(gizmoStore, (s) => s.enabled);
@@ -37,7 +33,6 @@ export function HardpointGizmo() {
   const frame = useRef<Group>(null);
   const target = useMemo(() => new Object3D(), []);
   const dragging = useRef(false);
-  const topoJoints = useMemo(() => (resolved ? buildTopology(resolved).joints : null), [resolved]);
 
   useLayoutEffect(() => {
     if (!selection) return;
@@ -47,10 +42,8 @@ export function HardpointGizmo() {
       const row = hardpointRows(s.design).find((r) => r.id === selection);
       if (!row) return;
       const snapShot = s.outcome.snapshot;
-      const body = carrierOf(s, selection, topoJoints);
-      const i = snapShot && body ? snapShot.bodies.findIndex((b) => b.id === body) : -1;
-      if (snapShot && i >= 0) bodyMatrix(snapShot, i, m4);
-      else m4.identity();
+      const body = carrierOf(s, selection);
+      if (!snapShot || !body || !bodyPose(body, snapShot, bodyIndexOf(snapShot), m4)) m4.identity();
       g.matrixAutoUpdate = false;
       g.matrix.copy(m4);
       g.updateMatrixWorld(true);
@@ -62,7 +55,7 @@ export function HardpointGizmo() {
     return wb.store.subscribe((s, prev) => {
       if (s.outcome !== prev.outcome || s.design !== prev.design) place(s);
     });
-  }, [wb, selection, topoJoints, target, invalidate]);
+  }, [wb, selection, target, invalidate]);
 
   const rowExists = selection !== null && hardpointRows(wb.store.getState().design).some((r) => r.id === selection);
   if (!rowExists || !enabled) return null;
