@@ -1,6 +1,10 @@
 /**
  * A small argument parser: positionals, `--flag`, `--name value` and `--name=value`.
  * Unknown options are errors that name the option, so a typo never runs a wrong job.
+ *
+ * Not Node's util.parseArgs: in strict mode it refuses a value that starts with a dash
+ * (`--lean -10`, `--steer -20:20:5`, which every sweep of both sides needs) as "ambiguous"
+ * unless written `--lean=-10`, and its messages would need rewording to name our units anyway.
  */
 
 export interface ParsedArgs {
