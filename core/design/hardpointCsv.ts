@@ -117,7 +117,12 @@ interface CsvField {
 
 type CsvLine = { ok: true; fields: CsvField[] } | { ok: false; column: number; reason: string };
 
-/** One line of RFC 4180 CSV (fields in double quotes may hold commas and "" for a quote; not line breaks). */
+/**
+ * One line of RFC 4180 CSV (fields in double quotes may hold commas and "" for a quote; not
+ * line breaks). Our own rather than a CSV library: csv-parse and papaparse report a record's
+ * line and a field's index, not the character column each message here points at, and
+ * csv-parse's typings pull Node's stream types into core.
+ */
 function splitCsvLine(line: string): CsvLine {
   const fields: CsvField[] = [];
   let i = 0;
@@ -159,94 +164,107 @@ function splitCsvLine(line: string): CsvLine {
 /** A plain decimal number: optional sign, digits with an optional point, optional exponent. */
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
+type Rows = Map<string, { line: number; point: Vec3Mm }>;
+/** Records an issue at a line and column of the table. */
+type At = (line: number, column: number, message: string, path?: string) => void;
+
 export function importHardpointCsv(design: DesignFile, csv: string, fileName: string): DesignResult {
   const issues: DesignIssue[] = [];
-  const at = (line: number, column: number, message: string, path = ''): void => {
+  const at: At = (line, column, message, path = '') => {
     issues.push({ path, message: `${fileName}:${line}:${column}: ${message}`, line, column });
   };
 
   const refs = hardpointsOf(design);
-  const byId = new Map(refs.map((r) => [r.id, r]));
   const text = csv.startsWith('\uFEFF') ? csv.slice(1) : csv;
   const lines = text.split(/\r\n|\n|\r/);
+  const { header, rows } = readTable(lines, refs, at);
+  if (header === undefined) {
+    return { ok: false, issues: [{ path: '', message: `${fileName}:1:1: the table is empty; expected the header ${HARDPOINT_CSV_HEADER.join(',')} and one row per hardpoint`, line: 1, column: 1 }] };
+  }
+  if (issues.length > 0) return { ok: false, issues };
 
+  // Every hardpoint must be listed, so a table cut short is refused, never half applied.
+  for (const ref of refs) {
+    if (!rows.has(ref.id)) at(lines.length, 1, `${ref.id}: no row for this hardpoint (every hardpoint must be listed; ${rows.size} of ${refs.length} are)`, ref.id);
+  }
+  if (issues.length > 0) return { ok: false, issues };
+
+  // The new design must still be a valid design; say which row to fix.
+  const checked = validateDesign(withHardpoints(design, refs, rows));
+  if (!checked.ok) return { ok: false, issues: checked.issues.map((issue) => atRowOf(issue, rows, fileName)) };
+  return checked;
+}
+
+/** The header (its line, or undefined for an empty table) and the rows read, reporting every bad line. */
+function readTable(lines: string[], refs: HardpointRef[], at: At): { header: number | undefined; rows: Rows } {
+  const byId = new Map(refs.map((r) => [r.id, r]));
   let header: number | undefined;
-  const rows = new Map<string, { line: number; point: Vec3Mm }>();
+  const rows: Rows = new Map();
   lines.forEach((raw, index) => {
     const line = index + 1;
     if (raw.trim() === '') return;
     const parsed = splitCsvLine(raw);
     if (!parsed.ok) {
       at(line, parsed.column, parsed.reason);
-      return;
-    }
-    const f = parsed.fields;
-    if (header === undefined) {
+    } else if (header === undefined) {
       header = line;
-      const names = f.map((x) => x.text.trim().toLowerCase());
-      const bad = HARDPOINT_CSV_HEADER.findIndex((want, k) => names[k] !== want);
-      if (bad >= 0 || names.length !== HARDPOINT_CSV_HEADER.length) {
-        const k = bad >= 0 ? bad : HARDPOINT_CSV_HEADER.length;
-        const column = k < f.length ? f[k].column : raw.length + 1;
-        const found = k < f.length ? JSON.stringify(f[k].text) : 'the end of the line';
-        at(line, column, `expected the header ${HARDPOINT_CSV_HEADER.join(',')}; column ${k + 1} should be ${HARDPOINT_CSV_HEADER[k] ?? 'the end of the line'}, found ${found}`);
-      }
-      return;
+      checkHeader(parsed.fields, raw, line, at);
+    } else {
+      readRow(parsed.fields, raw, line, { refs, byId, rows }, at);
     }
-    if (f.length !== 4) {
-      const column = f.length > 4 ? f[4].column - 1 : raw.length + 1;
-      at(line, column, `expected 4 fields (point, x_mm, y_mm, z_mm), found ${f.length}`);
-      return;
-    }
-    const id = f[0].text.trim();
-    const ref = byId.get(id);
-    if (!ref) {
-      const known = id.replace(/\.(right|left)$/, '');
-      const hint = refs.some((r) => r.id.startsWith(`${known}.`) || r.id === known)
-        ? ` (this design has ${refs.filter((r) => r.id === known || r.id.startsWith(`${known}.`)).map((r) => r.id).join(', ')})`
-        : '';
-      at(line, f[0].column, `${JSON.stringify(id)} is not a hardpoint of this design${hint}`);
-      return;
-    }
-    const previous = rows.get(id);
-    if (previous) {
-      at(line, f[0].column, `${id} is listed twice (first on line ${previous.line})`, id);
-      return;
-    }
-    const values: number[] = [];
-    let good = true;
-    (['x', 'y', 'z'] as const).forEach((axis, k) => {
-      const field = f[k + 1];
-      const t = field.text.trim();
-      const value = NUMBER.test(t) ? Number(t) : NaN;
-      if (!Number.isFinite(value)) {
-        at(line, field.column, `${id} ${axis}_mm: expected a number in mm, found ${t === '' ? 'nothing' : JSON.stringify(t)}`, `${id}.${axis}`);
-        good = false;
-      }
-      values.push(value);
-    });
-    if (good) rows.set(id, { line, point: { x: values[0], y: values[1], z: values[2] } });
   });
+  return { header, rows };
+}
 
-  if (header === undefined) {
-    return { ok: false, issues: [{ path: '', message: `${fileName}:1:1: the table is empty; expected the header ${HARDPOINT_CSV_HEADER.join(',')} and one row per hardpoint`, line: 1, column: 1 }] };
+function checkHeader(f: CsvField[], raw: string, line: number, at: At): void {
+  const names = f.map((x) => x.text.trim().toLowerCase());
+  const bad = HARDPOINT_CSV_HEADER.findIndex((want, k) => names[k] !== want);
+  if (bad < 0 && names.length === HARDPOINT_CSV_HEADER.length) return;
+  const k = bad >= 0 ? bad : HARDPOINT_CSV_HEADER.length;
+  const column = k < f.length ? f[k].column : raw.length + 1;
+  const found = k < f.length ? JSON.stringify(f[k].text) : 'the end of the line';
+  at(line, column, `expected the header ${HARDPOINT_CSV_HEADER.join(',')}; column ${k + 1} should be ${HARDPOINT_CSV_HEADER[k] ?? 'the end of the line'}, found ${found}`);
+}
+
+function readRow(f: CsvField[], raw: string, line: number, table: { refs: HardpointRef[]; byId: Map<string, HardpointRef>; rows: Rows }, at: At): void {
+  if (f.length !== 4) {
+    const column = f.length > 4 ? f[4].column - 1 : raw.length + 1;
+    at(line, column, `expected 4 fields (point, x_mm, y_mm, z_mm), found ${f.length}`);
+    return;
   }
-  if (issues.length > 0) return { ok: false, issues };
-
-  const lastLine = lines.length;
-  for (const ref of refs) {
-    if (!rows.has(ref.id)) {
-      issues.push({
-        path: ref.id,
-        message: `${fileName}:${lastLine}:1: ${ref.id}: no row for this hardpoint (every hardpoint must be listed; ${rows.size} of ${refs.length} are)`,
-        line: lastLine,
-        column: 1,
-      });
+  const id = f[0].text.trim();
+  if (!table.byId.has(id)) {
+    const known = id.replace(/\.(right|left)$/, '');
+    const near = table.refs.filter((r) => r.id === known || r.id.startsWith(`${known}.`)).map((r) => r.id);
+    const hint = near.length > 0 ? ` (this design has ${near.join(', ')})` : '';
+    at(line, f[0].column, `${JSON.stringify(id)} is not a hardpoint of this design${hint}`);
+    return;
+  }
+  const previous = table.rows.get(id);
+  if (previous) {
+    at(line, f[0].column, `${id} is listed twice (first on line ${previous.line})`, id);
+    return;
+  }
+  const values: number[] = [];
+  let good = true;
+  (['x', 'y', 'z'] as const).forEach((axis, k) => {
+    const field = f[k + 1];
+    const t = field.text.trim();
+    const value = NUMBER.test(t) ? Number(t) : NaN;
+    if (!Number.isFinite(value)) {
+      at(line, field.column, `${id} ${axis}_mm: expected a number in mm, found ${t === '' ? 'nothing' : JSON.stringify(t)}`, `${id}.${axis}`);
+      good = false;
     }
-  }
-  if (issues.length > 0) return { ok: false, issues };
+    values.push(value);
+  });
+  if (good) table.rows.set(id, { line, point: { x: values[0], y: values[1], z: values[2] } });
+}
 
-  // Build the new design: a copy with every hardpoint replaced.
+/**
+ * A copy of the design with every hardpoint replaced. A side given as an exact mirror keeps
+ * the mirrored (single) form it had; otherwise both sides are written out.
+ */
+function withHardpoints(design: DesignFile, refs: HardpointRef[], rows: Rows): DesignFile {
   const next = JSON.parse(JSON.stringify(design)) as DesignFile;
   const fields = new Map<string, HardpointRef[]>();
   for (const ref of refs) {
@@ -265,22 +283,16 @@ export function importHardpointCsv(design: DesignFile, csv: string, fileName: st
     const mirrored = left.x === right.x && left.y === -right.y && left.z === right.z && right.y <= 0;
     setField(next, field, wasSingle && mirrored ? { ...right } : { right: { ...right }, left: { ...left } });
   }
+  return next;
+}
 
-  // The new design must still be a valid design; say which row to fix.
-  const checked = validateDesign(next);
-  if (!checked.ok) {
-    return {
-      ok: false,
-      issues: checked.issues.map((issue) => {
-        const row = [...rows.entries()].find(([id]) => issue.path === id || issue.path.startsWith(`${id}.`))
-          ?? [...rows.entries()].find(([id]) => id.replace(/\.(right|left)$/, '') === issue.path.replace(/\.[xyz]$/, ''));
-        if (!row) return { ...issue, message: `${fileName}: ${issue.message}` };
-        const [, { line }] = row;
-        return { ...issue, message: `${fileName}:${line}:1: ${issue.message}`, line, column: 1 };
-      }),
-    };
-  }
-  return checked;
+/** A validation issue of the new design, placed at the row that set the field (line:1). */
+function atRowOf(issue: DesignIssue, rows: Rows, fileName: string): DesignIssue {
+  const row = [...rows.entries()].find(([id]) => issue.path === id || issue.path.startsWith(`${id}.`))
+    ?? [...rows.entries()].find(([id]) => id.replace(/\.(right|left)$/, '') === issue.path.replace(/\.[xyz]$/, ''));
+  if (!row) return { ...issue, message: `${fileName}: ${issue.message}` };
+  const [, { line }] = row;
+  return { ...issue, message: `${fileName}:${line}:1: ${issue.message}`, line, column: 1 };
 }
 
 /** The ids of a design's hardpoints, in table order (the first column of exportHardpointCsv). */
