@@ -1,11 +1,9 @@
 /** Modal dialogs: notices (errors), confirmations, the recovery offer, "New", About. */
 import { useEffect, useRef, type ReactNode } from 'react';
-import { useStore } from 'zustand';
 import { DEMO_DESIGNS } from '../model/demoDesigns';
 import { useFlow } from './flowContext';
 import { SAFETY_CAUTION } from './SafetyCaution';
-import { uiStore } from './uiStore';
-import { useActions, useWorkbench } from './workbenchContext';
+import { useActions, useUi, useWorkbenchApi } from './workbenchContext';
 
 const VERSION = '0.1.0';
 
@@ -42,7 +40,7 @@ export function Dialogs() {
 }
 
 function NoticeDialog() {
-  const notice = useWorkbench((s) => s.notice);
+  const notice = useUi((s) => s.notice);
   const actions = useActions();
   if (!notice) return null;
   const close = () => actions.showNotice(null);
@@ -63,7 +61,7 @@ function NoticeDialog() {
 }
 
 function ConfirmDialog() {
-  const req = useStore(uiStore, (s) => s.confirm);
+  const req = useUi((s) => s.confirm);
   if (!req) return null;
   return (
     <Modal title={req.title} onClose={() => req.resolve(false)} testId="confirm">
@@ -81,7 +79,7 @@ function ConfirmDialog() {
 }
 
 function RecoveryDialog() {
-  const offer = useWorkbench((s) => s.recovery);
+  const offer = useUi((s) => s.recovery);
   const flow = useFlow();
   if (!offer) return null;
   return (
@@ -122,10 +120,11 @@ function RecoveryDialog() {
 }
 
 function NewDesignDialog() {
-  const open = useStore(uiStore, (s) => s.newDialogOpen);
+  const open = useUi((s) => s.newDialogOpen);
+  const { ui } = useWorkbenchApi();
   const flow = useFlow();
   if (!open) return null;
-  const close = () => uiStore.setState({ newDialogOpen: false });
+  const close = () => ui.setState({ newDialogOpen: false });
   return (
     <Modal title="New design" onClose={close} testId="new-design">
       <p>Start from one of these layouts; every point can be moved afterwards.</p>
@@ -154,7 +153,7 @@ function NewDesignDialog() {
 }
 
 function AboutDialog() {
-  const open = useWorkbench((s) => s.aboutOpen);
+  const open = useUi((s) => s.aboutOpen);
   const actions = useActions();
   if (!open) return null;
   const close = () => actions.setAboutOpen(false);

@@ -2,10 +2,11 @@
 import { useEffect, useState } from 'react';
 import type { RecentEntry } from '../files/fileService';
 import { useFlow } from './flowContext';
-import { uiStore } from './uiStore';
+import { useWorkbenchApi } from './workbenchContext';
 
 export function FileMenu() {
   const flow = useFlow();
+  const { ui } = useWorkbenchApi();
   const [recent, setRecent] = useState<RecentEntry[] | null>(null);
 
   useEffect(() => {
@@ -34,7 +35,7 @@ export function FileMenu() {
 
   return (
     <nav className="file-menu" aria-label="File">
-      <button type="button" onClick={() => uiStore.setState({ newDialogOpen: true })} data-testid="file-new">
+      <button type="button" onClick={() => ui.setState({ newDialogOpen: true })} data-testid="file-new">
         New
       </button>
       <button type="button" onClick={() => void flow.open()} title="Open a design (Ctrl+O)" data-testid="file-open">

@@ -1,16 +1,16 @@
 /** Title, file commands, undo and redo, the dirty marker and About. */
 import { useEffect } from 'react';
 import { FileMenu } from './FileMenu';
-import { useActions, useWorkbench } from './workbenchContext';
+import { useActions, useDocument } from './workbenchContext';
 
 export function TopBar() {
-  const name = useWorkbench((s) => s.design.name);
-  const fileName = useWorkbench((s) => s.doc.fileName);
-  const dirty = useWorkbench((s) => s.dirty);
-  const canUndo = useWorkbench((s) => s.history.past.length > 0);
-  const canRedo = useWorkbench((s) => s.history.future.length > 0);
-  const undoLabel = useWorkbench((s) => s.history.past[s.history.past.length - 1]?.label);
-  const redoLabel = useWorkbench((s) => s.history.future[s.history.future.length - 1]?.label);
+  const name = useDocument((s) => s.design.name);
+  const fileName = useDocument((s) => s.doc.fileName);
+  const dirty = useDocument((s) => s.dirty);
+  const canUndo = useDocument((s) => s.history.past.length > 0);
+  const canRedo = useDocument((s) => s.history.future.length > 0);
+  const undoLabel = useDocument((s) => s.history.past[s.history.past.length - 1]?.label);
+  const redoLabel = useDocument((s) => s.history.future[s.history.future.length - 1]?.label);
   const actions = useActions();
   useEffect(() => {
     document.title = `${dirty ? '● ' : ''}${name} — Tiltbench`;

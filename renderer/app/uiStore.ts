@@ -1,31 +1,14 @@
-/** Dialog state of the shell (confirmations, the "new design" chooser). Not part of the design. */
-import { createStore } from 'zustand/vanilla';
-
-export interface ConfirmRequest {
-  title: string;
-  text: string;
-  confirmLabel: string;
-  cancelLabel?: string;
-  resolve(ok: boolean): void;
-}
-
-export interface UiState {
-  confirm: ConfirmRequest | null;
-  newDialogOpen: boolean;
-}
-
-export const uiStore = createStore<UiState>()(() => ({ confirm: null, newDialogOpen: false }));
+/**
+ * The dialog state moved to the workbench's UI store (renderer/state/uiStore.ts). The document
+ * flow (renderer/files/documentFlow.ts) still asks for confirmation through this function,
+ * without naming its workbench: it goes to the UI store of the workbench made last (the app
+ * makes one per window). New code calls askConfirm(wb.ui, ...) from renderer/state/uiStore.
+ */
+import { askConfirm as askConfirmIn, type ConfirmRequest } from '../state/uiStore';
+import { latestUiStore } from '../state/workbench';
 
 export function askConfirm(req: Omit<ConfirmRequest, 'resolve'>): Promise<boolean> {
-  return new Promise((resolve) => {
-    uiStore.setState({
-      confirm: {
-        ...req,
-        resolve: (ok) => {
-          uiStore.setState({ confirm: null });
-          resolve(ok);
-        },
-      },
-    });
-  });
+  const ui = latestUiStore();
+  if (!ui) throw new Error('askConfirm before any workbench was made');
+  return askConfirmIn(ui, req);
 }

@@ -1,36 +1,34 @@
 /**
- * The charts: the 1-D curves and the envelope heat map, computed in the sweep worker when the
- * design changes (with progress and cancel), with a marker at the current pose; clicking a
- * map cell moves the sliders there.
+ * The charts: the 1-D curves and the envelope heat map, computed by the workbench's jobs (in
+ * the sweep worker, with progress and cancel) when the design changes, with a marker at the
+ * current pose; clicking a map cell moves the sliders there. The tab and the map's choices
+ * are the UI store's `plots`; the results are the jobs store's.
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { useActions, useWorkbench, useWorkbenchApi } from '../app/workbenchContext';
-import { CancelledError, SweepClient } from '../workers/sweepClient';
-import { playbackStore } from '../panels/playback';
-import type { CurveSet, EnvelopeMapData, MapMetric } from './chartData';
+import { useEffect, useMemo, useState } from 'react';
+import { useActions, useDocument, useJobs, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
+import { MAP_RESOLUTIONS, type JobProgress, type MapResolution } from '../state/jobsStore';
+import { setPlots } from '../state/uiStore';
+import type { Workbench } from '../state/workbench';
+import type { MapMetric } from './chartData';
 import { ChartView } from './ChartView';
-import { CURVE_CHARTS, curveOption, type ChartMarker, type CurveChartId } from './curveOptions';
+import { CURVE_CHARTS, curveOption, type ChartMarker } from './curveOptions';
 import { heatMapOption, MAP_METRICS } from './heatMapOptions';
-
-type Tab = CurveChartId | 'map';
 
 /** Quiet time after an edit before the charts are recomputed, ms. */
 const RECOMPUTE_DELAY_MS = 350;
 /** The charts' marker follows the pose once it has been still this long, ms. */
 const MARKER_SETTLE_MS = 250;
 
-const RESOLUTIONS = [
-  { id: 'coarse', label: 'coarse (≈ 11 × 11)', step: (half: number) => Math.max(0.5, half / 5) },
-  { id: 'medium', label: 'medium (2 deg)', step: () => 2 },
-  { id: 'fine', label: 'fine (1 deg)', step: () => 1 },
-] as const;
-
-interface Job {
-  what: string;
-  /** What `done` and `total` count. */
-  unit: string;
-  done: number;
-  total: number;
+function markerOf(wb: Workbench): ChartMarker {
+  const { pose, outcome } = wb.pose.getState();
+  const a = outcome.analysis;
+  const travel = pose.contact === 'travel' ? pose.travelRightMm : -pose.heaveMm;
+  return {
+    leanDeg: pose.leanDeg,
+    handlebarDeg: pose.handlebarDeg,
+    travelMm: travel,
+    ackermann: a && a.ackermann.innerDeg !== null && a.ackermann.outerDeg !== null ? { innerDeg: a.ackermann.innerDeg, outerDeg: a.ackermann.outerDeg } : null,
+  };
 }
 
 /**
@@ -40,209 +38,178 @@ interface Job {
  */
 function useSettledMarker(): ChartMarker {
   const wb = useWorkbenchApi();
-  const read = (): ChartMarker => {
-    const s = wb.store.getState();
-    const a = s.outcome.analysis;
-    const travel = s.pose.contact === 'travel' ? s.pose.travelRightMm : -s.pose.heaveMm;
-    return {
-      leanDeg: s.pose.leanDeg,
-      handlebarDeg: s.pose.handlebarDeg,
-      travelMm: travel,
-      ackermann: a && a.ackermann.innerDeg !== null && a.ackermann.outerDeg !== null ? { innerDeg: a.ackermann.innerDeg, outerDeg: a.ackermann.outerDeg } : null,
-    };
-  };
-  const [marker, setMarker] = useState<ChartMarker>(read);
+  const [marker, setMarker] = useState<ChartMarker>(() => markerOf(wb));
   useEffect(() => {
     let timer: ReturnType<typeof setTimeout> | undefined;
     const settle = () => {
       clearTimeout(timer);
       timer = setTimeout(() => {
-        if (!playbackStore.getState().playing) setMarker(read());
+        if (!wb.ui.getState().playback.playing) setMarker(markerOf(wb));
       }, MARKER_SETTLE_MS);
     };
-    const off = wb.store.subscribe((s, prev) => {
+    const offPose = wb.pose.subscribe((s, prev) => {
       if (s.outcome !== prev.outcome) settle();
     });
-    const offPlayback = playbackStore.subscribe((p, prev) => {
-      if (prev.playing && !p.playing) settle();
+    const offUi = wb.ui.subscribe((u, prev) => {
+      if (prev.playback.playing && !u.playback.playing) settle();
     });
     return () => {
-      off();
-      offPlayback();
+      offPose();
+      offUi();
       clearTimeout(timer);
     };
   }, [wb]);
   return marker;
 }
 
-export function PlotsPanel() {
-  const wb = useWorkbenchApi();
-  const actions = useActions();
-  const revision = useWorkbench((s) => s.revision);
-  const valid = useWorkbench((s) => s.resolved !== null);
-  const [tab, setTab] = useState<Tab>('leanSteer');
-  const [curves, setCurves] = useState<CurveSet | null>(null);
-  const [curvesRevision, setCurvesRevision] = useState(-1);
-  const [map, setMap] = useState<EnvelopeMapData | null>(null);
-  const [mapRevision, setMapRevision] = useState(-1);
-  const [metric, setMetric] = useState<MapMetric>('status');
-  const [resolution, setResolution] = useState<(typeof RESOLUTIONS)[number]['id']>('coarse');
-  const [job, setJob] = useState<Job | null>(null);
-  const [error, setError] = useState<string | null>(null);
-  const [open, setOpen] = useState(true);
-  const client = useMemo(() => new SweepClient(), []);
-  const marker = useSettledMarker();
-  const mapResolutionRef = useRef(resolution);
-
-  useEffect(() => () => client.dispose(), [client]);
-
-  const runCurves = () => {
-    const s = wb.store.getState();
-    if (!s.resolved) return;
-    const rev = s.revision;
-    setError(null);
-    setJob({ what: 'curves', unit: 'curves', done: 0, total: 1 });
-    client
-      .curves({ design: s.design }, (done, total) => setJob({ what: 'curves', unit: 'curves', done, total }))
-      .then((data) => {
-        setCurves(data);
-        setCurvesRevision(rev);
-        setJob(null);
-      })
-      .catch((e) => {
-        if (!(e instanceof CancelledError)) {
-          setError(e instanceof Error ? e.message : String(e));
-          setJob(null);
-        }
-      });
-  };
-
-  const runMap = (res = mapResolutionRef.current) => {
-    const s = wb.store.getState();
-    if (!s.resolved) return;
-    const rev = s.revision;
-    const half = Math.max(s.design.envelope.leanDeg, s.design.envelope.handlebarDeg);
-    const step = RESOLUTIONS.find((r) => r.id === res)!.step(half);
-    setError(null);
-    setJob({ what: 'envelope map', unit: 'poses', done: 0, total: 1 });
-    client
-      .map({ design: s.design, angleStepDeg: step }, (done, total) => setJob({ what: 'envelope map', unit: 'poses', done, total }))
-      .then((data) => {
-        setMap(data);
-        setMapRevision(rev);
-        setJob(null);
-      })
-      .catch((e) => {
-        if (!(e instanceof CancelledError)) {
-          setError(e instanceof Error ? e.message : String(e));
-          setJob(null);
-        }
-      });
-  };
-
-  // Recompute what is shown after the design settles.
+/** Asks the jobs for what the open tab shows, once the design has been still for a moment. */
+function useRecompute(): void {
+  const { jobs } = useWorkbenchApi();
+  const { open, tab, resolution } = useUi((s) => s.plots);
+  const revision = useDocument((s) => s.revision);
+  const valid = usePose((s) => s.resolved !== null);
+  // The revision last asked for: a job running, done, failed or cancelled for it is not asked again.
+  const asked = useJobs((s) => (tab === 'map' ? s.map : s.curves).request?.revision);
   useEffect(() => {
-    if (!valid || !open) return;
-    const needs = tab === 'map' ? mapRevision !== revision : curvesRevision !== revision;
-    if (!needs) return;
-    const t = setTimeout(() => (tab === 'map' ? runMap() : runCurves()), RECOMPUTE_DELAY_MS);
+    if (!valid || !open || asked === revision) return;
+    const t = setTimeout(() => (tab === 'map' ? jobs.runMap(resolution) : jobs.runCurves()), RECOMPUTE_DELAY_MS);
     return () => clearTimeout(t);
-  }, [revision, tab, valid, open, curvesRevision, mapRevision]);
+  }, [jobs, revision, tab, valid, open, asked, resolution]);
+}
+
+function PlotTabs() {
+  const { ui } = useWorkbenchApi();
+  const { open, tab } = useUi((s) => s.plots);
+  const tabButton = (id: typeof tab, label: string) => (
+    <button key={id} type="button" role="tab" aria-selected={tab === id} className={tab === id ? 'is-active' : ''} onClick={() => setPlots(ui, { tab: id, open: true })} data-testid={`tab-${id}`}>
+      {label}
+    </button>
+  );
+  return (
+    <div className="plots-bar" role="tablist">
+      <button type="button" className="plots-toggle" onClick={() => setPlots(ui, { open: !open })} aria-expanded={open} title={open ? 'Hide the plots' : 'Show the plots'}>
+        {open ? '▾' : '▸'} Plots
+      </button>
+      {CURVE_CHARTS.map((c) => tabButton(c.id, c.label))}
+      {tabButton('map', 'Envelope map')}
+    </div>
+  );
+}
+
+function MapControls({ running }: { running: boolean }) {
+  const { ui, jobs } = useWorkbenchApi();
+  const { metric, resolution } = useUi((s) => s.plots);
+  const map = useJobs((s) => s.map.result);
+  return (
+    <div className="map-controls">
+      <label>
+        Colour by{' '}
+        <select value={metric} onChange={(e) => setPlots(ui, { metric: e.target.value as MapMetric })} data-testid="map-metric">
+          {MAP_METRICS.map((m) => (
+            <option key={m.id} value={m.id}>
+              {m.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label>
+        Resolution{' '}
+        <select
+          value={resolution}
+          onChange={(e) => {
+            const r = e.target.value as MapResolution;
+            setPlots(ui, { resolution: r });
+            jobs.runMap(r);
+          }}
+        >
+          {MAP_RESOLUTIONS.map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <button type="button" onClick={() => jobs.runMap(resolution)} disabled={running}>
+        Recompute
+      </button>
+      {map && <span className="hint">{map.cells.length} poses in {(map.elapsedMs / 1000).toFixed(1)} s</span>}
+    </div>
+  );
+}
+
+function JobProgressBar({ what, unit, progress }: { what: string; unit: string; progress: JobProgress }) {
+  const { jobs } = useWorkbenchApi();
+  return (
+    <div className="progress" role="progressbar" aria-valuemin={0} aria-valuemax={progress.total} aria-valuenow={progress.done} data-testid="sweep-progress">
+      <span>
+        Computing the {what}… {progress.total > 1 ? `${progress.done} of ${progress.total} ${unit}` : ''}
+      </span>
+      <progress max={progress.total} value={progress.done} />
+      <button type="button" onClick={() => jobs.cancel()} data-testid="sweep-cancel">
+        Cancel
+      </button>
+    </div>
+  );
+}
+
+/** The chart of the open tab, or why there is none. */
+function PlotBody({ running }: { running: boolean }) {
+  const actions = useActions();
+  const { tab, metric } = useUi((s) => s.plots);
+  const revision = useDocument((s) => s.revision);
+  const valid = usePose((s) => s.resolved !== null);
+  const slot = useJobs((s) => (tab === 'map' ? s.map : s.curves));
+  const curves = useJobs((s) => s.curves.result);
+  const map = useJobs((s) => s.map.result);
+  const marker = useSettledMarker();
 
   const option = useMemo(() => {
     if (tab === 'map') return map ? heatMapOption(map, metric, marker.leanDeg !== null && marker.handlebarDeg !== null ? { leanDeg: marker.leanDeg, handlebarDeg: marker.handlebarDeg } : null) : null;
     return curves ? curveOption(tab, curves, marker) : null;
   }, [tab, curves, map, metric, marker]);
+  const stale = slot.result !== null && slot.resultRevision !== revision;
 
-  const stale = tab === 'map' ? map !== null && mapRevision !== revision : curves !== null && curvesRevision !== revision;
+  return (
+    <>
+      {slot.error && <p className="field-error">The sweep failed: {slot.error}</p>}
+      {!valid && <p className="hint">The design has errors; the plots wait until it is valid.</p>}
+      {stale && !running && <p className="hint stale">The design changed; these plots are from before the change.</p>}
+      {option ? (
+        <ChartView
+          option={option}
+          testId={`chart-${tab}`}
+          onClick={(p) => {
+            if (tab !== 'map' || !map || p.seriesType !== 'heatmap') return;
+            const d = p.data as number[];
+            actions.setPose({ leanDeg: map.lean[d[0]], handlebarDeg: map.handlebar[d[1]] });
+          }}
+        />
+      ) : (
+        !running && valid && <p className="hint">Nothing computed yet.</p>
+      )}
+    </>
+  );
+}
+
+export function PlotsPanel() {
+  const { jobs } = useWorkbenchApi();
+  const { open, tab } = useUi((s) => s.plots);
+  const curvesProgress = useJobs((s) => s.curves.progress);
+  const mapProgress = useJobs((s) => s.map.progress);
+  useRecompute();
+  // Leaving the workbench stops whatever is computing.
+  useEffect(() => () => jobs.cancel(), [jobs]);
+  const running = curvesProgress !== null || mapProgress !== null;
 
   return (
     <section className={`plots ${open ? '' : 'is-closed'}`} aria-label="Plots" data-testid="plots">
-      <div className="plots-bar" role="tablist">
-        <button type="button" className="plots-toggle" onClick={() => setOpen(!open)} aria-expanded={open} title={open ? 'Hide the plots' : 'Show the plots'}>
-          {open ? '▾' : '▸'} Plots
-        </button>
-        {CURVE_CHARTS.map((c) => (
-          <button key={c.id} type="button" role="tab" aria-selected={tab === c.id} className={tab === c.id ? 'is-active' : ''} onClick={() => { setTab(c.id); setOpen(true); }} data-testid={`tab-${c.id}`}>
-            {c.label}
-          </button>
-        ))}
-        <button type="button" role="tab" aria-selected={tab === 'map'} className={tab === 'map' ? 'is-active' : ''} onClick={() => { setTab('map'); setOpen(true); }} data-testid="tab-map">
-          Envelope map
-        </button>
-      </div>
+      <PlotTabs />
       {open && (
         <div className="plots-body">
-          {tab === 'map' && (
-            <div className="map-controls">
-              <label>
-                Colour by{' '}
-                <select value={metric} onChange={(e) => setMetric(e.target.value as MapMetric)} data-testid="map-metric">
-                  {MAP_METRICS.map((m) => (
-                    <option key={m.id} value={m.id}>
-                      {m.label}
-                    </option>
-                  ))}
-                </select>
-              </label>
-              <label>
-                Resolution{' '}
-                <select
-                  value={resolution}
-                  onChange={(e) => {
-                    const r = e.target.value as typeof resolution;
-                    setResolution(r);
-                    mapResolutionRef.current = r;
-                    runMap(r);
-                  }}
-                >
-                  {RESOLUTIONS.map((r) => (
-                    <option key={r.id} value={r.id}>
-                      {r.label}
-                    </option>
-                  ))}
-                </select>
-              </label>
-              <button type="button" onClick={() => runMap()} disabled={job !== null}>
-                Recompute
-              </button>
-              {map && <span className="hint">{map.cells.length} poses in {(map.elapsedMs / 1000).toFixed(1)} s</span>}
-            </div>
-          )}
-          {job && (
-            <div className="progress" role="progressbar" aria-valuemin={0} aria-valuemax={job.total} aria-valuenow={job.done} data-testid="sweep-progress">
-              <span>
-                Computing the {job.what}… {job.total > 1 ? `${job.done} of ${job.total} ${job.unit}` : ''}
-              </span>
-              <progress max={job.total} value={job.done} />
-              <button
-                type="button"
-                onClick={() => {
-                  client.cancel();
-                  setJob(null);
-                }}
-                data-testid="sweep-cancel"
-              >
-                Cancel
-              </button>
-            </div>
-          )}
-          {error && <p className="field-error">The sweep failed: {error}</p>}
-          {!valid && <p className="hint">The design has errors; the plots wait until it is valid.</p>}
-          {stale && !job && <p className="hint stale">The design changed; these plots are from before the change.</p>}
-          {option ? (
-            <ChartView
-              option={option}
-              testId={`chart-${tab}`}
-              onClick={(p) => {
-                if (tab !== 'map' || !map || p.seriesType !== 'heatmap') return;
-                const d = p.data as number[];
-                actions.setPose({ leanDeg: map.lean[d[0]], handlebarDeg: map.handlebar[d[1]] });
-              }}
-            />
-          ) : (
-            !job && valid && <p className="hint">Nothing computed yet.</p>
-          )}
+          {tab === 'map' && <MapControls running={running} />}
+          {curvesProgress && <JobProgressBar what="curves" unit="curves" progress={curvesProgress} />}
+          {mapProgress && <JobProgressBar what="envelope map" unit="poses" progress={mapProgress} />}
+          <PlotBody running={running} />
         </div>
       )}
     </section>

@@ -7,7 +7,7 @@ import { useState, type ReactNode } from 'react';
 import { isTwoSided } from '../../core/design/resolveDesign';
 import type { DesignIssue } from '../../core/design/validateDesign';
 import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES, type DesignFile, type Joints, type Sided } from '../../core/design/types';
-import { useActions, useWorkbench } from '../app/workbenchContext';
+import { useActions, useDocument, usePose } from '../app/workbenchContext';
 import { setField, setFields } from '../model/designActions';
 import { getAt, parsePath } from '../model/designPath';
 import { starterCrankInput, starterFrontEnd, starterSpring, starterSteering } from '../model/designStarters';
@@ -15,8 +15,8 @@ import { issuesAt } from '../model/fieldIssues';
 import { NumberField } from './NumberField';
 
 function useField(path: string): { value: unknown; issues: DesignIssue[] } {
-  const value = useWorkbench((s) => getAt(s.design, parsePath(path)));
-  const all = useWorkbench((s) => s.issues);
+  const value = useDocument((s) => getAt(s.design, parsePath(path)));
+  const all = usePose((s) => s.issues);
   return { value, issues: issuesAt(all, path) };
 }
 
@@ -84,7 +84,7 @@ function Vec({ path, label, unit }: { path: string; label: string; unit: string 
 }
 
 function VecPart({ path, label, unit }: { path: string; label: string; unit: string }) {
-  const value = useWorkbench((s) => getAt(s.design, parsePath(path)));
+  const value = useDocument((s) => getAt(s.design, parsePath(path)));
   const actions = useActions();
   return (
     <NumberField
@@ -147,11 +147,11 @@ const JOINTS: { key: keyof Joints; label: string }[] = [
 ];
 
 export function DesignSheet() {
-  const design = useWorkbench((s) => s.design);
+  const design = useDocument((s) => s.design);
   const actions = useActions();
   const [notesDraft, setNotesDraft] = useState<string | null>(null);
   const [nameDraft, setNameDraft] = useState<string | null>(null);
-  const nameIssues = issuesAt(useWorkbench((s) => s.issues), 'name');
+  const nameIssues = issuesAt(usePose((s) => s.issues), 'name');
   const replace = (values: { path: string; value: unknown }[], label: string) => actions.perform(setFields, { values, label });
   const d: DesignFile = design;
   const st = d.steering;

@@ -4,16 +4,16 @@
  * with the viewport.
  */
 import { Fragment, useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { useActions, useWorkbench } from '../app/workbenchContext';
+import { useActions, useDocument, usePose, useUi } from '../app/workbenchContext';
 import { linkPoint, setCoordinate, unlinkPoint } from '../model/designActions';
 import { issuesOfCell, issuesOfPoint } from '../model/fieldIssues';
 import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpoints';
 import { NumberField } from './NumberField';
 
 export function HardpointTable() {
-  const design = useWorkbench((s) => s.design);
-  const issues = useWorkbench((s) => s.issues);
-  const selection = useWorkbench((s) => s.selection);
+  const design = useDocument((s) => s.design);
+  const issues = usePose((s) => s.issues);
+  const selection = useUi((s) => s.selection);
   const actions = useActions();
   const rows = useMemo(() => hardpointRows(design), [design]);
   const body = useRef<HTMLTableSectionElement>(null);
@@ -36,7 +36,6 @@ export function HardpointTable() {
     el?.scrollIntoView?.({ block: 'nearest' });
   }, [selection]);
 
-  let lastGroup = '';
   return (
     <section className="panel hardpoint-panel" aria-labelledby="hp-title">
       <h2 id="hp-title">Hardpoints</h2>
@@ -55,9 +54,9 @@ export function HardpointTable() {
           </tr>
         </thead>
         <tbody ref={body}>
-          {rows.map((row) => {
-            const header = row.group !== lastGroup;
-            lastGroup = row.group;
+          {rows.map((row, i) => {
+            // A group's first row carries its heading.
+            const header = i === 0 || row.group !== rows[i - 1].group;
             const rowIssues = [...issuesOfPoint(issues, row.key, row.side), ...AXES.flatMap((a) => issuesOfCell(issues, row.key, row.side, a))];
             const unique = [...new Set([...AXES.map((a) => typing[`${row.id}:${a}`]).filter((m) => m !== undefined), ...rowIssues.map((i) => i.message)])];
             return (

@@ -43,17 +43,17 @@ function show(value: number, digits: number | undefined): string {
 
 export function NumberField(p: NumberFieldProps) {
   const [draft, setDraft] = useState<string | null>(null);
-  const [localError, setLocalError] = useState<string | null>(null);
+  /** The field's own complaint, about the value it was showing when made. */
+  const [complaint, setComplaint] = useState<{ message: string; about: number } | null>(null);
   const id = useId();
   const errId = `${id}-err`;
   const input = useRef<HTMLInputElement>(null);
   const shown = draft ?? show(p.value, p.digits);
 
+  // When the value changes from elsewhere (undo, a slider), the old complaint no longer applies.
+  const localError = complaint !== null && Object.is(complaint.about, p.value) ? complaint.message : null;
+  const setLocalError = (message: string | null) => setComplaint(message === null ? null : { message, about: p.value });
   const { onLocalError } = p;
-  useEffect(() => {
-    // The value changed from elsewhere (undo, a slider): the old complaint no longer applies.
-    setLocalError(null);
-  }, [p.value]);
   useEffect(() => {
     onLocalError?.(localError);
   }, [localError, onLocalError]);

@@ -1,21 +1,23 @@
 /** Play a lean sweep, a steer sweep or both, at an adjustable speed. */
 import { useEffect } from 'react';
-import { useStore } from 'zustand';
-import { useWorkbench } from '../app/workbenchContext';
-import { playbackStore, type PlaybackController, type PlaybackMode } from './playback';
+import { useDocument, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
+import { setPlayback } from '../state/uiStore';
+import type { PlaybackController, PlaybackMode } from './playback';
 
 export function PlaybackPanel({ controller }: { controller: PlaybackController }) {
-  const { playing, mode, speedDegPerS } = useStore(playbackStore);
-  const tilting = useWorkbench((s) => s.design.vehicle.tilting);
-  const valid = useWorkbench((s) => s.resolved !== null);
+  const { ui } = useWorkbenchApi();
+  const { playing, mode, speedDegPerS } = useUi((s) => s.playback);
+  const tilting = useDocument((s) => s.design.vehicle.tilting);
+  const valid = usePose((s) => s.resolved !== null);
   useEffect(() => {
-    if (!tilting && mode !== 'steer') playbackStore.setState({ mode: 'steer' });
-  }, [tilting, mode]);
+    // A vehicle that does not lean can only sweep the steering.
+    if (!tilting && mode !== 'steer') setPlayback(ui, { mode: 'steer' });
+  }, [ui, tilting, mode]);
   useEffect(() => () => controller.stop(), [controller]);
   const setMode = (m: PlaybackMode) => {
     const was = playing;
     controller.stop();
-    playbackStore.setState({ mode: m });
+    setPlayback(ui, { mode: m });
     if (was) controller.start();
   };
   return (
@@ -43,7 +45,7 @@ export function PlaybackPanel({ controller }: { controller: PlaybackController }
           max={90}
           step={1}
           value={speedDegPerS}
-          onChange={(e) => playbackStore.setState({ speedDegPerS: Number(e.target.value) })}
+          onChange={(e) => setPlayback(ui, { speedDegPerS: Number(e.target.value) })}
           aria-valuetext={`${speedDegPerS} degrees per second`}
           data-testid="play-speed"
         />

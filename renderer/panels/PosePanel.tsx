@@ -1,9 +1,7 @@
 /** Sliders with numeric fields for lean, steer and travel, and the ground-contact toggle. */
 import { useMemo } from 'react';
-import { useStore } from 'zustand';
-import { useThrottledWorkbench } from '../app/useThrottled';
-import { playbackStore } from './playback';
-import { useActions, useWorkbench } from '../app/workbenchContext';
+import { useThrottledSlice } from '../app/useThrottled';
+import { useActions, useDocument, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { POSE_LABELS, sliderRanges, type PoseField } from '../model/poseInputs';
 import { motion } from '../viewport/viewSignals';
 import { NumberField } from './NumberField';
@@ -11,8 +9,8 @@ import { NumberField } from './NumberField';
 const FIELDS: readonly PoseField[] = ['leanDeg', 'handlebarDeg', 'heaveMm', 'travelRightMm', 'travelLeftMm'];
 
 export function PosePanel() {
-  const design = useWorkbench((s) => s.design);
-  const contact = useWorkbench((s) => s.pose.contact);
+  const design = useDocument((s) => s.design);
+  const contact = usePose((s) => s.pose.contact);
   const actions = useActions();
   const ranges = useMemo(() => sliderRanges(design, contact), [design, contact]);
   return (
@@ -42,8 +40,8 @@ export function PosePanel() {
 const PLAYING_INTERVAL_MS = 250;
 
 function PoseSlider({ field, range }: { field: PoseField; range: ReturnType<typeof sliderRanges>[PoseField] }) {
-  const playing = useStore(playbackStore, (s) => s.playing);
-  const value = useThrottledWorkbench((s) => s.pose[field], playing ? PLAYING_INTERVAL_MS : 0);
+  const playing = useUi((s) => s.playback.playing);
+  const value = useThrottledSlice(useWorkbenchApi().pose, (s) => s.pose[field], playing ? PLAYING_INTERVAL_MS : 0);
   const actions = useActions();
   const meta = POSE_LABELS[field];
   const set = (v: number) => {

@@ -1,11 +1,9 @@
 /** Every measure of the current pose, per wheel and overall, with units and condition words. */
-import { useStore } from 'zustand';
-import { useWorkbench } from '../app/workbenchContext';
-import { useThrottledWorkbench } from '../app/useThrottled';
+import { usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
+import { useThrottledSlice } from '../app/useThrottled';
 import type { ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
-import { playbackStore } from './playback';
 
 /** While the pose moves continuously, the readings repaint at most this often, ms. */
 export const READOUT_INTERVAL_MS = 100;
@@ -13,7 +11,7 @@ export const READOUT_INTERVAL_MS = 100;
 export const PLAYING_READOUT_INTERVAL_MS = 250;
 
 function useReadoutInterval(): number {
-  return useStore(playbackStore, (s) => s.playing) ? PLAYING_READOUT_INTERVAL_MS : READOUT_INTERVAL_MS;
+  return useUi((s) => s.playback.playing) ? PLAYING_READOUT_INTERVAL_MS : READOUT_INTERVAL_MS;
 }
 
 
@@ -85,7 +83,7 @@ function Table({ table }: { table: ReadoutTable }) {
 }
 
 export function ReadoutPanel() {
-  const outcome = useThrottledWorkbench((s) => s.outcome, useReadoutInterval());
+  const outcome = useThrottledSlice(useWorkbenchApi().pose, (s) => s.outcome, useReadoutInterval());
   const reached = outcome.shown === 'requested';
   const ps = outcome.poseStatus;
   const sev = ps ?? undefined;
@@ -106,8 +104,8 @@ export function ReadoutPanel() {
 }
 
 export function AlertsPanel() {
-  const alerts = useThrottledWorkbench((s) => s.outcome.alerts, useReadoutInterval());
-  const issues = useWorkbench((s) => s.issues);
+  const alerts = useThrottledSlice(useWorkbenchApi().pose, (s) => s.outcome.alerts, useReadoutInterval());
+  const issues = usePose((s) => s.issues);
   const count = alerts.length + issues.length;
   return (
     <section className="panel alerts-panel" aria-labelledby="alerts-title" data-testid="alerts">

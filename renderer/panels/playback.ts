@@ -1,22 +1,20 @@
 /**
  * Playback: sweep lean back and forth, the handlebar lock to lock, or both together, at an
  * adjustable speed. Driven by requestAnimationFrame; each frame sets the pose through the
- * store (one solve) and the viewport follows through its subscription.
+ * workbench (one solve) and the viewport follows through its subscription. Whether it plays,
+ * what and how fast are the UI store's `playback` settings.
  */
-import { createStore } from 'zustand/vanilla';
-import type { Workbench } from '../model/workbenchStore';
+import type { Workbench } from '../state/workbench';
+import { setPlayback, type PlaybackMode } from '../state/uiStore';
 import { motion } from '../viewport/viewSignals';
 
-export type PlaybackMode = 'lean' | 'steer' | 'both';
+export type { PlaybackMode };
 
-export interface PlaybackState {
-  playing: boolean;
-  mode: PlaybackMode;
-  /** Sweep speed of the leading input, degrees per second. */
-  speedDegPerS: number;
-}
-
-export const playbackStore = createStore<PlaybackState>()(() => ({ playing: false, mode: 'lean', speedDegPerS: 20 }));
+/**
+ * Deprecated: playback's flags are the workbench's (wb.ui, `playback`). main.tsx's test hook
+ * still lists this name; it holds nothing. Remove it with that line of main.tsx.
+ */
+export const playbackStore = undefined;
 
 /** Position in [-1, 1] of a triangle wave with period 4 at phase p. */
 function triangle(p: number): number {
@@ -36,42 +34,45 @@ export class PlaybackController {
 
   constructor(private readonly wb: Workbench) {}
 
+  private get settings() {
+    return this.wb.ui.getState().playback;
+  }
+
   /** The amplitudes of lean and handlebar for a mode, from the design's envelope. */
   private amplitudes(mode: PlaybackMode): { lean: number; steer: number } {
-    const s = this.wb.store.getState();
-    const e = s.design.envelope;
-    const lean = s.design.vehicle.tilting && mode !== 'steer' ? Math.max(1, e.leanDeg) : 0;
+    const design = this.wb.document.getState().design;
+    const e = design.envelope;
+    const lean = design.vehicle.tilting && mode !== 'steer' ? Math.max(1, e.leanDeg) : 0;
     const steer = mode !== 'lean' ? Math.max(1, e.handlebarDeg) : 0;
     return { lean, steer };
   }
 
   start(): void {
-    if (playbackStore.getState().playing) return;
-    const { mode } = playbackStore.getState();
-    const a = this.amplitudes(mode);
-    const pose = this.wb.store.getState().pose;
+    if (this.settings.playing) return;
+    const a = this.amplitudes(this.settings.mode);
+    const pose = this.wb.pose.getState().pose;
     // Start from where the pose is, so the picture does not jump.
     this.phase = a.lean > 0 ? phaseOf(pose.leanDeg / a.lean) : phaseOf(pose.handlebarDeg / Math.max(1, a.steer));
-    playbackStore.setState({ playing: true });
+    setPlayback(this.wb.ui, { playing: true });
     this.last = performance.now();
     this.raf = requestAnimationFrame(this.tick);
   }
 
   stop(): void {
     cancelAnimationFrame(this.raf);
-    if (!playbackStore.getState().playing) return;
-    playbackStore.setState({ playing: false });
+    if (!this.settings.playing) return;
+    setPlayback(this.wb.ui, { playing: false });
     // The pose where playback stopped, with every measure (playback leaves some out).
     this.wb.actions.setPose({});
   }
 
   toggle(): void {
-    if (playbackStore.getState().playing) this.stop();
+    if (this.settings.playing) this.stop();
     else this.start();
   }
 
   private tick = (now: number): void => {
-    const st = playbackStore.getState();
+    const st = this.settings;
     if (!st.playing) return;
     const dt = Math.min(0.1, Math.max(0, (now - this.last) / 1000));
     this.last = now;

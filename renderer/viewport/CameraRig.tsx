@@ -35,17 +35,17 @@ export function CameraRig() {
       const c = controls.current;
       if (!c) return;
       const box = new Box3();
-      const snap = wb.store.getState().outcome.snapshot;
+      const { outcome, resolved: rs } = wb.pose.getState();
+      const snap = outcome.snapshot;
       const pts = snap ? Object.values(snap.points) : [];
       for (const p of pts) box.expandByPoint(new Vector3(p[0], p[1], p[2]));
       if (snap) {
         for (const w of [snap.wheels.left, snap.wheels.right]) {
-          const r = wb.store.getState().resolved?.wheels.front.rollingRadiusMm ?? 250;
+          const r = rs?.wheels.front.rollingRadiusMm ?? 250;
           box.expandByPoint(new Vector3(w.centre[0] + r, w.centre[1], w.centre[2] + r));
           box.expandByPoint(new Vector3(w.centre[0] - r, w.centre[1], 0));
         }
       }
-      const rs = wb.store.getState().resolved;
       if (rs && view === 'fit') box.expandByPoint(new Vector3(-rs.vehicle.wheelbaseMm - rs.wheels.rear.rollingRadiusMm, 0, 0));
       if (box.isEmpty()) box.set(new Vector3(-400, -500, 0), new Vector3(400, 500, 500));
       const sphere = box.getBoundingSphere(new Sphere());

@@ -7,28 +7,27 @@
 import { useLayoutEffect, useMemo, useRef } from 'react';
 import { TransformControls } from '@react-three/drei';
 import { useThree } from '@react-three/fiber';
-import { useStore } from 'zustand';
 import { Group, Matrix4, Object3D } from 'three';
-import { useWorkbench, useWorkbenchApi } from '../app/workbenchContext';
+import type { DrawingLayout } from '../../core/mechanism/drawingLayout';
+import { useDocument, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { hardpointRows } from '../model/hardpoints';
-import type { WorkbenchState } from '../model/workbenchStore';
 import { bodyIndexOf, bodyPose } from './scenePlacement';
-import { gizmoStore } from './gizmoStore';
 import { motion } from './viewSignals';
 
 const m4 = new Matrix4();
 
 /** Id of the body carrying a hardpoint, from the mechanism's drawing. */
-function carrierOf(s: WorkbenchState, hardpoint: string): string | null {
-  return s.drawing?.joints.find((j) => j.hardpoint === hardpoint)?.body ?? null;
+function carrierOf(drawing: DrawingLayout | null, hardpoint: string): string | null {
+  return drawing?.joints.find((j) => j.hardpoint === hardpoint)?.body ?? null;
 }
 
 export function HardpointGizmo() {
   const wb = useWorkbenchApi();
-  const selection = useWorkbench((s) => s.selection);
-  const constraint = useStore(gizmoStore, (s) => s.constraint);
-  const snap = useStore(gizmoStore, (s) => s.snapMm);
-  const enabled = useStore(gizmoStore, (s) => s.enabled);
+  const selection = useUi((s) => s.selection);
+  const constraint = useUi((s) => s.gizmo.constraint);
+  const snap = useUi((s) => s.gizmo.snapMm);
+  const enabled = useUi((s) => s.gizmo.enabled);
+  const rowExists = useDocument((s) => selection !== null && hardpointRows(s.design).some((r) => r.id === selection));
   const invalidate = useThree((s) => s.invalidate);
   const frame = useRef<Group>(null);
   const target = useMemo(() => new Object3D(), []);
@@ -36,13 +35,14 @@ export function HardpointGizmo() {
 
   useLayoutEffect(() => {
     if (!selection) return;
-    const place = (s: WorkbenchState) => {
+    const place = () => {
       const g = frame.current;
       if (!g || dragging.current) return;
-      const row = hardpointRows(s.design).find((r) => r.id === selection);
+      const row = hardpointRows(wb.document.getState().design).find((r) => r.id === selection);
       if (!row) return;
-      const snapShot = s.outcome.snapshot;
-      const body = carrierOf(s, selection);
+      const { outcome, drawing } = wb.pose.getState();
+      const snapShot = outcome.snapshot;
+      const body = carrierOf(drawing, selection);
       if (!snapShot || !body || !bodyPose(body, snapShot, bodyIndexOf(snapShot), m4)) m4.identity();
       g.matrixAutoUpdate = false;
       g.matrix.copy(m4);
@@ -51,13 +51,12 @@ export function HardpointGizmo() {
       target.updateMatrixWorld(true);
       invalidate();
     };
-    place(wb.store.getState());
-    return wb.store.subscribe((s, prev) => {
-      if (s.outcome !== prev.outcome || s.design !== prev.design) place(s);
+    place();
+    // Every change of the design is solved again, so the pose store hears of it too.
+    return wb.pose.subscribe((s, prev) => {
+      if (s.outcome !== prev.outcome) place();
     });
   }, [wb, selection, target, invalidate]);
-
-  const rowExists = selection !== null && hardpointRows(wb.store.getState().design).some((r) => r.id === selection);
   if (!rowExists || !enabled) return null;
   const show = { x: constraint === 'free' || constraint.includes('x'), y: constraint === 'free' || constraint.includes('y'), z: constraint === 'free' || constraint.includes('z') };
   return (

@@ -20,13 +20,12 @@ import {
   TorusGeometry,
 } from 'three';
 import type { DrawingLayout } from '../../core/mechanism/drawingLayout';
-import { useWorkbench, useWorkbenchApi } from '../app/workbenchContext';
+import { usePose, useWorkbenchApi } from '../app/workbenchContext';
 import { hardpointRows } from '../model/hardpoints';
 import { PART_COLOUR } from '../model/severity';
-import type { WorkbenchState } from '../model/workbenchStore';
 import { JOINT_CAPACITY, LINE_CAPACITY, TUBE_CAPACITY, updateScene } from './sceneUpdate';
-import { hoverStore, renderStats } from './viewSignals';
-import { describeJoint, describeTube, describeTyre } from './hoverText';
+import { renderStats } from './viewSignals';
+import { describeJoint, describeTube, describeTyre, type HoverSource } from './hoverText';
 
 /** Tyre materials: the front wheels first, then the rear ones. */
 const TYRE_SLOTS = 4;
@@ -64,7 +63,7 @@ function useTyreGeometries(layout: DrawingLayout | null) {
 
 export function LinkageModel() {
   const wb = useWorkbenchApi();
-  const layout = useWorkbench((s) => s.drawing);
+  const layout = usePose((s) => s.drawing);
   const invalidate = useThree((s) => s.invalidate);
 
   const tubes = useRef<InstancedMesh>(null);
@@ -79,9 +78,13 @@ export function LinkageModel() {
   const tyreMats = useMemo(() => Array.from({ length: TYRE_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.tyre })), []);
   const patchMats = useMemo(() => Array.from({ length: FRONT_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.rim })), []);
 
+  /** What the hover tip reads, now. */
+  const source = (): HoverSource => ({ design: wb.document.getState().design, outcome: wb.pose.getState().outcome });
+
   useLayoutEffect(() => {
-    const apply = (s: WorkbenchState) => {
-      updateScene({ outcome: s.outcome, selection: s.selection, design: s.design }, layout, {
+    const apply = () => {
+      const input = { outcome: wb.pose.getState().outcome, selection: wb.ui.getState().selection, design: wb.document.getState().design };
+      updateScene(input, layout, {
         tubes: tubes.current,
         joints: joints.current,
         lines: lines.current,
@@ -94,10 +97,18 @@ export function LinkageModel() {
       renderStats.sceneSerial++;
       invalidate();
     };
-    apply(wb.store.getState());
-    return wb.store.subscribe((s, prev) => {
-      if (s.outcome !== prev.outcome || s.selection !== prev.selection || s.design !== prev.design) apply(s);
+    apply();
+    // A change of the design is solved again, so the pose store hears of every change that matters.
+    const offPose = wb.pose.subscribe((s, prev) => {
+      if (s.outcome !== prev.outcome) apply();
     });
+    const offUi = wb.ui.subscribe((s, prev) => {
+      if (s.selection !== prev.selection) apply();
+    });
+    return () => {
+      offPose();
+      offUi();
+    };
   }, [wb, layout, invalidate, tyreMats, patchMats]);
 
   const hover = (e: ThreeEvent<PointerEvent>, [title, text]: [string, string[]]) => {
@@ -105,16 +116,15 @@ export function LinkageModel() {
     const rect = (e.target as HTMLElement | null)?.getBoundingClientRect?.();
     const x = e.nativeEvent.offsetX ?? e.clientX - (rect?.left ?? 0);
     const y = e.nativeEvent.offsetY ?? e.clientY - (rect?.top ?? 0);
-    hoverStore.setState({ hover: { x, y, title, lines: text } });
+    wb.ui.setState({ hover: { x, y, title, lines: text } });
   };
-  const unhover = () => hoverStore.setState({ hover: null });
+  const unhover = () => wb.ui.setState({ hover: null });
 
   /** The hardpoint under the pointer: a drawn joint, or a hardpoint drawn as entered. */
   const hardpointAt = (e: ThreeEvent<PointerEvent | MouseEvent>): string | undefined => {
     if (e.instanceId === undefined) return undefined;
-    const s = wb.store.getState();
-    if (s.outcome.snapshot && layout) return layout.joints[e.instanceId]?.hardpoint;
-    return hardpointRows(s.design)[e.instanceId]?.id;
+    if (wb.pose.getState().outcome.snapshot && layout) return layout.joints[e.instanceId]?.hardpoint;
+    return hardpointRows(wb.document.getState().design)[e.instanceId]?.id;
   };
 
   return (
@@ -122,7 +132,7 @@ export function LinkageModel() {
       <instancedMesh ref={tubes} args={[geo.tube, undefined, TUBE_CAPACITY]} frustumCulled={false}
         onPointerMove={(e) => {
           const t = layout && e.instanceId !== undefined ? layout.tubes[e.instanceId] : undefined;
-          if (t && layout) hover(e, describeTube(t, layout, wb.store.getState()));
+          if (t && layout) hover(e, describeTube(t, layout, source()));
         }}
         onPointerOut={unhover}>
         <meshLambertMaterial />
@@ -130,7 +140,7 @@ export function LinkageModel() {
       <instancedMesh ref={joints} args={[geo.joint, undefined, JOINT_CAPACITY]} frustumCulled={false}
         onPointerMove={(e) => {
           const id = hardpointAt(e);
-          if (id) hover(e, describeJoint(id, layout, wb.store.getState()));
+          if (id) hover(e, describeJoint(id, layout, source()));
         }}
         onPointerOut={unhover}
         onClick={(e) => {
@@ -146,11 +156,11 @@ export function LinkageModel() {
       {tyreGeo.front &&
         layout?.frontWheels.slice(0, FRONT_SLOTS).map((w, i) => (
           <mesh key={w.id} ref={(m) => { tyreRefs.current[i] = m; }} geometry={tyreGeo.front!} material={tyreMats[i]}
-            onPointerMove={(e) => hover(e, describeTyre(w, wb.store.getState()))} onPointerOut={unhover} />
+            onPointerMove={(e) => hover(e, describeTyre(w, source()))} onPointerOut={unhover} />
         ))}
       {layout?.frontWheels.slice(0, FRONT_SLOTS).map((w, i) => (
         <mesh key={w.id} ref={(m) => { patchRefs.current[i] = m; }} geometry={geo.patch} material={patchMats[i]}
-          onPointerMove={(e) => hover(e, describeTyre(w, wb.store.getState()))} onPointerOut={unhover} />
+          onPointerMove={(e) => hover(e, describeTyre(w, source()))} onPointerOut={unhover} />
       ))}
       {tyreGeo.rear &&
         layout?.rearWheels.slice(0, TYRE_SLOTS - FRONT_SLOTS).map((w, i) => (

@@ -1,7 +1,6 @@
 /** The 3D viewport and the DOM around it: view buttons, legend, status, hover tip. */
 import { Canvas } from '@react-three/fiber';
-import { useStore } from 'zustand';
-import { useActions, useWorkbench } from '../app/workbenchContext';
+import { useActions, useDocument, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { SEVERITY_STYLE, SEVERITY_ORDER, PART_COLOUR } from '../model/severity';
 import { CameraRig } from './CameraRig';
 import { GroundGrid } from './GroundGrid';
@@ -9,8 +8,8 @@ import { LinkageModel } from './LinkageModel';
 import { RenderDriver } from './RenderDriver';
 import { HardpointGizmo } from './HardpointGizmo';
 import { ViewportBoundary } from './ViewportBoundary';
-import { hoverStore, viewRequests, type ViewName } from './viewSignals';
-import { gizmoStore, type GizmoConstraint } from './gizmoStore';
+import { viewRequests, type ViewName } from './viewSignals';
+import { setGizmo, type GizmoConstraint } from '../state/uiStore';
 import { rowName, hardpointRows } from '../model/hardpoints';
 
 const FULL_DPR = Math.min(2, typeof window === 'undefined' ? 1 : window.devicePixelRatio || 1);
@@ -24,7 +23,8 @@ const VIEWS: { view: ViewName; label: string; title: string }[] = [
 ];
 
 export function Viewport() {
-  const wheelbase = useWorkbench((s) => s.design.vehicle.wheelbaseMm);
+  const { ui } = useWorkbenchApi();
+  const wheelbase = useDocument((s) => s.design.vehicle.wheelbaseMm);
   return (
     <div className="viewport" data-testid="viewport">
       <ViewportBoundary>
@@ -33,7 +33,7 @@ export function Viewport() {
           dpr={FULL_DPR}
           gl={{ antialias: false, alpha: false, stencil: false, powerPreference: 'high-performance', preserveDrawingBuffer: false }}
           camera={{ up: [0, 0, 1], position: [1800, 1400, 1000], fov: 32, near: 10, far: 40000 }}
-          onPointerMissed={() => hoverStore.setState({ hover: null })}
+          onPointerMissed={() => ui.setState({ hover: null })}
         >
           <color attach="background" args={['#f3f4f0']} />
           <ambientLight intensity={1.9} />
@@ -61,9 +61,9 @@ export function Viewport() {
 }
 
 function StatusOverlay() {
-  const shown = useWorkbench((s) => s.outcome.shown);
-  const status = useWorkbench((s) => s.outcome.status);
-  const message = useWorkbench((s) => s.outcome.message);
+  const shown = usePose((s) => s.outcome.shown);
+  const status = usePose((s) => s.outcome.status);
+  const message = usePose((s) => s.outcome.message);
   if (shown === 'requested' && status !== 'singular') return null;
   let title: string;
   let text: string;
@@ -122,7 +122,7 @@ function Legend() {
 }
 
 function HoverTip() {
-  const hover = useStore(hoverStore, (s) => s.hover);
+  const hover = useUi((s) => s.hover);
   if (!hover) return null;
   return (
     <div className="hover-tip" style={{ left: hover.x + 14, top: hover.y + 14 }} role="tooltip">
@@ -145,10 +145,11 @@ const CONSTRAINTS: { id: GizmoConstraint; label: string; title: string }[] = [
 ];
 
 function GizmoBar() {
-  const selection = useWorkbench((s) => s.selection);
-  const design = useWorkbench((s) => s.design);
+  const { ui } = useWorkbenchApi();
+  const selection = useUi((s) => s.selection);
+  const design = useDocument((s) => s.design);
   const actions = useActions();
-  const g = useStore(gizmoStore);
+  const g = useUi((s) => s.gizmo);
   if (!selection) return null;
   const row = hardpointRows(design).find((r) => r.id === selection);
   if (!row) return null;
@@ -160,13 +161,13 @@ function GizmoBar() {
       </strong>
       <span>move</span>
       {CONSTRAINTS.map((c) => (
-        <button key={c.id} type="button" title={c.title} aria-pressed={g.constraint === c.id} className={g.constraint === c.id ? 'is-active' : ''} onClick={() => gizmoStore.setState({ constraint: c.id })}>
+        <button key={c.id} type="button" title={c.title} aria-pressed={g.constraint === c.id} className={g.constraint === c.id ? 'is-active' : ''} onClick={() => setGizmo(ui, { constraint: c.id })}>
           {c.label}
         </button>
       ))}
       <label title="snap step while dragging">
         snap{' '}
-        <select value={g.snapMm} onChange={(e) => gizmoStore.setState({ snapMm: Number(e.target.value) })}>
+        <select value={g.snapMm} onChange={(e) => setGizmo(ui, { snapMm: Number(e.target.value) })}>
           <option value={0}>off</option>
           <option value={0.5}>0.5 mm</option>
           <option value={1}>1 mm</option>

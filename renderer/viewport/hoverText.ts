@@ -2,16 +2,23 @@
 import { checksShownBy, type DrawingLayout, type DrawnFrontWheel, type DrawnTube } from '../../core/mechanism/drawingLayout';
 import { hardpointRows, rowName } from '../model/hardpoints';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
-import type { WorkbenchState } from '../model/workbenchStore';
+import type { DesignFile } from '../../core/design/types';
+import type { PoseOutcome } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
 import { readout } from '../model/analysisAdapter';
 import { partBroken } from './drawingParts';
+
+/** What the tip reads: the design (hardpoints as entered) and the outcome of the pose. */
+export interface HoverSource {
+  design: DesignFile;
+  outcome: PoseOutcome;
+}
 
 const said = (sev: Severity | undefined, what: string): string | null =>
   sev && sev !== 'none' ? `${SEVERITY_STYLE[sev].glyph} ${SEVERITY_STYLE[sev].word}${what}` : null;
 
 /** A hardpoint (selection id) under the pointer: where it is, its condition, its joint's articulation. */
-export function describeJoint(hardpoint: string, layout: DrawingLayout | null, s: WorkbenchState): [string, string[]] {
+export function describeJoint(hardpoint: string, layout: DrawingLayout | null, s: HoverSource): [string, string[]] {
   const row = hardpointRows(s.design).find((r) => r.id === hardpoint);
   const drawn = layout?.joints.find((j) => j.hardpoint === hardpoint);
   const title = row ? rowName(row) : (drawn?.label ?? hardpoint);
@@ -32,7 +39,7 @@ export function describeJoint(hardpoint: string, layout: DrawingLayout | null, s
   return [title, lines];
 }
 
-export function describeTube(t: DrawnTube, layout: DrawingLayout, s: WorkbenchState): [string, string[]] {
+export function describeTube(t: DrawnTube, layout: DrawingLayout, s: HoverSource): [string, string[]] {
   const lines: string[] = [];
   if (partBroken(layout, s.outcome.parts, t.id)) lines.push(`${said('broken', '')}: ${s.outcome.message}`);
   const condition = said(s.outcome.parts[t.id], ': see the clearances and transmission readings');
@@ -41,7 +48,7 @@ export function describeTube(t: DrawnTube, layout: DrawingLayout, s: WorkbenchSt
   return [t.label, lines];
 }
 
-export function describeTyre(w: DrawnFrontWheel, s: WorkbenchState): [string, string[]] {
+export function describeTyre(w: DrawnFrontWheel, s: HoverSource): [string, string[]] {
   const out = s.outcome;
   const lines: string[] = [];
   if (out.shown === 'requested') {

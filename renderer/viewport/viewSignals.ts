@@ -1,9 +1,9 @@
 /**
  * Small channels between the DOM around the canvas and the three.js scene: camera view
- * requests, the "something is moving" signal that lowers the resolution, hover text, and
- * render statistics for the benchmark and tests. No React.
+ * requests, the "something is moving" signal that lowers the resolution, and render
+ * statistics for the benchmark and tests. Events, not state (the hover tip is the UI
+ * store's). No React.
  */
-import { createStore } from 'zustand/vanilla';
 
 export type ViewName = 'front' | 'side' | 'top' | 'threeQuarter' | 'fit';
 
@@ -25,16 +25,6 @@ export const viewRequests = new Channel<ViewName>();
 
 /** Pinged by anything that moves the picture continuously (sliders, playback, orbit, gizmo). */
 export const motion = new Channel<void>();
-
-export interface HoverInfo {
-  /** Pixel position in the viewport element. */
-  x: number;
-  y: number;
-  title: string;
-  lines: string[];
-}
-
-export const hoverStore = createStore<{ hover: HoverInfo | null }>()(() => ({ hover: null }));
 
 /** Counters read by the benchmark and the end-to-end tests (window.__tiltbenchStats). */
 export interface RenderStats {

@@ -46,21 +46,21 @@ describe('document flow', () => {
   it('a malformed file shows a clear error and keeps the current design', async () => {
     const wb = demoWorkbench();
     wb.actions.perform(setCoordinate, { rowId: 'steering.pivot', axis: 'z', value: 110 });
-    const before = wb.store.getState().designText;
+    const before = wb.document.getState().designText;
     const { files, state } = fakeFiles();
     const flow = new DocumentFlow(wb, files);
     state.toOpen = { fileName: 'broken.tiltsheet', path: null, text: '{ "tiltsheet": 1, "name": "x", ' };
     // The design is dirty: opening asks first; answer yes.
-    const { uiStore } = await import('../../renderer/app/uiStore');
     const opening = flow.open();
-    await vi.waitFor(() => expect(uiStore.getState().confirm).not.toBeNull());
-    uiStore.getState().confirm!.resolve(true);
+    await vi.waitFor(() => expect(wb.ui.getState().confirm).not.toBeNull());
+    wb.ui.getState().confirm!.resolve(true);
     await opening;
-    const s = wb.store.getState();
-    expect(s.notice?.kind).toBe('error');
-    expect(s.notice?.title).toBe('Could not open broken.tiltsheet');
-    expect(s.notice?.lines.join(' ')).toMatch(/broken\.tiltsheet:1:32: invalid JSON.*line 1, column 32/);
-    expect(s.notice?.lines.join(' ')).toMatch(/still here/);
+    const { notice } = wb.ui.getState();
+    expect(notice?.kind).toBe('error');
+    expect(notice?.title).toBe('Could not open broken.tiltsheet');
+    expect(notice?.lines.join(' ')).toMatch(/broken\.tiltsheet:1:32: invalid JSON.*line 1, column 32/);
+    expect(notice?.lines.join(' ')).toMatch(/still here/);
+    const s = wb.document.getState();
     expect(s.designText).toBe(before);
     expect(s.dirty).toBe(true);
   });
@@ -72,7 +72,7 @@ describe('document flow', () => {
     const bad = demoDesign() as unknown as Record<string, Record<string, unknown>>;
     bad.envelope.leanDeg = 'lots';
     expect(flow.loadText({ fileName: 'bad.tiltsheet', path: null, text: JSON.stringify(bad) })).toBe(false);
-    expect(wb.store.getState().notice?.lines[0]).toMatch(/envelope\.leanDeg/);
+    expect(wb.ui.getState().notice?.lines[0]).toMatch(/envelope\.leanDeg/);
   });
 
   it('save writes the canonical text, clears the dirty marker and the recovery copy', async () => {
@@ -82,10 +82,10 @@ describe('document flow', () => {
     await flow.start();
     wb.actions.perform(setCoordinate, { rowId: 'steering.pivot', axis: 'z', value: 111 });
     await vi.advanceTimersByTimeAsync(AUTOSAVE_DELAY_MS + 50);
-    expect(state.recovery).toBe(wb.store.getState().designText);
+    expect(state.recovery).toBe(wb.document.getState().designText);
     expect(await flow.save()).toBe(true);
-    expect(state.saved[0].text).toBe(designToText(wb.store.getState().design));
-    expect(wb.store.getState().dirty).toBe(false);
+    expect(state.saved[0].text).toBe(designToText(wb.document.getState().design));
+    expect(wb.document.getState().dirty).toBe(false);
     expect(state.recovery).toBeNull();
   });
 
@@ -97,10 +97,10 @@ describe('document flow', () => {
     state.recovery = designToText(edited);
     const flow = new DocumentFlow(wb, files);
     await flow.start();
-    expect(wb.store.getState().recovery?.name).toBe('Edited before the crash');
+    expect(wb.ui.getState().recovery?.name).toBe('Edited before the crash');
     await flow.resolveRecovery(true);
-    expect(wb.store.getState().design.name).toBe('Edited before the crash');
-    expect(wb.store.getState().dirty).toBe(true);
+    expect(wb.document.getState().design.name).toBe('Edited before the crash');
+    expect(wb.document.getState().dirty).toBe(true);
   });
 
   it('a damaged recovery copy is reported, not loaded', async () => {
@@ -109,8 +109,8 @@ describe('document flow', () => {
     state.recovery = '{"tiltsheet": 1';
     const flow = new DocumentFlow(wb, files);
     await flow.start();
-    expect(wb.store.getState().recovery?.problem).toMatch(/recovery copy/);
-    expect(wb.store.getState().design.name).toMatch(/Heron/);
+    expect(wb.ui.getState().recovery?.problem).toMatch(/recovery copy/);
+    expect(wb.document.getState().design.name).toMatch(/Heron/);
   });
 
   it('the browser service saves by download and remembers recent files', async () => {

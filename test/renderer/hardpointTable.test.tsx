@@ -30,11 +30,11 @@ describe('hardpoint table', () => {
     const wb = demoWorkbench();
     render(withWorkbench(wb, <HardpointTable />));
     type(cell('frontEnd.upper.outerJoint.right', 'y'), '-320');
-    const d = wb.store.getState().design;
+    const d = wb.document.getState().design;
     expect(d.frontEnd.upper.outerJoint).toEqual({ x: -13.3, y: -320, z: 330 });
     expect(cell('frontEnd.upper.outerJoint.left', 'y').value).toBe('320');
-    expect(wb.store.getState().dirty).toBe(true);
-    expect(wb.store.getState().history.past).toHaveLength(1);
+    expect(wb.document.getState().dirty).toBe(true);
+    expect(wb.document.getState().history.past).toHaveLength(1);
   });
 
   it('editing the left side of a mirrored pair stores the mirror of it', () => {
@@ -42,7 +42,7 @@ describe('hardpoint table', () => {
     render(withWorkbench(wb, <HardpointTable />));
     type(cell('upright.wheelCentre.left', 'y'), '410');
     type(cell('upright.wheelCentre.left', 'x'), '5');
-    expect(wb.store.getState().design.upright.wheelCentre).toEqual({ x: 5, y: -410, z: 245 });
+    expect(wb.document.getState().design.upright.wheelCentre).toEqual({ x: 5, y: -410, z: 245 });
     expect(cell('upright.wheelCentre.right', 'y').value).toBe('-410');
     expect(cell('upright.wheelCentre.right', 'x').value).toBe('5');
   });
@@ -51,13 +51,13 @@ describe('hardpoint table', () => {
     const wb = demoWorkbench();
     render(withWorkbench(wb, <HardpointTable />));
     fireEvent.click(screen.getByTestId('unlink-frontEnd.lower.outerJoint'));
-    expect(wb.store.getState().design.frontEnd.lower.outerJoint).toEqual({ right: { x: 12, y: -352, z: 150 }, left: { x: 12, y: 352, z: 150 } });
+    expect(wb.document.getState().design.frontEnd.lower.outerJoint).toEqual({ right: { x: 12, y: -352, z: 150 }, left: { x: 12, y: 352, z: 150 } });
     type(cell('frontEnd.lower.outerJoint.left', 'z'), '160');
     expect(cell('frontEnd.lower.outerJoint.right', 'z').value).toBe('150');
-    expect(wb.store.getState().design.frontEnd.lower.outerJoint).toEqual({ right: { x: 12, y: -352, z: 150 }, left: { x: 12, y: 352, z: 160 } });
+    expect(wb.document.getState().design.frontEnd.lower.outerJoint).toEqual({ right: { x: 12, y: -352, z: 150 }, left: { x: 12, y: 352, z: 160 } });
 
     fireEvent.click(screen.getByTestId('link-frontEnd.lower.outerJoint'));
-    expect(wb.store.getState().design.frontEnd.lower.outerJoint).toEqual({ x: 12, y: -352, z: 150 });
+    expect(wb.document.getState().design.frontEnd.lower.outerJoint).toEqual({ x: 12, y: -352, z: 150 });
     expect(cell('frontEnd.lower.outerJoint.left', 'z').value).toBe('150');
 
     act(() => {
@@ -68,16 +68,16 @@ describe('hardpoint table', () => {
       wb.actions.undo();
       wb.actions.undo();
     });
-    expect(wb.store.getState().design.frontEnd.lower.outerJoint).toEqual({ x: 12, y: -352, z: 150 });
-    expect(wb.store.getState().dirty).toBe(false);
+    expect(wb.document.getState().design.frontEnd.lower.outerJoint).toEqual({ x: 12, y: -352, z: 150 });
+    expect(wb.document.getState().dirty).toBe(false);
   });
 
   it('refuses text that is not a number, naming the field, and changes nothing', () => {
     const wb = demoWorkbench();
     render(withWorkbench(wb, <HardpointTable />));
-    const before = wb.store.getState().design;
+    const before = wb.document.getState().design;
     type(cell('upright.steeringArmJoint.right', 'x'), '12,5mm');
-    expect(wb.store.getState().design).toBe(before);
+    expect(wb.document.getState().design).toBe(before);
     const msg = screen.getByTestId('issue-upright.steeringArmJoint.right').textContent ?? '';
     expect(msg).toMatch(/right upright steering arm joint x/);
     expect(msg).toMatch(/not a number/);
@@ -91,7 +91,7 @@ describe('hardpoint table', () => {
     const issue = screen.getByTestId('issue-upright.wheelCentre.right').textContent ?? '';
     expect(issue).toMatch(/upright\.wheelCentre\.z/);
     expect(issue).toMatch(/above the ground/);
-    expect(wb.store.getState().outcome.status).toBe('invalid-design');
+    expect(wb.pose.getState().outcome.status).toBe('invalid-design');
     expect(cell('upright.wheelCentre.right', 'z').getAttribute('aria-invalid')).toBe('true');
   });
 
@@ -99,7 +99,7 @@ describe('hardpoint table', () => {
     const wb = demoWorkbench();
     render(withWorkbench(wb, <HardpointTable />));
     fireEvent.click(screen.getByTestId('hp-steering.pivot'));
-    expect(wb.store.getState().selection).toBe('steering.pivot');
+    expect(wb.ui.getState().selection).toBe('steering.pivot');
     expect(screen.getByTestId('hp-steering.pivot').getAttribute('aria-selected')).toBe('true');
   });
 });

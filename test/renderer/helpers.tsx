@@ -6,7 +6,7 @@ import { parseDesignText } from '../../core/design/validateDesign';
 import type { DesignFile } from '../../core/design/types';
 import { WorkbenchProvider } from '../../renderer/app/workbenchContext';
 import { designToText } from '../../renderer/model/designText';
-import { createWorkbench, type Workbench } from '../../renderer/model/workbenchStore';
+import { createWorkbench, type Workbench } from '../../renderer/state/workbench';
 
 export function demoDesign(name = 'heron-tilting-velomobile'): DesignFile {
   // The test runner's working directory is the repository root.

@@ -56,10 +56,10 @@ describe('the linkage drawing', () => {
     it(`draws every part of the layout at the solved pose (${demo})`, () => {
       const wb = demoWorkbench(demo);
       wb.actions.setPose({ leanDeg: 12, handlebarDeg: 6 });
-      const s = wb.store.getState();
+      const s = wb.pose.getState();
       const layout = s.drawing!;
       const o = sceneObjects();
-      updateScene({ outcome: s.outcome, selection: null, design: s.design }, layout, o);
+      updateScene({ outcome: s.outcome, selection: null, design: wb.document.getState().design }, layout, o);
       // Every tube of the layout, plus the handlebar's bar and stem.
       expect(o.tubes!.count).toBe(layout.tubes.length + 2);
       expect(o.joints!.count).toBe(layout.joints.length);
@@ -76,7 +76,7 @@ describe('the linkage drawing', () => {
 
   it('colours the parts that stand for a loop that will not close, and only those', () => {
     const wb = demoWorkbench();
-    const s = wb.store.getState();
+    const s = { ...wb.pose.getState(), design: wb.document.getState().design };
     const layout = s.drawing!;
     const constraint = buildMechanism(resolveDesign(demoDesign())).constraints.find((c) => c.kind === 'distance')!;
     const broken = drawingPartsFor(layout, { kind: 'constraint', constraint: constraint.id });
@@ -92,7 +92,7 @@ describe('the linkage drawing', () => {
 
   it('marks the selected hardpoint', () => {
     const wb = demoWorkbench();
-    const s = wb.store.getState();
+    const s = { ...wb.pose.getState(), design: wb.document.getState().design };
     const layout = s.drawing!;
     const o = sceneObjects();
     const chosen = layout.joints[3];

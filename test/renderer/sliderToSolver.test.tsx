@@ -32,7 +32,7 @@ describe('slider to solver to readouts', () => {
   it('a pose action solves with core and stores core’s measures', () => {
     const wb = demoWorkbench();
     wb.actions.setPose({ leanDeg: 10, handlebarDeg: 5 });
-    const o = wb.store.getState().outcome;
+    const o = wb.pose.getState().outcome;
     expect(o.status).toBe('converged');
     const a = coreAt(10, 5);
     expect(o.analysis!.wheels.left.toeDeg).toBeCloseTo(a.wheels.left.toeDeg, 9);
@@ -44,7 +44,7 @@ describe('slider to solver to readouts', () => {
   it('the measures that need neighbouring poses agree with core’s single-pose report', () => {
     const wb = demoWorkbench();
     wb.actions.setPose({ leanDeg: 8, handlebarDeg: 12 });
-    const mine = wb.store.getState().outcome.analysis!;
+    const mine = wb.pose.getState().outcome.analysis!;
     const core = solveSinglePose(resolveDesign(demoDesign()), {
       contact: 'ground',
       steerBy: 'handlebar',
@@ -78,7 +78,7 @@ describe('slider to solver to readouts', () => {
     render(withWorkbench(wb, [<PosePanel key="p" />, <ReadoutPanel key="r" />]));
     const before = text('readout-camberGround-left');
     fireEvent.change(screen.getByTestId('slider-leanDeg'), { target: { value: '20' } });
-    expect(wb.store.getState().pose.leanDeg).toBe(20);
+    expect(wb.pose.getState().pose.leanDeg).toBe(20);
     expect(text('readout-camberGround-left')).not.toBe(before);
     expect(text('readout-camberGround-left')).toContain(fmt(coreAt(20, 0).wheels.left.camberDeg, 2));
     expect((screen.getByTestId('pose-leanDeg') as HTMLInputElement).value).toBe('20.0');
@@ -91,7 +91,7 @@ describe('slider to solver to readouts', () => {
     fireEvent.change(field, { target: { value: 'left' } });
     fireEvent.keyDown(field, { key: 'Enter' });
     expect(screen.getByRole('alert').textContent).toMatch(/Steer \(handlebar\).*not a number.*deg/);
-    expect(wb.store.getState().pose.handlebarDeg).toBe(0);
+    expect(wb.pose.getState().pose.handlebarDeg).toBe(0);
   });
 
   it('a non-tilting design keeps the lean at zero and says why the slider is off', () => {
@@ -99,7 +99,7 @@ describe('slider to solver to readouts', () => {
     render(withWorkbench(wb, <PosePanel />));
     expect((screen.getByTestId('slider-leanDeg') as HTMLInputElement).disabled).toBe(true);
     act(() => wb.actions.setPose({ leanDeg: 10 }));
-    expect(wb.store.getState().pose.leanDeg).toBe(0);
+    expect(wb.pose.getState().pose.leanDeg).toBe(0);
     expect(screen.getByText(/does not lean/)).toBeTruthy();
   });
 });

@@ -1,0 +1,169 @@
+/**
+ * The workbench: its four stores and every action that spans them. No React here (the React
+ * binding is app/workbenchContext.tsx); the viewport subscribes to the stores without React
+ * to follow continuous motion.
+ *
+ * - document: the design and its undo history (documentStore.ts)
+ * - pose: the pose asked for and everything solved from the design there (poseStore.ts)
+ * - ui: selection, dialogs, gizmo, playback, plots, hover (uiStore.ts)
+ * - jobs: the plots' curves and envelope map in the sweep worker (jobsStore.ts)
+ */
+import type { DesignFile, Vec3Mm } from '../../core/design/types';
+import { describeRow, movePoint, type DesignAction } from '../model/designActions';
+import { changeAt } from '../model/history';
+import { pointTarget, splitRowId } from '../model/hardpoints';
+import type { Contact, PoseUi } from '../model/poseInputs';
+import type { SweepClient } from '../workers/sweepClient';
+import { createDocumentStore, DocumentEditor, type DocInfo, type DocumentState, type DocumentStore } from './documentStore';
+import { Jobs } from './jobsStore';
+import { PoseView, type PoseState, type PoseStore } from './poseStore';
+import { createUiStore, type Notice, type RecoveryOffer, type UiState, type UiStore } from './uiStore';
+
+export interface WorkbenchActions {
+  /** Replace the design (open, new, restore): history cleared, the pose back at the design's. */
+  loadDesign(design: DesignFile, doc: DocInfo): void;
+  perform<P>(action: DesignAction<P>, payload: P): boolean;
+  undo(): boolean;
+  redo(): boolean;
+  /** Set pose inputs and solve. `quick` (playback) skips the measures that need extra solves. */
+  setPose(change: Partial<Omit<PoseUi, 'contact'>>, quick?: boolean): void;
+  setContact(contact: Contact): void;
+  resetPose(): void;
+  select(id: string | null): void;
+  beginDrag(): void;
+  dragPoint(rowId: string, value: Vec3Mm): void;
+  endDrag(): void;
+  markSaved(text: string, doc: Partial<DocInfo>): void;
+  showNotice(notice: Notice | null): void;
+  setRecovery(offer: RecoveryOffer | null): void;
+  setAboutOpen(open: boolean): void;
+}
+
+/**
+ * One read-only view of the document, pose and dialog state together, for code that reads
+ * the workbench as one object: the document flow (renderer/files), main.tsx's test hook and
+ * the end-to-end tests. Components read the stores themselves.
+ */
+export type WorkbenchState = DocumentState & PoseState & Pick<UiState, 'selection' | 'dragging' | 'notice' | 'recovery' | 'aboutOpen'>;
+
+export interface ReadonlyStore<T> {
+  getState(): T;
+  subscribe(listener: (state: T, prev: T) => void): () => void;
+}
+
+export interface Workbench {
+  document: DocumentStore;
+  pose: PoseStore;
+  ui: UiStore;
+  jobs: Jobs;
+  actions: WorkbenchActions;
+  /** The combined read-only view (see WorkbenchState). */
+  store: ReadonlyStore<WorkbenchState>;
+}
+
+export interface WorkbenchOptions {
+  /** The sweep client the jobs run on (tests pass one without a worker). */
+  sweepClient?: SweepClient;
+}
+
+/** The UI store of the workbench made last, for the confirmation asked by code that does not name its workbench. */
+let latestUi: UiStore | null = null;
+export function latestUiStore(): UiStore | null {
+  return latestUi;
+}
+
+export function createWorkbench(design: DesignFile, doc: DocInfo, options: WorkbenchOptions = {}): Workbench {
+  const document = createDocumentStore(design, doc);
+  const editor = new DocumentEditor(document);
+  const view = new PoseView(document);
+  const ui = createUiStore();
+  latestUi = ui;
+  const jobs = new Jobs(document, options.sweepClient);
+  const actions = workbenchActions(editor, view, ui);
+  return { document, pose: view.store, ui, jobs, actions, store: combinedView(document, view.store, ui) };
+}
+
+function workbenchActions(editor: DocumentEditor, view: PoseView, ui: UiStore): WorkbenchActions {
+  const document = editor.store;
+  /** The design when the drag began, and the row being dragged. */
+  let dragStart: DesignFile | null = null;
+  let dragRow: string | null = null;
+  return {
+    loadDesign(d, info) {
+      dragStart = null;
+      ui.setState({ selection: null, dragging: false });
+      view.startNextDesignAtDesignPose();
+      editor.load(d, info);
+    },
+    perform: (action, payload) => editor.perform(action, payload),
+    undo: () => editor.undo(),
+    redo: () => editor.redo(),
+    setPose: (change, quick) => view.setPose(change, quick),
+    setContact: (contact) => view.setContact(contact),
+    resetPose: () => view.resetPose(),
+    select(id) {
+      if (ui.getState().selection !== id) ui.setState({ selection: id });
+    },
+    beginDrag() {
+      dragStart = document.getState().design;
+      dragRow = ui.getState().selection;
+      ui.setState({ dragging: true });
+    },
+    dragPoint(rowId, value) {
+      const result = movePoint.perform(document.getState().design, { rowId, value });
+      if (result.delta === null) return;
+      dragRow = rowId;
+      editor.replace(result.design);
+    },
+    /** The whole drag becomes one undo step. */
+    endDrag() {
+      const start = dragStart;
+      dragStart = null;
+      ui.setState({ dragging: false });
+      if (!start || !dragRow) return;
+      const { key, side } = splitRowId(dragRow);
+      const target = pointTarget(document.getState().design, key, side, { x: 0, y: 0, z: 0 });
+      const change = changeAt(start, document.getState().design, target.path);
+      if (change) editor.record({ label: `move ${describeRow(start, dragRow)}`, changes: [change] });
+    },
+    markSaved: (text, info) => editor.markSaved(text, info),
+    showNotice: (notice) => ui.setState({ notice }),
+    setRecovery: (recovery) => ui.setState({ recovery }),
+    setAboutOpen: (aboutOpen) => ui.setState({ aboutOpen }),
+  };
+}
+
+function combinedView(document: DocumentStore, pose: PoseStore, ui: UiStore): ReadonlyStore<WorkbenchState> {
+  const read = (): WorkbenchState => {
+    const u = ui.getState();
+    return {
+      ...document.getState(),
+      ...pose.getState(),
+      selection: u.selection,
+      dragging: u.dragging,
+      notice: u.notice,
+      recovery: u.recovery,
+      aboutOpen: u.aboutOpen,
+    };
+  };
+  let current = read();
+  const listeners = new Set<(s: WorkbenchState, prev: WorkbenchState) => void>();
+  const update = () => {
+    const prev = current;
+    current = read();
+    for (const l of listeners) l(current, prev);
+  };
+  document.subscribe(update);
+  pose.subscribe(update);
+  // The hover tip and the plots' settings change often and are not part of this view.
+  ui.subscribe((u, prev) => {
+    if (u.selection !== prev.selection || u.dragging !== prev.dragging || u.notice !== prev.notice || u.recovery !== prev.recovery || u.aboutOpen !== prev.aboutOpen) update();
+  });
+  return {
+    getState: () => current,
+    subscribe(listener) {
+      listeners.add(listener);
+      return () => listeners.delete(listener);
+    },
+  };
+}
