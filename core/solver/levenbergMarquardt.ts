@@ -154,7 +154,13 @@ export class LevenbergMarquardt {
     this.factorAge = Infinity;
   }
 
-  /** Solve from the problem's current state. The outcome record is reused by the next solve. */
+  /**
+   * Solve from the problem's current state. The outcome record is reused by the next solve.
+   *
+   * One method on purpose: the iteration's state (damping mu and nu, cost, largest residual,
+   * counts) lives in locals that V8 keeps unboxed; split into methods it would move to fields
+   * or be passed as boxed numbers on every call of the hot loop.
+   */
   solve(opts: LmOptions): LmOutcome {
     const { n, r, rTrial, a, aDamped, g, negG, h, scale } = this;
     const p = this.problem;
@@ -165,16 +171,7 @@ export class LevenbergMarquardt {
     this.normalValid = false;
     this.factorAge++;
     this.tau = opts.tau;
-    if (!p.residuals(r)) {
-      const o = this.outcome;
-      o.ending = 'non-finite';
-      o.iterations = 0;
-      o.evaluations = evaluations;
-      o.maxResidual = Infinity;
-      o.pivotRatio = 0;
-      o.worstResidual = worstIndex(r);
-      return o;
-    }
+    if (!p.residuals(r)) return this.nonFiniteStart();
     let cost = halfSquaredNorm(r);
     let maxR = maxAbs(r);
     if (n === 0 || maxR < opts.tolerance) {
@@ -356,6 +353,18 @@ export class LevenbergMarquardt {
 
   /** One outcome record per solver, overwritten by each solve (no allocation per pose). */
   private readonly outcome: LmOutcome = { ending: 'converged', iterations: 0, evaluations: 0, maxResidual: 0, pivotRatio: 1, worstResidual: -1, problem: '' };
+
+  /** The outcome when the residual cannot be evaluated at the start (one evaluation made). */
+  private nonFiniteStart(): LmOutcome {
+    const o = this.outcome;
+    o.ending = 'non-finite';
+    o.iterations = 0;
+    o.evaluations = 1;
+    o.maxResidual = Infinity;
+    o.pivotRatio = 0;
+    o.worstResidual = worstIndex(this.r);
+    return o;
+  }
 
   /** The outcome for unusable options: nothing evaluated, the state untouched. */
   private refuse(problem: string): LmOutcome {
