@@ -89,8 +89,9 @@ export class SweepPredictor {
   }
 
   /**
-   * Predictor along a sweep: when the target lies on the line the last poses were solved
-   * along, extrapolate their unknowns to it (positions measured along the line): with
+   * When the target lies on the line the last poses were solved along, set the mechanism's
+   * unknowns to their extrapolation to it and return true (positions measured along the line):
+   * with
    * LINE_HISTORY evenly spaced poses, one step on, the least-squares fit of FIT_DEGREE; else
    * the interpolating polynomial through up to INTERPOLATED of them. Along a smooth sweep each
    * extra pose gains about an order of magnitude: measured on the demos' lean x steer sweep,
