@@ -1,342 +1,33 @@
 /**
  * Design-level fields: name and notes, vehicle and layout, steering mechanism, wheels, joint
- * ratings, envelope, tolerances and part sizes. Every edit is an undoable action; the
- * validator's message appears at the field it names.
+ * ratings, envelope, tolerances and part sizes, one section each. Every edit is an undoable
+ * action; the validator's message appears at the field it names (sheetFields.tsx).
  */
-import { useState, type ReactNode } from 'react';
+import { useState } from 'react';
 import { isTwoSided } from '../../core/design/resolveDesign';
-import type { DesignIssue } from '../../core/design/validateDesign';
-import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES, type DesignFile, type Joints, type Sided } from '../../core/design/types';
+import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES, type DesignFile, type Joints } from '../../core/design/types';
 import { useActions, useDocument, usePose } from '../app/workbenchContext';
 import { setField, setFields } from '../model/designActions';
-import { getAt, parsePath } from '../model/designPath';
 import { starterCrankInput, starterFrontEnd, starterSpring, starterSteering } from '../model/designStarters';
 import { issuesAt } from '../model/fieldIssues';
-import { NumberField } from './NumberField';
+import { Choice, Num, Section, SidedNum, Vec } from './sheetFields';
 
-function useField(path: string): { value: unknown; issues: DesignIssue[] } {
-  const value = useDocument((s) => getAt(s.design, parsePath(path)));
-  const all = usePose((s) => s.issues);
-  return { value, issues: issuesAt(all, path) };
-}
-
-function Num({ path, label, unit, fallback, digits }: { path: string; label: string; unit: string; fallback?: number; digits?: number }) {
-  const { value, issues } = useField(path);
+/** Replace several fields as one undoable step. */
+function useReplace(): (values: { path: string; value: unknown }[], label: string) => void {
   const actions = useActions();
-  const shown = typeof value === 'number' ? value : (fallback ?? NaN);
-  return (
-    <div className="sheet-row">
-      <NumberField
-        label={label}
-        unit={unit}
-        value={shown}
-        digits={digits}
-        error={issues.map((i) => i.message).join(' ') || undefined}
-        onCommit={(v) => actions.perform(setField, { path, value: v, label: `edit ${label.toLowerCase()}` })}
-        testId={`field-${path}`}
-      />
-      {value === undefined && fallback !== undefined && <span className="hint default-note">default</span>}
-    </div>
-  );
+  return (values, label) => actions.perform(setFields, { values, label });
 }
-
-function Choice<T extends string>({ path, label, options, onPick }: { path: string; label: string; options: { value: T; label: string }[]; onPick?: (v: T) => void }) {
-  const { value, issues } = useField(path);
-  const actions = useActions();
-  return (
-    <div className="sheet-row">
-      <label className="choice">
-        <span className="nf-label">{label}</span>
-        <select
-          value={String(value)}
-          data-testid={`field-${path}`}
-          onChange={(e) => {
-            const v = e.target.value as T;
-            if (onPick) onPick(v);
-            else actions.perform(setField, { path, value: v, label: `set ${label.toLowerCase()}` });
-          }}
-        >
-          {options.map((o) => (
-            <option key={o.value} value={o.value}>
-              {o.label}
-            </option>
-          ))}
-        </select>
-      </label>
-      {issues.length > 0 && <span className="field-error" role="alert">{issues.map((i) => i.message).join(' ')}</span>}
-    </div>
-  );
-}
-
-function Vec({ path, label, unit }: { path: string; label: string; unit: string }) {
-  const { issues } = useField(path);
-  return (
-    <div className="sheet-row vec-row">
-      <span className="nf-label">{label}</span>
-      <span className="vec-fields">
-        {(['x', 'y', 'z'] as const).map((a) => (
-          <VecPart key={a} path={`${path}.${a}`} label={`${label} ${a}`} unit={unit} />
-        ))}
-      </span>
-      {issues.length > 0 && <span className="field-error" role="alert">{issues.map((i) => i.message).join(' ')}</span>}
-    </div>
-  );
-}
-
-function VecPart({ path, label, unit }: { path: string; label: string; unit: string }) {
-  const value = useDocument((s) => getAt(s.design, parsePath(path)));
-  const actions = useActions();
-  return (
-    <NumberField
-      compact
-      label={label}
-      unit={unit}
-      value={typeof value === 'number' ? value : NaN}
-      onCommit={(v) => actions.perform(setField, { path, value: v, label: `edit ${label.toLowerCase()}` })}
-      testId={`field-${path}`}
-    />
-  );
-}
-
-/** A per-side number (toe, camber): one value for both sides, or one per side. */
-function SidedNum({ path, label, unit }: { path: string; label: string; unit: string }) {
-  const { value } = useField(path);
-  const actions = useActions();
-  const raw = value as Sided<number>;
-  const two = typeof raw === 'object' && raw !== null && isTwoSided(raw);
-  return (
-    <div className="sheet-row">
-      {two ? (
-        <span className="sided">
-          <Num path={`${path}.right`} label={`${label}, right`} unit={unit} />
-          <Num path={`${path}.left`} label={`${label}, left`} unit={unit} />
-          <button type="button" className="link-toggle" onClick={() => actions.perform(setField, { path, value: raw.right, label: `use the right ${label.toLowerCase()} on both sides` })}>
-            ⇋ same both sides
-          </button>
-        </span>
-      ) : (
-        <span className="sided">
-          <Num path={path} label={`${label} (both sides)`} unit={unit} />
-          <button
-            type="button"
-            className="link-toggle"
-            onClick={() => actions.perform(setField, { path, value: { right: raw, left: raw }, label: `set ${label.toLowerCase()} per side` })}
-          >
-            per side
-          </button>
-        </span>
-      )}
-    </div>
-  );
-}
-
-function Section({ title, children, open = false }: { title: string; children: ReactNode; open?: boolean }) {
-  return (
-    <details className="sheet-section" open={open}>
-      <summary>{title}</summary>
-      <div className="sheet-body">{children}</div>
-    </details>
-  );
-}
-
-const JOINTS: { key: keyof Joints; label: string }[] = [
-  { key: 'upperOuter', label: 'Upper outer joint' },
-  { key: 'lowerOuter', label: 'Lower outer joint' },
-  { key: 'tieRodOuter', label: 'Tie rod, outer end' },
-  { key: 'tieRodInner', label: 'Tie rod, inner end' },
-];
 
 export function DesignSheet() {
   const design = useDocument((s) => s.design);
-  const actions = useActions();
-  const [notesDraft, setNotesDraft] = useState<string | null>(null);
-  const [nameDraft, setNameDraft] = useState<string | null>(null);
-  const nameIssues = issuesAt(usePose((s) => s.issues), 'name');
-  const replace = (values: { path: string; value: unknown }[], label: string) => actions.perform(setFields, { values, label });
-  const d: DesignFile = design;
-  const st = d.steering;
   return (
     <section className="panel design-sheet" aria-labelledby="sheet-title">
       <h2 id="sheet-title">Design sheet</h2>
-      <Section title="Name and notes" open>
-        <label className="text-field">
-          <span className="nf-label">Name</span>
-          <input
-            type="text"
-            value={nameDraft ?? d.name}
-            data-testid="field-name"
-            onChange={(e) => setNameDraft(e.target.value)}
-            onBlur={() => {
-              if (nameDraft !== null && nameDraft !== d.name) actions.perform(setField, { path: 'name', value: nameDraft, label: 'rename the design' });
-              setNameDraft(null);
-            }}
-            onKeyDown={(e) => e.key === 'Enter' && (e.target as HTMLInputElement).blur()}
-          />
-          {nameIssues.length > 0 && <span className="field-error" role="alert">{nameIssues.map((i) => i.message).join(' ')}</span>}
-        </label>
-        <label className="text-field">
-          <span className="nf-label">Notes</span>
-          <textarea
-            rows={3}
-            value={notesDraft ?? d.notes ?? ''}
-            onChange={(e) => setNotesDraft(e.target.value)}
-            onBlur={() => {
-              if (notesDraft !== null && notesDraft !== (d.notes ?? '')) {
-                actions.perform(setField, { path: 'notes', value: notesDraft === '' ? undefined : notesDraft, label: 'edit the notes' });
-              }
-              setNotesDraft(null);
-            }}
-          />
-        </label>
-      </Section>
-      <Section title="Vehicle and layout">
-        <Num path="vehicle.wheelbaseMm" label="Wheelbase" unit="mm" />
-        <div className="sheet-row">
-          <label className="check">
-            <input
-              type="checkbox"
-              checked={d.vehicle.tilting}
-              data-testid="field-vehicle.tilting"
-              onChange={(e) =>
-                replace(
-                  [
-                    { path: 'vehicle.tilting', value: e.target.checked },
-                    ...(e.target.checked ? [] : [{ path: 'envelope.leanDeg', value: 0 }]),
-                  ],
-                  e.target.checked ? 'make the vehicle lean' : 'make the vehicle non-tilting',
-                )
-              }
-            />
-            The frame leans (tilting vehicle)
-          </label>
-        </div>
-        <Choice
-          path="vehicle.rear.kind"
-          label="Rear"
-          options={[
-            { value: 'single', label: 'one rear wheel' },
-            { value: 'pair', label: 'a pair of rear wheels' },
-          ]}
-          onPick={(v) => replace([{ path: 'vehicle.rear', value: v === 'pair' ? { kind: 'pair', trackMm: 700 } : { kind: 'single' } }], `set rear: ${v}`)}
-        />
-        {d.vehicle.rear.kind === 'pair' && <Num path="vehicle.rear.trackMm" label="Rear track" unit="mm" />}
-        <Choice
-          path="frontEnd.kind"
-          label="Front suspension"
-          options={[
-            { value: 'splitWishbones', label: 'split wishbones (per side)' },
-            { value: 'centrePivot', label: 'centre-pivot members' },
-          ]}
-          onPick={(v) => replace([{ path: 'frontEnd', value: starterFrontEnd(d, v) }], `switch to ${v === 'centrePivot' ? 'centre-pivot members' : 'split wishbones'}`)}
-        />
-        {d.frontEnd.kind === 'centrePivot' && (
-          <>
-            <Vec path="frontEnd.upper.pivotAxis" label="Upper member pivot axis" unit="" />
-            <Vec path="frontEnd.lower.pivotAxis" label="Lower member pivot axis" unit="" />
-          </>
-        )}
-        <Choice
-          path="upright.steeringAxis"
-          label="Steering axis"
-          options={[
-            { value: 'ballJoints', label: 'two ball joints' },
-            { value: 'kingpin', label: 'kingpin bolt' },
-          ]}
-        />
-        <SidedNum path="upright.staticToeDeg" label="Static toe (toe-in +)" unit="deg" />
-        <SidedNum path="upright.staticCamberDeg" label="Static camber (top out +)" unit="deg" />
-        <div className="sheet-row">
-          <label className="check">
-            <input
-              type="checkbox"
-              checked={d.spring !== undefined}
-              onChange={(e) => replace([{ path: 'spring', value: e.target.checked ? starterSpring(d) : undefined }], e.target.checked ? 'add a spring' : 'remove the spring')}
-            />
-            Spring or damper mount
-          </label>
-        </div>
-        {d.spring && (
-          <Choice
-            path="spring.on"
-            label="Spring acts on"
-            options={[
-              { value: 'lower', label: 'lower arm' },
-              { value: 'upper', label: 'upper arm' },
-            ]}
-          />
-        )}
-      </Section>
-      <Section title="Steering mechanism">
-        <Choice
-          path="steering.kind"
-          label="Mechanism"
-          options={[
-            { value: 'bellCrank', label: 'bell crank' },
-            { value: 'rack', label: 'rack' },
-            { value: 'direct', label: 'lever on the column' },
-          ]}
-          onPick={(v) => replace([{ path: 'steering', value: starterSteering(d, v) }], `switch the steering to ${v}`)}
-        />
-        {st.kind !== 'rack' && <Vec path="steering.axis" label={st.kind === 'bellCrank' ? 'Crank pivot axis' : 'Column axis'} unit="" />}
-        {st.kind === 'rack' && (
-          <>
-            <Vec path="steering.axis" label="Rack slide direction" unit="" />
-            <Num path="steering.mmPerHandlebarDeg" label="Rack travel per handlebar degree" unit="mm/deg" />
-          </>
-        )}
-        {st.kind === 'bellCrank' && (
-          <>
-            <Choice
-              path="steering.input.kind"
-              label="Crank input"
-              options={[
-                { value: 'ratio', label: 'fixed ratio (tiller, gears)' },
-                { value: 'dragLink', label: 'drag link from a column' },
-              ]}
-              onPick={(v) => {
-                const input = starterCrankInput(d, v);
-                if (input) replace([{ path: 'steering.input', value: input }], `switch the crank input to ${v}`);
-              }}
-            />
-            {st.input.kind === 'ratio' && <Num path="steering.input.crankDegPerHandlebarDeg" label="Crank turn per handlebar degree" unit="deg/deg" />}
-            {st.input.kind === 'dragLink' && <Vec path="steering.input.columnAxis" label="Column axis" unit="" />}
-          </>
-        )}
-      </Section>
-      <Section title="Wheels">
-        {(['front', 'rear'] as const).map((axle) => (
-          <fieldset key={axle} className="sheet-group">
-            <legend>{axle === 'front' ? 'Front tyres' : 'Rear tyre'}</legend>
-            <Num path={`wheels.${axle}.rollingRadiusMm`} label="Rolling radius" unit="mm" />
-            <Num path={`wheels.${axle}.tyreWidthMm`} label="Tyre width" unit="mm" />
-            <Num path={`wheels.${axle}.crownRadiusMm`} label="Crown radius" unit="mm" />
-          </fieldset>
-        ))}
-      </Section>
-      <Section title="Joint ratings">
-        {JOINTS.map((j) => (
-          <fieldset key={j.key} className="sheet-group">
-            <legend>{j.label}</legend>
-            <Choice
-              path={`joints.${j.key}.kind`}
-              label="Kind"
-              options={[
-                { value: 'ballJoint', label: 'ball joint' },
-                { value: 'rodEnd', label: 'rod end' },
-              ]}
-            />
-            <Num path={`joints.${j.key}.ratedDeg`} label="Rated articulation" unit="deg" />
-            {isTwoSided(d.joints[j.key].studAxis) ? (
-              <>
-                <Vec path={`joints.${j.key}.studAxis.right`} label="Stud axis, right" unit="" />
-                <Vec path={`joints.${j.key}.studAxis.left`} label="Stud axis, left" unit="" />
-              </>
-            ) : (
-              <Vec path={`joints.${j.key}.studAxis`} label="Stud axis (right; mirrored)" unit="" />
-            )}
-          </fieldset>
-        ))}
-      </Section>
+      <NameAndNotes design={design} />
+      <VehicleAndLayout design={design} />
+      <SteeringMechanism design={design} />
+      <WheelsSection />
+      <JointRatings design={design} />
       <Section title="Envelope">
         <Num path="envelope.leanDeg" label="Lean each way" unit="deg" />
         <Num path="envelope.handlebarDeg" label="Handlebar lock each way" unit="deg" />
@@ -356,5 +47,240 @@ export function DesignSheet() {
         <Num path="parts.steeringArmRadiusMm" label="Steering arm radius" unit="mm" fallback={DEFAULT_PART_SIZES.steeringArmRadiusMm} />
       </Section>
     </section>
+  );
+}
+
+/** Name and notes are typed as drafts and committed as one edit when the field is left. */
+function NameAndNotes({ design: d }: { design: DesignFile }) {
+  const actions = useActions();
+  const [notesDraft, setNotesDraft] = useState<string | null>(null);
+  const [nameDraft, setNameDraft] = useState<string | null>(null);
+  const nameIssues = issuesAt(usePose((s) => s.issues), 'name');
+  return (
+    <Section title="Name and notes" open>
+      <label className="text-field">
+        <span className="nf-label">Name</span>
+        <input
+          type="text"
+          value={nameDraft ?? d.name}
+          data-testid="field-name"
+          onChange={(e) => setNameDraft(e.target.value)}
+          onBlur={() => {
+            if (nameDraft !== null && nameDraft !== d.name) actions.perform(setField, { path: 'name', value: nameDraft, label: 'rename the design' });
+            setNameDraft(null);
+          }}
+          onKeyDown={(e) => e.key === 'Enter' && (e.target as HTMLInputElement).blur()}
+        />
+        {nameIssues.length > 0 && <span className="field-error" role="alert">{nameIssues.map((i) => i.message).join(' ')}</span>}
+      </label>
+      <label className="text-field">
+        <span className="nf-label">Notes</span>
+        <textarea
+          rows={3}
+          value={notesDraft ?? d.notes ?? ''}
+          onChange={(e) => setNotesDraft(e.target.value)}
+          onBlur={() => {
+            if (notesDraft !== null && notesDraft !== (d.notes ?? '')) {
+              actions.perform(setField, { path: 'notes', value: notesDraft === '' ? undefined : notesDraft, label: 'edit the notes' });
+            }
+            setNotesDraft(null);
+          }}
+        />
+      </label>
+    </Section>
+  );
+}
+
+function VehicleAndLayout({ design: d }: { design: DesignFile }) {
+  const replace = useReplace();
+  return (
+    <Section title="Vehicle and layout">
+      <Num path="vehicle.wheelbaseMm" label="Wheelbase" unit="mm" />
+      <div className="sheet-row">
+        <label className="check">
+          <input
+            type="checkbox"
+            checked={d.vehicle.tilting}
+            data-testid="field-vehicle.tilting"
+            onChange={(e) =>
+              replace(
+                // A vehicle that stops leaning loses its lean envelope with it.
+                [{ path: 'vehicle.tilting', value: e.target.checked }, ...(e.target.checked ? [] : [{ path: 'envelope.leanDeg', value: 0 }])],
+                e.target.checked ? 'make the vehicle lean' : 'make the vehicle non-tilting',
+              )
+            }
+          />
+          The frame leans (tilting vehicle)
+        </label>
+      </div>
+      <Choice
+        path="vehicle.rear.kind"
+        label="Rear"
+        options={[
+          { value: 'single', label: 'one rear wheel' },
+          { value: 'pair', label: 'a pair of rear wheels' },
+        ]}
+        onPick={(v) => replace([{ path: 'vehicle.rear', value: v === 'pair' ? { kind: 'pair', trackMm: 700 } : { kind: 'single' } }], `set rear: ${v}`)}
+      />
+      {d.vehicle.rear.kind === 'pair' && <Num path="vehicle.rear.trackMm" label="Rear track" unit="mm" />}
+      <FrontSuspension design={d} />
+      <SpringMount design={d} />
+    </Section>
+  );
+}
+
+function FrontSuspension({ design: d }: { design: DesignFile }) {
+  const replace = useReplace();
+  return (
+    <>
+      <Choice
+        path="frontEnd.kind"
+        label="Front suspension"
+        options={[
+          { value: 'splitWishbones', label: 'split wishbones (per side)' },
+          { value: 'centrePivot', label: 'centre-pivot members' },
+        ]}
+        onPick={(v) => replace([{ path: 'frontEnd', value: starterFrontEnd(d, v) }], `switch to ${v === 'centrePivot' ? 'centre-pivot members' : 'split wishbones'}`)}
+      />
+      {d.frontEnd.kind === 'centrePivot' && (
+        <>
+          <Vec path="frontEnd.upper.pivotAxis" label="Upper member pivot axis" unit="" />
+          <Vec path="frontEnd.lower.pivotAxis" label="Lower member pivot axis" unit="" />
+        </>
+      )}
+      <Choice
+        path="upright.steeringAxis"
+        label="Steering axis"
+        options={[
+          { value: 'ballJoints', label: 'two ball joints' },
+          { value: 'kingpin', label: 'kingpin bolt' },
+        ]}
+      />
+      <SidedNum path="upright.staticToeDeg" label="Static toe (toe-in +)" unit="deg" />
+      <SidedNum path="upright.staticCamberDeg" label="Static camber (top out +)" unit="deg" />
+    </>
+  );
+}
+
+function SpringMount({ design: d }: { design: DesignFile }) {
+  const replace = useReplace();
+  return (
+    <>
+      <div className="sheet-row">
+        <label className="check">
+          <input
+            type="checkbox"
+            checked={d.spring !== undefined}
+            onChange={(e) => replace([{ path: 'spring', value: e.target.checked ? starterSpring(d) : undefined }], e.target.checked ? 'add a spring' : 'remove the spring')}
+          />
+          Spring or damper mount
+        </label>
+      </div>
+      {d.spring && (
+        <Choice
+          path="spring.on"
+          label="Spring acts on"
+          options={[
+            { value: 'lower', label: 'lower arm' },
+            { value: 'upper', label: 'upper arm' },
+          ]}
+        />
+      )}
+    </>
+  );
+}
+
+function SteeringMechanism({ design: d }: { design: DesignFile }) {
+  const replace = useReplace();
+  const st = d.steering;
+  return (
+    <Section title="Steering mechanism">
+      <Choice
+        path="steering.kind"
+        label="Mechanism"
+        options={[
+          { value: 'bellCrank', label: 'bell crank' },
+          { value: 'rack', label: 'rack' },
+          { value: 'direct', label: 'lever on the column' },
+        ]}
+        onPick={(v) => replace([{ path: 'steering', value: starterSteering(d, v) }], `switch the steering to ${v}`)}
+      />
+      {st.kind !== 'rack' && <Vec path="steering.axis" label={st.kind === 'bellCrank' ? 'Crank pivot axis' : 'Column axis'} unit="" />}
+      {st.kind === 'rack' && (
+        <>
+          <Vec path="steering.axis" label="Rack slide direction" unit="" />
+          <Num path="steering.mmPerHandlebarDeg" label="Rack travel per handlebar degree" unit="mm/deg" />
+        </>
+      )}
+      {st.kind === 'bellCrank' && (
+        <>
+          <Choice
+            path="steering.input.kind"
+            label="Crank input"
+            options={[
+              { value: 'ratio', label: 'fixed ratio (tiller, gears)' },
+              { value: 'dragLink', label: 'drag link from a column' },
+            ]}
+            onPick={(v) => {
+              const input = starterCrankInput(d, v);
+              if (input) replace([{ path: 'steering.input', value: input }], `switch the crank input to ${v}`);
+            }}
+          />
+          {st.input.kind === 'ratio' && <Num path="steering.input.crankDegPerHandlebarDeg" label="Crank turn per handlebar degree" unit="deg/deg" />}
+          {st.input.kind === 'dragLink' && <Vec path="steering.input.columnAxis" label="Column axis" unit="" />}
+        </>
+      )}
+    </Section>
+  );
+}
+
+function WheelsSection() {
+  return (
+    <Section title="Wheels">
+      {(['front', 'rear'] as const).map((axle) => (
+        <fieldset key={axle} className="sheet-group">
+          <legend>{axle === 'front' ? 'Front tyres' : 'Rear tyre'}</legend>
+          <Num path={`wheels.${axle}.rollingRadiusMm`} label="Rolling radius" unit="mm" />
+          <Num path={`wheels.${axle}.tyreWidthMm`} label="Tyre width" unit="mm" />
+          <Num path={`wheels.${axle}.crownRadiusMm`} label="Crown radius" unit="mm" />
+        </fieldset>
+      ))}
+    </Section>
+  );
+}
+
+const JOINTS: { key: keyof Joints; label: string }[] = [
+  { key: 'upperOuter', label: 'Upper outer joint' },
+  { key: 'lowerOuter', label: 'Lower outer joint' },
+  { key: 'tieRodOuter', label: 'Tie rod, outer end' },
+  { key: 'tieRodInner', label: 'Tie rod, inner end' },
+];
+
+function JointRatings({ design: d }: { design: DesignFile }) {
+  return (
+    <Section title="Joint ratings">
+      {JOINTS.map((j) => (
+        <fieldset key={j.key} className="sheet-group">
+          <legend>{j.label}</legend>
+          <Choice
+            path={`joints.${j.key}.kind`}
+            label="Kind"
+            options={[
+              { value: 'ballJoint', label: 'ball joint' },
+              { value: 'rodEnd', label: 'rod end' },
+            ]}
+          />
+          <Num path={`joints.${j.key}.ratedDeg`} label="Rated articulation" unit="deg" />
+          {isTwoSided(d.joints[j.key].studAxis) ? (
+            <>
+              <Vec path={`joints.${j.key}.studAxis.right`} label="Stud axis, right" unit="" />
+              <Vec path={`joints.${j.key}.studAxis.left`} label="Stud axis, left" unit="" />
+            </>
+          ) : (
+            <Vec path={`joints.${j.key}.studAxis`} label="Stud axis (right; mirrored)" unit="" />
+          )}
+        </fieldset>
+      ))}
+    </Section>
   );
 }

@@ -8,6 +8,7 @@ import { useActions, useDocument, usePose, useUi } from '../app/workbenchContext
 import { linkPoint, setCoordinate, unlinkPoint } from '../model/designActions';
 import { issuesOfCell, issuesOfPoint } from '../model/fieldIssues';
 import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpoints';
+import type { DesignIssue } from '../../core/design/validateDesign';
 import { NumberField } from './NumberField';
 
 export function HardpointTable() {
@@ -41,24 +42,12 @@ export function HardpointTable() {
       <h2 id="hp-title">Hardpoints</h2>
       <p className="hint">mm, vehicle axes: x forward, y left, z up. A mirrored pair shares one value (y flips sign on the left).</p>
       <table className="hardpoint-table" data-testid="hardpoint-table">
-        <thead>
-          <tr>
-            <th scope="col">Point</th>
-            <th scope="col">Side</th>
-            <th scope="col">x</th>
-            <th scope="col">y</th>
-            <th scope="col">z</th>
-            <th scope="col">
-              <span className="sr-only">Mirror</span>
-            </th>
-          </tr>
-        </thead>
+        <TableHead />
         <tbody ref={body}>
           {rows.map((row, i) => {
             // A group's first row carries its heading.
             const header = i === 0 || row.group !== rows[i - 1].group;
-            const rowIssues = [...issuesOfPoint(issues, row.key, row.side), ...AXES.flatMap((a) => issuesOfCell(issues, row.key, row.side, a))];
-            const unique = [...new Set([...AXES.map((a) => typing[`${row.id}:${a}`]).filter((m) => m !== undefined), ...rowIssues.map((i) => i.message)])];
+            const messages = rowMessages(row, issues, typing);
             return (
               <Fragment key={row.id}>
                 {header && (
@@ -78,10 +67,10 @@ export function HardpointTable() {
                   onLink={(keep) => actions.perform(linkPoint, { key: row.key, keep })}
                   onTyping={reportTyping}
                 />
-                {unique.length > 0 && (
+                {messages.length > 0 && (
                   <tr className="issue-row">
                     <td colSpan={6} role="alert" className="field-error" data-testid={`issue-${row.id}`}>
-                      {unique.join(' ')}
+                      {messages.join(' ')}
                     </td>
                   </tr>
                 )}
@@ -92,6 +81,30 @@ export function HardpointTable() {
       </table>
     </section>
   );
+}
+
+function TableHead() {
+  return (
+    <thead>
+      <tr>
+        <th scope="col">Point</th>
+        <th scope="col">Side</th>
+        <th scope="col">x</th>
+        <th scope="col">y</th>
+        <th scope="col">z</th>
+        <th scope="col">
+          <span className="sr-only">Mirror</span>
+        </th>
+      </tr>
+    </thead>
+  );
+}
+
+/** What is wrong with a row, each message once: text in its cells that is not a number, then the validator's issues. */
+function rowMessages(row: HardpointRow, issues: DesignIssue[], typing: Record<string, string>): string[] {
+  const rowIssues = [...issuesOfPoint(issues, row.key, row.side), ...AXES.flatMap((a) => issuesOfCell(issues, row.key, row.side, a))];
+  const typed = AXES.map((a) => typing[`${row.id}:${a}`]).filter((m) => m !== undefined);
+  return [...new Set([...typed, ...rowIssues.map((i) => i.message)])];
 }
 
 interface RowProps {

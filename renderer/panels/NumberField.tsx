@@ -35,6 +35,15 @@ export function parseNumberText(text: string): number | null {
   return Number.isFinite(n) ? n : null;
 }
 
+/** The number typed in a field, or what is wrong with it (naming the field and its unit). */
+export function readNumberField(text: string, f: Pick<NumberFieldProps, 'label' | 'unit' | 'min' | 'max'>): number | string {
+  const n = parseNumberText(text);
+  if (n === null) return `${f.label}: “${text.trim() || '(empty)'}” is not a number; enter a value in ${f.unit || 'plain numbers'}`;
+  if (f.min !== undefined && n < f.min) return `${f.label}: ${n} ${f.unit} is below the least allowed, ${f.min} ${f.unit}`;
+  if (f.max !== undefined && n > f.max) return `${f.label}: ${n} ${f.unit} is above the most allowed, ${f.max} ${f.unit}`;
+  return n;
+}
+
 function show(value: number, digits: number | undefined): string {
   if (!Number.isFinite(value)) return String(value);
   if (digits === undefined) return String(value);
@@ -60,22 +69,14 @@ export function NumberField(p: NumberFieldProps) {
 
   const commit = () => {
     if (draft === null) return;
-    const n = parseNumberText(draft);
-    if (n === null) {
-      setLocalError(`${p.label}: “${draft.trim() || '(empty)'}” is not a number; enter a value in ${p.unit || 'plain numbers'}`);
-      return;
-    }
-    if (p.min !== undefined && n < p.min) {
-      setLocalError(`${p.label}: ${n} ${p.unit} is below the least allowed, ${p.min} ${p.unit}`);
-      return;
-    }
-    if (p.max !== undefined && n > p.max) {
-      setLocalError(`${p.label}: ${n} ${p.unit} is above the most allowed, ${p.max} ${p.unit}`);
+    const read = readNumberField(draft, p);
+    if (typeof read === 'string') {
+      setLocalError(read);
       return;
     }
     setLocalError(null);
     setDraft(null);
-    if (n !== p.value) p.onCommit(n);
+    if (read !== p.value) p.onCommit(read);
   };
 
   const onKey = (e: KeyboardEvent<HTMLInputElement>) => {

@@ -4,7 +4,7 @@
  * matrices and colours through refs (no React render per frame, see sceneUpdate.ts) and
  * asks for one frame (render on demand).
  */
-import { useLayoutEffect, useMemo, useRef } from 'react';
+import { useLayoutEffect, useMemo, useRef, type RefObject } from 'react';
 import { useThree, type ThreeEvent } from '@react-three/fiber';
 import {
   BufferAttribute,
@@ -61,36 +61,30 @@ function useTyreGeometries(layout: DrawingLayout | null) {
   }, [layout]);
 }
 
-export function LinkageModel() {
+/** Refs to the scene's objects, filled as they mount. */
+interface SceneRefs {
+  tubes: RefObject<InstancedMesh | null>;
+  joints: RefObject<InstancedMesh | null>;
+  lines: RefObject<LineSegments | null>;
+  tyres: RefObject<(Mesh | null)[]>;
+  patches: RefObject<(Mesh | null)[]>;
+  rear: RefObject<(Mesh | null)[]>;
+}
+
+/** Writes the scene now and whenever the solved pose or the selection changes, then asks for a frame. */
+function useSceneFollowsPose(layout: DrawingLayout | null, refs: SceneRefs, tyreMats: MeshLambertMaterial[], patchMats: MeshLambertMaterial[]): void {
   const wb = useWorkbenchApi();
-  const layout = usePose((s) => s.drawing);
   const invalidate = useThree((s) => s.invalidate);
-
-  const tubes = useRef<InstancedMesh>(null);
-  const joints = useRef<InstancedMesh>(null);
-  const lines = useRef<LineSegments>(null);
-  const tyreRefs = useRef<(Mesh | null)[]>([]);
-  const patchRefs = useRef<(Mesh | null)[]>([]);
-  const rearRefs = useRef<(Mesh | null)[]>([]);
-
-  const geo = useGeometries();
-  const tyreGeo = useTyreGeometries(layout);
-  const tyreMats = useMemo(() => Array.from({ length: TYRE_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.tyre })), []);
-  const patchMats = useMemo(() => Array.from({ length: FRONT_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.rim })), []);
-
-  /** What the hover tip reads, now. */
-  const source = (): HoverSource => ({ design: wb.document.getState().design, outcome: wb.pose.getState().outcome });
-
   useLayoutEffect(() => {
     const apply = () => {
       const input = { outcome: wb.pose.getState().outcome, selection: wb.ui.getState().selection, design: wb.document.getState().design };
       updateScene(input, layout, {
-        tubes: tubes.current,
-        joints: joints.current,
-        lines: lines.current,
-        tyres: tyreRefs.current,
-        patches: patchRefs.current,
-        rear: rearRefs.current,
+        tubes: refs.tubes.current,
+        joints: refs.joints.current,
+        lines: refs.lines.current,
+        tyres: refs.tyres.current,
+        patches: refs.patches.current,
+        rear: refs.rear.current,
         tyreMats,
         patchMats,
       });
@@ -109,16 +103,45 @@ export function LinkageModel() {
       offPose();
       offUi();
     };
-  }, [wb, layout, invalidate, tyreMats, patchMats]);
+  }, [wb, layout, refs, invalidate, tyreMats, patchMats]);
+}
 
-  const hover = (e: ThreeEvent<PointerEvent>, [title, text]: [string, string[]]) => {
-    e.stopPropagation();
-    const rect = (e.target as HTMLElement | null)?.getBoundingClientRect?.();
-    const x = e.nativeEvent.offsetX ?? e.clientX - (rect?.left ?? 0);
-    const y = e.nativeEvent.offsetY ?? e.clientY - (rect?.top ?? 0);
-    wb.ui.setState({ hover: { x, y, title, lines: text } });
-  };
-  const unhover = () => wb.ui.setState({ hover: null });
+/** Shows and hides the hover tip; `source` is what the tip's words are read from. */
+function useHoverTip() {
+  const wb = useWorkbenchApi();
+  return useMemo(
+    () => ({
+      source: (): HoverSource => ({ design: wb.document.getState().design, outcome: wb.pose.getState().outcome }),
+      show(e: ThreeEvent<PointerEvent>, [title, text]: [string, string[]]) {
+        e.stopPropagation();
+        const rect = (e.target as HTMLElement | null)?.getBoundingClientRect?.();
+        const x = e.nativeEvent.offsetX ?? e.clientX - (rect?.left ?? 0);
+        const y = e.nativeEvent.offsetY ?? e.clientY - (rect?.top ?? 0);
+        wb.ui.setState({ hover: { x, y, title, lines: text } });
+      },
+      hide: () => wb.ui.setState({ hover: null }),
+    }),
+    [wb],
+  );
+}
+
+export function LinkageModel() {
+  const wb = useWorkbenchApi();
+  const layout = usePose((s) => s.drawing);
+  const tubes = useRef<InstancedMesh>(null);
+  const joints = useRef<InstancedMesh>(null);
+  const lines = useRef<LineSegments>(null);
+  const tyreRefs = useRef<(Mesh | null)[]>([]);
+  const patchRefs = useRef<(Mesh | null)[]>([]);
+  const rearRefs = useRef<(Mesh | null)[]>([]);
+  const refs = useMemo<SceneRefs>(() => ({ tubes, joints, lines, tyres: tyreRefs, patches: patchRefs, rear: rearRefs }), []);
+
+  const geo = useGeometries();
+  const tyreGeo = useTyreGeometries(layout);
+  const tyreMats = useMemo(() => Array.from({ length: TYRE_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.tyre })), []);
+  const patchMats = useMemo(() => Array.from({ length: FRONT_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.rim })), []);
+  useSceneFollowsPose(layout, refs, tyreMats, patchMats);
+  const { source, show: hover, hide: unhover } = useHoverTip();
 
   /** The hardpoint under the pointer: a drawn joint, or a hardpoint drawn as entered. */
   const hardpointAt = (e: ThreeEvent<PointerEvent | MouseEvent>): string | undefined => {
