@@ -59,13 +59,7 @@ function addBellCrank(b: MechanismBuilder, design: ResolvedDesign, st: BellCrank
     });
   } else {
     const inp = st.input;
-    const column = b.addBody('column', 'steering column', {
-      kind: 'revolute',
-      parent: frame,
-      origin: v(inp.columnPivot),
-      axis: v(inp.columnAxis),
-      ...handlebar(DEG),
-    });
+    const column = addColumn(b, frame, inp.columnPivot, inp.columnAxis, handlebar);
     body = b.addBody('bellCrank', 'bell crank', { kind: 'revolute', parent: frame, origin: v(st.pivot), axis: v(st.axis) });
     const dragLink = b.addConstraint({
       kind: 'distance',
@@ -110,15 +104,14 @@ function addRack(b: MechanismBuilder, st: Extract<Steering, { kind: 'rack' }>, f
 }
 
 function addLever(b: MechanismBuilder, st: Extract<Steering, { kind: 'direct' }>, frame: number, handlebar: HandlebarBinding): SteeringBody {
-  const body = b.addBody('column', 'steering column', {
-    kind: 'revolute',
-    parent: frame,
-    origin: v(st.pivot),
-    axis: v(st.axis),
-    ...handlebar(DEG),
-  });
+  const body = addColumn(b, frame, st.pivot, st.axis, handlebar);
   const pivot = b.addPoint('steering.pivot', 'steering column pivot', body, st.pivot);
   return { body, word: 'steering lever', pivot, handlebarX: st.pivot.x, handlebarZ: st.pivot.z };
+}
+
+/** The steering column: turned by the handlebar, one degree per degree. */
+function addColumn(b: MechanismBuilder, frame: number, pivot: Vec3Mm, axis: Vec3Mm, handlebar: HandlebarBinding): number {
+  return b.addBody('column', 'steering column', { kind: 'revolute', parent: frame, origin: v(pivot), axis: v(axis), ...handlebar(DEG) });
 }
 
 function addTieRods(b: MechanismBuilder, design: ResolvedDesign, steer: SteeringBody, uprights: Uprights): void {
