@@ -17,7 +17,10 @@
  *
  * Even so, one copy can draw a slow compilation for a whole process (an A/A run, the same core
  * twice, has shown ratios from 0.6 to 1.1 on a busy 2-core machine), so the comparison runs in
- * COMPARE_PROCESSES fresh processes (default 5) and reports the median of their ratios.
+ * COMPARE_PROCESSES fresh processes (default 6), alternating which copy is loaded and warmed
+ * first (the first copy ran several per cent off the second in one process, even for two
+ * identical copies), and reports the median of their ratios and of each before-first and
+ * after-first pair's geometric mean (order-balanced; use an even process count).
  *
  * Before timing, both copies solve the whole serpentine once and the script prints the largest
  * difference between their joint coordinates and statuses: a refactoring that should not
@@ -48,7 +51,7 @@ interface CoreCopy {
 }
 
 const PASSES = Number(process.env.COMPARE_PASSES ?? 10);
-const PROCESSES = Number(process.env.COMPARE_PROCESSES ?? 5);
+const PROCESSES = Number(process.env.COMPARE_PROCESSES ?? 6);
 /** Serpentine sweeps per timed pass, every other one backwards (a pass of a few tens of ms). */
 const REPEATS = Number(process.env.COMPARE_REPEATS ?? 3);
 
@@ -98,23 +101,31 @@ function agreement(a: SolverLike, b: SolverLike, poses: PoseInputs[]): { maxDiff
   return { maxDiff, statusDiffs, iterationDiffs };
 }
 
-/** One process's measurement: prints its table, then a JSON line of after/before ratios by design. */
-async function measureHere(beforeDir: string, afterDir: string): Promise<void> {
-  const copies = [await loadCore('before', beforeDir), await loadCore('after', afterDir)];
+/**
+ * One process's measurement: prints its table, then a JSON line of after/before ratios by
+ * design. `afterFirst` loads, builds and warms the after copy first: the copy that goes first
+ * has measured faster or slower by several per cent in a process (an A/A run showed it), so the
+ * parent alternates the order between processes and the bias cancels in the median.
+ */
+async function measureHere(beforeDir: string, afterDir: string, afterFirst: boolean): Promise<void> {
+  const loaded = afterFirst ? [await loadCore('after', afterDir), await loadCore('before', beforeDir)] : [await loadCore('before', beforeDir), await loadCore('after', afterDir)];
+  const copies = afterFirst ? [loaded[1], loaded[0]] : loaded; // copies[0] is before, copies[1] after
+  const firstIndex = afterFirst ? 1 : 0;
   const { buildMechanism } = (await import(pathToFileURL(resolve(afterDir, 'mechanism/templates/buildMechanism.ts')).href)) as { buildMechanism: BuildMechanism };
   const ratios: Record<string, number> = {};
   for (const name of TILTING_DEMOS) {
     const graph = buildMechanism(loadDemoDesign(name), GROUND_MODE);
-    const solvers = copies.map((c) => new c.PoseSolver(structuredClone(graph)));
+    const solvers: SolverLike[] = [];
+    for (const i of [firstIndex, 1 - firstIndex]) solvers[i] = new copies[i].PoseSolver(structuredClone(graph));
     const poses = serpentineSweep();
     const agree = agreement(solvers[0], solvers[1], poses);
     console.log(`${name}: ${poses.length} poses; before vs after: max |coordinate difference| ${agree.maxDiff.toExponential(2)}, status differences ${agree.statusDiffs}, iteration-count differences ${agree.iterationDiffs}`);
-    // Warm-up: one untimed pass each.
-    for (const s of solvers) pass(s, poses);
+    // Warm-up: one untimed pass each, the first copy first.
+    for (const i of [firstIndex, 1 - firstIndex]) pass(solvers[i], poses);
     const wall: number[][] = [[], []];
     const cpu: number[][] = [[], []];
     for (let p = 0; p < PASSES; p++) {
-      const order = p % 2 === 0 ? [0, 1] : [1, 0];
+      const order = p % 2 === 0 ? [firstIndex, 1 - firstIndex] : [1 - firstIndex, firstIndex];
       for (const i of order) {
         const r = pass(solvers[i], poses);
         wall[i].push(r.wall);
@@ -134,7 +145,8 @@ async function measureHere(beforeDir: string, afterDir: string): Promise<void> {
 
 async function main(): Promise<void> {
   const args = process.argv.slice(2);
-  const child = args[0] === '--child';
+  const child = args[0] === '--child' || args[0] === '--child-after-first';
+  const afterFirst = args[0] === '--child-after-first';
   if (child) args.shift();
   const beforeDir = args[0] ?? process.env.TILTBENCH_CORE_BEFORE;
   if (!beforeDir) {
@@ -142,19 +154,25 @@ async function main(): Promise<void> {
     process.exit(2);
   }
   const afterDir = args[1] ?? fileURLToPath(new URL('../../core', import.meta.url));
-  if (child) return measureHere(beforeDir, afterDir);
+  if (child) return measureHere(beforeDir, afterDir, afterFirst);
   console.log(`before: ${resolve(beforeDir)}\nafter:  ${resolve(afterDir)}`);
-  console.log(`${PROCESSES} processes; in each, ${PASSES} timed passes per copy, alternating; a pass is ${REPEATS} warm serpentine sweeps on a collected heap.\n`);
+  console.log(`${PROCESSES} processes (which copy goes first alternates between them); in each, ${PASSES} timed passes per copy, alternating; a pass is ${REPEATS} warm serpentine sweeps on a collected heap.\n`);
   const byDesign: Record<string, number[]> = {};
   for (let k = 0; k < PROCESSES; k++) {
-    const out = execFileSync(process.execPath, [...process.execArgv, fileURLToPath(import.meta.url), '--child', beforeDir, afterDir], { encoding: 'utf8', maxBuffer: 1 << 22 });
+    const flag = k % 2 === 0 ? '--child' : '--child-after-first';
+    const out = execFileSync(process.execPath, [...process.execArgv, fileURLToPath(import.meta.url), flag, beforeDir, afterDir], { encoding: 'utf8', maxBuffer: 1 << 22 });
     const lines = out.trim().split('\n');
-    console.log(`-- process ${k + 1}\n${lines.slice(0, -1).join('\n')}`);
+    console.log(`-- process ${k + 1} (${k % 2 === 0 ? 'before' : 'after'} first)\n${lines.slice(0, -1).join('\n')}`);
     for (const [name, r] of Object.entries(JSON.parse(lines[lines.length - 1]) as Record<string, number>)) (byDesign[name] ??= []).push(r);
   }
-  console.log('\nafter/before poses/s, per process and median:');
+  console.log('\nafter/before poses/s, per process (before first, after first, ...) and median:');
   for (const [name, rs] of Object.entries(byDesign)) {
-    console.log(`  ${name.padEnd(33)} ${rs.map((r) => r.toFixed(3)).join(' ')}  median ${median(rs).toFixed(3)}`);
+    // Each before-first process paired with the after-first one next to it: the geometric mean
+    // of the pair cancels the first-copy advantage.
+    const balanced: number[] = [];
+    for (let k = 0; k + 1 < rs.length; k += 2) balanced.push(Math.sqrt(rs[k] * rs[k + 1]));
+    const pairs = balanced.length > 0 ? `; order-balanced pairs ${balanced.map((r) => r.toFixed(3)).join(' ')}, median ${median(balanced).toFixed(3)}` : '';
+    console.log(`  ${name.padEnd(33)} ${rs.map((r) => r.toFixed(3)).join(' ')}  median ${median(rs).toFixed(3)}${pairs}`);
   }
 }
 
