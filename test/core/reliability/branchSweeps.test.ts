@@ -15,12 +15,13 @@
  * out: the same input must give the same pose on the way back, and the wheel-travel boundary
  * is bounded independently from the lower wishbone's circle (see travelReach).
  *
- * Known failures (December 2026, solver at d6bdada), reported with proposed fixes: coming back
- * from within 1e-3 deg or less of a dead centre the warm solver lands on the other assembly
- * branch and calls it converged (the four-bar cases); after the Swift demo's lean sweep steps
- * over a stretch where the loop cannot close, it converges on another assembly and, on the way
- * back, fails even at lean 0; the travel sweep is misled by the quadratic predictor because
- * the jump check measures from the predicted guess instead of the last good pose.
+ * These sweeps once caught three solver faults, all fixed and kept here as regressions: coming
+ * back from within 1e-3 deg of a dead centre the warm solver landed on the other assembly
+ * branch and called it converged (the four-bar cases; reversing now retraces from the previous
+ * pose); after the Swift demo's lean sweep stepped over a stretch where the loop cannot close
+ * it converged on another assembly and failed on the way back even at lean 0 (a boundary is
+ * now remembered); the travel sweep was misled by the predictor because the jump check measured
+ * from the predicted guess instead of the last good pose (it now measures from the good pose).
  */
 import { describe, expect, it } from 'vitest';
 import { resolveDesign } from '../../../core/design/resolveDesign';
