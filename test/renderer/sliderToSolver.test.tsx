@@ -57,7 +57,7 @@ describe('slider to solver to readouts', () => {
     }).report.analysis!;
     expect(mine.steering.localRatio).toBeCloseTo(core.steering.localRatio!, 6);
     expect(mine.suspension.frontLiftMm).toBeCloseTo(core.suspension.frontLiftMm!, 6);
-    expect(mine.toeError.leftDeg).toBeCloseTo(core.toeError.leftDeg!, 6);
+    expect(mine.selfSteer.leftDeg).toBeCloseTo(core.selfSteer.leftDeg!, 6);
   });
 
   it('the readouts show the solved numbers with units', () => {
