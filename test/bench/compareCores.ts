@@ -30,7 +30,7 @@
 import { execFileSync } from 'node:child_process';
 import { resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { collectGarbage, GROUND_MODE, loadDemoDesign, median, serpentineSweep, startClock, TILTING_DEMOS } from './measure';
+import { collectGarbage, envelopeGrid, GROUND_MODE, linspace, loadDemoDesign, median, serpentineSweep, startClock, TILTING_DEMOS, TRAVEL_MODE } from './measure';
 import type { MechanismGraph, PoseInputs } from '../../core/mechanism/MechanismGraph';
 import type { PoseMode } from '../../core/mechanism/templates/buildMechanism';
 import type { ResolvedDesign } from '../../core/design/types';
@@ -38,7 +38,7 @@ import type { ResolvedDesign } from '../../core/design/types';
 /** The little of a pose solver this script touches (true of every version so far). */
 interface SolverLike {
   readonly mechanism: { readonly coord: Float64Array; readonly sph: Float64Array };
-  solve(inputs: PoseInputs, warm?: boolean): { status: string; iterations: number };
+  solve(inputs: PoseInputs, warm?: boolean): { status: string; iterations: number; message: string };
   reset(): void;
 }
 type SolverClass = new (graph: MechanismGraph) => SolverLike;
@@ -80,17 +80,19 @@ function pass(solver: SolverLike, poses: PoseInputs[]): { wall: number; cpu: num
   return { wall: ((n * REPEATS) / clock.wallMs) * 1000, cpu: ((n * REPEATS) / clock.cpuMs) * 1000 };
 }
 
-/** Largest coordinate difference and status disagreements along one warm sweep. */
-function agreement(a: SolverLike, b: SolverLike, poses: PoseInputs[]): { maxDiff: number; statusDiffs: number; iterationDiffs: number } {
+/** Largest coordinate difference and status disagreements along one sweep (warm, or cold solves). */
+function agreement(a: SolverLike, b: SolverLike, poses: PoseInputs[], warm = true): { maxDiff: number; statusDiffs: number; iterationDiffs: number; converged: number } {
   a.reset();
   b.reset();
   let maxDiff = 0;
   let statusDiffs = 0;
   let iterationDiffs = 0;
+  let converged = 0;
   poses.forEach((p, i) => {
-    const ra = a.solve(p, i > 0);
-    const rb = b.solve(p, i > 0);
-    if (ra.status !== rb.status) statusDiffs++;
+    const ra = a.solve(p, warm && i > 0);
+    const rb = b.solve(p, warm && i > 0);
+    if (ra.status !== rb.status || ra.message !== rb.message) statusDiffs++;
+    if (ra.status === 'converged') converged++;
     if (ra.iterations !== rb.iterations) iterationDiffs++;
     for (const key of ['coord', 'sph'] as const) {
       const x = a.mechanism[key];
@@ -98,7 +100,7 @@ function agreement(a: SolverLike, b: SolverLike, poses: PoseInputs[]): { maxDiff
       for (let k = 0; k < x.length; k++) maxDiff = Math.max(maxDiff, Math.abs(x[k] - y[k]));
     }
   });
-  return { maxDiff, statusDiffs, iterationDiffs };
+  return { maxDiff, statusDiffs, iterationDiffs, converged };
 }
 
 /**
@@ -113,13 +115,29 @@ async function measureHere(beforeDir: string, afterDir: string, afterFirst: bool
   const firstIndex = afterFirst ? 1 : 0;
   const { buildMechanism } = (await import(pathToFileURL(resolve(afterDir, 'mechanism/templates/buildMechanism.ts')).href)) as { buildMechanism: BuildMechanism };
   const ratios: Record<string, number> = {};
+  // The other constraint kinds (point heights in travel mode, wheel headings when a wheel angle
+  // steers) and cold solves: same numbers too? Checked on smaller sweeps, untimed.
+  for (const name of TILTING_DEMOS) {
+    const design = loadDemoDesign(name);
+    const checks: Array<[string, PoseMode, PoseInputs[], boolean]> = [
+      ['travel mode, envelope grid 19 x 13 x 5', TRAVEL_MODE, envelopeGrid(design, 19, 13, 5).poses, true],
+      ['wheel-angle steering, serpentine 21 x 21', { contact: 'ground', steerBy: 'leftWheel' }, serpentineSweep(linspace(-20, 20, 21), linspace(-20, 20, 21)).map((p) => ({ ...p, wheelAngleDeg: p.handlebarDeg, handlebarDeg: 0 })), true],
+      ['cold solves, serpentine 9 x 9', GROUND_MODE, serpentineSweep(linspace(-20, 20, 9), linspace(-20, 20, 9)), false],
+    ];
+    for (const [what, mode, poses, warm] of checks) {
+      const graph = buildMechanism(design, mode);
+      const pair = copies.map((c) => new c.PoseSolver(structuredClone(graph)));
+      const agree = agreement(pair[0], pair[1], poses, warm);
+      console.log(`${name}, ${what} (${agree.converged}/${poses.length} converged): max |coordinate difference| ${agree.maxDiff.toExponential(2)}, status or message differences ${agree.statusDiffs}, iteration-count differences ${agree.iterationDiffs}`);
+    }
+  }
   for (const name of TILTING_DEMOS) {
     const graph = buildMechanism(loadDemoDesign(name), GROUND_MODE);
     const solvers: SolverLike[] = [];
     for (const i of [firstIndex, 1 - firstIndex]) solvers[i] = new copies[i].PoseSolver(structuredClone(graph));
     const poses = serpentineSweep();
     const agree = agreement(solvers[0], solvers[1], poses);
-    console.log(`${name}: ${poses.length} poses; before vs after: max |coordinate difference| ${agree.maxDiff.toExponential(2)}, status differences ${agree.statusDiffs}, iteration-count differences ${agree.iterationDiffs}`);
+    console.log(`${name}: ${poses.length} poses; before vs after: max |coordinate difference| ${agree.maxDiff.toExponential(2)}, status or message differences ${agree.statusDiffs}, iteration-count differences ${agree.iterationDiffs}`);
     // Warm-up: one untimed pass each, the first copy first.
     for (const i of [firstIndex, 1 - firstIndex]) pass(solvers[i], poses);
     const wall: number[][] = [[], []];
