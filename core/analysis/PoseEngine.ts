@@ -74,6 +74,12 @@ export class WarmSolver {
   get hasGood(): boolean {
     return this.warm;
   }
+
+  /** Forget the warm start: the next solve starts from the design pose, by continuation. */
+  reset(): void {
+    this.solver.reset();
+    this.warm = false;
+  }
 }
 
 export class PoseEngine {

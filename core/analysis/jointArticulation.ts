@@ -8,13 +8,17 @@
  *   tie rod inner:             stud in the crank, lever or rack, housing in the tie rod.
  *
  * Tie-rod spin. A tie rod with a ball joint or rod end at each end is free to spin about its
- * own axis, so its orientation is not fixed by the linkage. Treatment adopted (minimax): the
- * rod's frame is its design frame carried by the shortest rotation that takes its design
- * axis to its present axis, then spun about that axis by the angle that makes the larger of
- * its two end articulations as small as possible: the most favourable position the rod can
- * take, so a rating exceeded here is exceeded whatever the rod does. The spin used is
- * reported (relative to the shortest rotation). Each end's cosine is a + p cos(s) + q sin(s)
- * in the spin s, so the optimum is found in closed form among a few candidates.
+ * own axis, so its orientation is not fixed by the linkage. Treatment adopted (continuous
+ * minimax): the rod's frame is its design frame carried by the shortest rotation that takes
+ * its design axis to its present axis (its un-spun position), then spun about that axis to the
+ * nearest position where the larger of its two end articulations is least: starting from the
+ * un-spun position the rod turns the way that eases its worse end until no turn eases it
+ * further (a local optimum, the one a rod nudged by its joints settles in). The rod cannot take
+ * the other local optimum without first passing through a worse position, so unlike the global
+ * optimum this one does not jump between neighbouring poses: the articulations reported are
+ * those of a rod moving continuously. The spin used is reported (relative to the un-spun
+ * position). Each end's cosine is a + p cos(s) + q sin(s) in the spin s, so the local optima
+ * are found in closed form among a few candidates.
  */
 
 import type { Vec3 } from '../mechanism/MechanismGraph';
@@ -99,16 +103,41 @@ export function tieRodArticulation(t: TieRodEnds): TieRodArticulation {
     CANDIDATES[n++] = phi + d;
     CANDIDATES[n++] = phi - d;
   }
-  let best = -Infinity;
-  let spin = 0;
-  for (let i = 0; i < n; i++) {
-    const s = CANDIDATES[i];
-    const m = Math.min(sinusoid(ao, po, qo, s), sinusoid(ai, pi, qi, s));
-    if (m > best + 1e-15) {
-      best = m;
-      spin = s;
+  const f = (x: number) => Math.min(sinusoid(ao, po, qo, x), sinusoid(ai, pi, qi, x));
+  // Climb from the un-spun position (s = 0) to the first local optimum of f met on the way up;
+  // where f rises both ways (s = 0 sits in a valley) the climb takes the way to the better one.
+  const f0 = f(0);
+  // A probe wide enough to see the rise out of a smooth valley (quadratic there), narrow
+  // enough not to step over a nearby optimum.
+  const h = 1e-4;
+  const upPlus = f(h) > f0;
+  const upMinus = f(-h) > f0;
+  const nearestOptimum = (dir: 1 | -1): number => {
+    let nearest = Infinity;
+    let at = 0;
+    for (let i = 0; i < n; i++) {
+      const c = CANDIDATES[i];
+      const fc = f(c);
+      if (!(fc >= f(c - 1e-6) - 1e-12 && fc >= f(c + 1e-6) - 1e-12)) continue; // not a local optimum
+      // Angle travelled from 0 in the climbing direction, in (0, 2 pi].
+      let travel = (((dir * c) % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
+      if (travel <= 1e-12) travel += 2 * Math.PI;
+      if (travel < nearest) {
+        nearest = travel;
+        at = dir * travel;
+      }
     }
-  }
+    return at;
+  };
+  let spin = 0;
+  if (upPlus && upMinus) {
+    const p = nearestOptimum(1);
+    const m = nearestOptimum(-1);
+    spin = f(m) > f(p) + 1e-15 ? m : p;
+  } else if (upPlus) spin = nearestOptimum(1);
+  else if (upMinus) spin = nearestOptimum(-1);
+  // A climb never ends lower than it started (a guard against rounding at flat tops).
+  if (f(spin) < f0) spin = 0;
   spin = Math.atan2(Math.sin(spin), Math.cos(spin));
   return {
     outerRad: Math.acos(clamp(sinusoid(ao, po, qo, spin), -1, 1)),
@@ -118,6 +147,7 @@ export function tieRodArticulation(t: TieRodEnds): TieRodArticulation {
 }
 
 export const TIE_ROD_SPIN_TREATMENT =
-  'tie-rod spin (free about its own axis with a ball joint or rod end at each end): the rod takes the spin that ' +
-  'minimises the larger of its two end articulations (minimax), relative to the shortest rotation from its design axis';
+  'tie-rod spin (free about its own axis with a ball joint or rod end at each end): from its un-spun position (the shortest ' +
+  'rotation from its design axis) the rod turns to the nearest spin where the larger of its two end articulations is least ' +
+  '(continuous minimax: a rod moving continuously, no jump to another optimum between neighbouring poses)';
 

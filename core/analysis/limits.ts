@@ -117,6 +117,9 @@ export function steerLimits(design: ResolvedDesign, leans: number[], options: Li
   };
 
   const oneWay = (lean: number, dir: 1 | -1): SteerLimit => {
+    // Each way starts afresh from the design pose, so a mirror-symmetric design walks mirror
+    // paths and meets mirror limits (a warm start would carry one search's history into the other).
+    grid.reset();
     const start = at(lean, 0);
     const hit0 = limitHit(start.r, start.a, design);
     if (hit0) return { handlebarDeg: 0, kinds: hit0.kinds, detail: hit0.detail, leftWheelDeg: start.a?.steering.leftWheelDeg ?? null, rightWheelDeg: start.a?.steering.rightWheelDeg ?? null };

@@ -25,16 +25,22 @@ import { add, cross, dot, normalize, scale, sub } from './vec3';
 
 type H2 = [number, number, number];
 
-/** Farther than this the instant centre is called "at infinity" (lines parallel), mm. */
-const FAR_MM = 1e7;
+/**
+ * Two construction lines closer than this to parallel are called parallel: their meeting point
+ * is not given (an instant centre or roll centre that far away moves by metres for a tenth of
+ * a millimetre of input, so no figure would be trustworthy). A choice: 1 degree.
+ */
+export const NEAR_PARALLEL_DEG = 1;
+const SIN_NEAR_PARALLEL = Math.sin((NEAR_PARALLEL_DEG * Math.PI) / 180);
 
 const hcross = (a: H2, b: H2): H2 => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
 
-function isFinitePoint(p: H2): boolean {
-  if (!(Math.abs(p[2]) > 0)) return false;
-  const y = p[0] / p[2];
-  const z = p[1] / p[2];
-  return y * y + z * z < FAR_MM * FAR_MM;
+/** Whether two homogeneous front-view lines cross at more than NEAR_PARALLEL_DEG. */
+function crossClearly(l1: H2, l2: H2): boolean {
+  const n1 = Math.hypot(l1[0], l1[1]);
+  const n2 = Math.hypot(l2[0], l2[1]);
+  if (!(n1 > 0 && n2 > 0)) return false;
+  return Math.abs(l1[0] * l2[1] - l1[1] * l2[0]) / (n1 * n2) > SIN_NEAR_PARALLEL;
 }
 
 /** Front-view (y, z) point where the line through p along unit u pierces the plane x = x0; null if parallel to it. */
@@ -45,7 +51,10 @@ function pierce(p: Vec3, u: Vec3, x0: number): H2 | null {
 }
 
 interface FrontView {
+  /** The two wishbone lines' meeting point, homogeneous (at infinity when they are parallel). */
   ic: H2 | null;
+  /** Whether the wishbone lines cross clearly (the instant centre is given as a point). */
+  clear: boolean;
   contact: H2;
   reason?: string;
 }
@@ -55,10 +64,10 @@ function frontView(g: SideGeometry, contact: Vec3): FrontView {
   const c: H2 = [contact[1], contact[2], 1];
   const pu = pierce(g.upperPivot, g.upperPivotAxis, x0);
   const pl = pierce(g.lowerPivot, g.lowerPivotAxis, x0);
-  if (!pu || !pl) return { ic: null, contact: c, reason: 'a pivot axis lies across the vehicle: no front-view instant centre' };
+  if (!pu || !pl) return { ic: null, clear: false, contact: c, reason: 'a pivot axis lies across the vehicle: no front-view instant centre' };
   const lu = hcross(pu, [g.upperJoint[1], g.upperJoint[2], 1]);
   const ll = hcross(pl, [g.lowerJoint[1], g.lowerJoint[2], 1]);
-  return { ic: hcross(lu, ll), contact: c };
+  return { ic: hcross(lu, ll), clear: crossClearly(lu, ll), contact: c };
 }
 
 const toYz = (p: H2): YzMm => ({ y: p[0] / p[2], z: p[1] / p[2] });
@@ -211,7 +220,7 @@ function sideSuspension(fv: FrontView, g: SideGeometry, r: SideRates | null, opt
   let ic: YzMm | null = null;
   let swing: number | null = null;
   if (!fv.ic) reasons.push(fv.reason ?? 'no instant centre');
-  else if (!isFinitePoint(fv.ic)) reasons.push('wishbone lines parallel in front view: instant centre at infinity');
+  else if (!fv.clear) reasons.push(`wishbone lines near parallel in front view (within ${NEAR_PARALLEL_DEG} deg): instant centre too far to give`);
   else {
     ic = toYz(fv.ic);
     const sy = ic.y - fv.contact[0];
@@ -241,9 +250,11 @@ export function suspensionGeometry(pose: PoseGeometry, contacts: { left: Vec3; r
   let rollCentreMm: YzMm | null = null;
   let reason: string | undefined;
   if (fvL.ic && fvR.ic) {
-    const rc = hcross(hcross(fvL.contact, fvL.ic), hcross(fvR.contact, fvR.ic));
-    if (isFinitePoint(rc)) rollCentreMm = toYz(rc);
-    else reason = 'the two contact-patch lines are parallel: roll centre at infinity';
+    // An instant centre at (or near) infinity still gives its contact-patch line a direction.
+    const lineL = hcross(fvL.contact, fvL.ic);
+    const lineR = hcross(fvR.contact, fvR.ic);
+    if (crossClearly(lineL, lineR)) rollCentreMm = toYz(hcross(lineL, lineR));
+    else reason = `the two contact-patch lines are near parallel (within ${NEAR_PARALLEL_DEG} deg): roll centre too far to give`;
   } else {
     reason = 'no front-view instant centre: no roll centre';
   }
