@@ -14,6 +14,7 @@ import type { Verdict } from '../../core/analysis/tolerance';
 import type { Severity } from './severity';
 import { toCoreInputs, type Contact, type PoseUi } from './poseInputs';
 import { describePose } from './readoutTables';
+import { emptyDrawing } from '../../core/mechanism/drawingLayout';
 
 export type Unit = 'mm' | 'deg' | '%' | 'm/km' | 'mm/mm' | 'deg/deg' | '';
 
@@ -119,7 +120,7 @@ export class PoseSession {
   solve(pose: PoseUi, detail = true): PoseOutcome {
     const t0 = performance.now();
     const { result, analysis, snapshot, shown } = this.engine.solve(toCoreInputs(pose), { relatives: detail });
-    return describePose(this.design, this.layout, {
+    return describePose(this.design, this.layout, this.engine.graph.drawing ?? emptyDrawing(), {
       status: result.status,
       reached: result.reached,
       message: result.message,

@@ -10,59 +10,10 @@ import { NOT_WHILE_PLAYING } from '../../core/analysis/PoseEngine';
 import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from '../../core/analysis/tolerance';
 import { JOINT_WORDS, PART_WORDS } from '../../core/analysis/words';
 import type { SolveStatus } from '../../core/solver/PoseSolver';
+import { drawingPartsFor, type DrawingCheck, type DrawingLayout } from '../../core/mechanism/drawingLayout';
 import type { PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import { worse, type Severity } from './severity';
 import type { Alert, MechanismLayout, PoseOutcome, ReadoutCell, ReadoutRow, ReadoutTable, Unit } from './analysisAdapter';
-
-const JOINT_POINT: Record<keyof typeof JOINT_WORDS, (side: Side) => string> = {
-  upperOuter: (s) => `frontEnd.upper.outerJoint.${s}`,
-  lowerOuter: (s) => `frontEnd.lower.outerJoint.${s}`,
-  tieRodOuter: (s) => `upright.steeringArmJoint.${s}`,
-  tieRodInner: (s) => `steering.tieRodJoint.${s}`,
-};
-
-const JOINT_LABEL: Record<string, string> = {
-  upperOuter: 'Upper outer joint',
-  lowerOuter: 'Lower outer joint',
-  tieRodOuter: 'Tie rod, outer end',
-  tieRodInner: 'Tie rod, inner end',
-};
-
-const PART_LABEL: Record<string, string> = {
-  upperArm: 'upper arm',
-  lowerArm: 'lower arm',
-  upperRail: 'upper frame rail',
-  lowerRail: 'lower frame rail',
-  tieRod: 'tie rod',
-  steeringArm: 'steering arm',
-  crankArm: 'crank arm',
-  rack: 'rack',
-  tyre: 'tyre',
-};
-
-/** Viewport tubes (or the tyre) standing for a clearance part of core's model. */
-export function tubesOfPart(part: string, side: Side, split: boolean): string[] {
-  switch (part) {
-    case 'upperArm':
-      return split ? [`${side}.upper.front`, `${side}.upper.rear`] : [`upperMember.${side}`];
-    case 'lowerArm':
-      return split ? [`${side}.lower.front`, `${side}.lower.rear`] : [`lowerMember.${side}`];
-    case 'upperRail':
-      return [`frame.${side}.upperRail`];
-    case 'lowerRail':
-      return [`frame.${side}.lowerRail`];
-    case 'tieRod':
-      return [`${side}.tieRod`];
-    case 'steeringArm':
-      return [`${side}.steeringArm`];
-    case 'crankArm':
-      return [`crank.${side}`];
-    case 'rack':
-      return ['rack'];
-    default:
-      return [];
-  }
-}
 
 const capitalise = (s: string) => (s ? `${s[0].toUpperCase()}${s.slice(1)}` : s);
 
@@ -92,16 +43,20 @@ const row = (id: string, label: string, unit: Unit, digits: number, cells: Reado
 });
 const c = (value: number | null | undefined, severity?: Severity): ReadoutCell => (severity ? { value: value ?? null, severity } : { value: value ?? null });
 
-export function describePose(design: ResolvedDesign, layout: MechanismLayout, r: Raw): PoseOutcome {
+export function describePose(design: ResolvedDesign, layout: MechanismLayout, drawing: DrawingLayout, r: Raw): PoseOutcome {
   const alerts: Alert[] = [];
   const parts: Record<string, Severity> = {};
   const mark = (key: string, s: Severity) => {
     parts[key] = worse(parts[key] ?? 'none', s);
   };
+  // The drawing (core's layout template) says which drawn parts stand for each check.
+  const markCheck = (check: DrawingCheck, s: Severity) => {
+    for (const id of drawingPartsFor(drawing, check)) mark(id, s);
+  };
   if (!r.reached) {
     alerts.push({ severity: 'broken', text: `The linkage cannot reach this pose: ${r.message}.` });
     const blamed = r.culprit ? layout.constraints.find((k) => k.label === r.culprit) : undefined;
-    if (blamed) parts[`constraint.${blamed.id}`] = 'broken';
+    if (blamed) markCheck({ kind: 'constraint', constraint: blamed.id }, 'broken');
   } else if (r.status === 'singular') {
     alerts.push({ severity: 'close', text: `Near a dead centre: ${r.message}.` });
   }
@@ -109,7 +64,6 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, r:
   const tol = design.tolerances;
   const tables: ReadoutTable[] = [];
   if (a) {
-    const split = design.frontEnd.kind === 'splitWishbones';
     const L = a.wheels.left;
     const R = a.wheels.right;
     const both = (f: (w: typeof L, s: Side) => number | null | undefined, judge?: (v: number) => Verdict): ReadoutCell[] =>
@@ -118,7 +72,7 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, r:
         return c(v, judge && v !== null && v !== undefined ? judge(v) : undefined);
       });
     const slipJudge = (v: number) => judgeSlip(v, tol);
-    for (const side of ['left', 'right'] as const) mark(`tyre.${side}`, slipJudge(a.slip[side].slipDeg));
+    for (const side of ['left', 'right'] as const) markCheck({ kind: 'clearance', part: 'tyre', side }, slipJudge(a.slip[side].slipDeg));
 
     tables.push({
       id: 'wheel',
@@ -172,7 +126,7 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, r:
         const j = bySide(s);
         if (!j) return c(null);
         const sev = judgeJoint(j.articulationDeg, j.ratedDeg, tol);
-        mark(`joint.${JOINT_POINT[name](s)}`, sev);
+        markCheck({ kind: 'joint', joint: name, side: s }, sev);
         return c(j.articulationDeg, sev);
       });
       const rated = bySide('left')?.ratedDeg ?? bySide('right')?.ratedDeg;
@@ -190,10 +144,7 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, r:
         if (!k) return c(null);
         const sev = judgeClearance(k.distanceMm, tol);
         if (sev !== 'within') {
-          for (const part of [pa, pb]) {
-            if (part === 'tyre') mark(`tyre.${s}`, sev);
-            for (const t of tubesOfPart(part, s, split)) mark(`tube.${t}`, sev);
-          }
+          for (const part of [pa, pb]) markCheck({ kind: 'clearance', part, side: s }, sev);
         }
         return c(k.distanceMm, sev);
       });
@@ -201,8 +152,8 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, r:
     });
     tables.push({ id: 'clearance', title: `Clearances (required ${tol.clearanceMm} mm)`, columns: ['Left', 'Right'], rows: clearRows });
     for (const s of ['left', 'right'] as const) {
-      if (judgeTransmission(a.steering.steeringArmTransmissionDeg[s]) === 'over') mark(`tube.${s}.steeringArm`, 'over');
-      if (judgeTransmission(a.steering.linkageTransmissionDeg[s]) === 'over') mark(`tube.crank.${s}`, 'over');
+      if (judgeTransmission(a.steering.steeringArmTransmissionDeg[s]) === 'over') markCheck({ kind: 'transmission', link: 'steeringArm', side: s }, 'over');
+      if (judgeTransmission(a.steering.linkageTransmissionDeg[s]) === 'over') markCheck({ kind: 'transmission', link: 'linkage', side: s }, 'over');
     }
 
     const st = a.steering;
