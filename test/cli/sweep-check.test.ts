@@ -109,22 +109,46 @@ describe('tiltbench check', () => {
   it('prints the table of every tolerance, joint and clearance with worst value and where; exit 1 on the Heron demo', async () => {
     const r = await run(['check', HERON, '--lean-step', '12.5', '--steer-step', '12.5', '--travel-step', '35']);
     expect(r.code).toBe(1);
-    for (const text of ['toe error', 'slip angle', 'tie rod inner end, right', 'clearance tyre to lowerArm, left', 'dead-centre', 'cannot be assembled', 'RESULT: FAIL', 'turning circle', 'minimises the larger', 'steering limits', 'lean   0.0  left turn']) {
+    for (const text of [
+      'self-steer (lean and bump steer)',
+      'steering-ratio change',
+      'slip angle (toe mismatch)',
+      'tie rod, inner end, right',
+      'clearance tyre to lower arm, left',
+      'dead-centre',
+      'cannot be assembled',
+      '== operating region',
+      '== full rectangle',
+      'riding: 5..45 km/h',
+      'RESULT (operating region): FAIL',
+      'turning circle',
+      'continuous minimax',
+      'steering limits',
+      'lean   0.0  left turn',
+    ]) {
       expect(r.out).toContain(text);
     }
     expect(r.out).toContain(SAFETY_CAUTION);
-    expect(r.out).toMatch(/25\.0, 25\.0, /); // a worst case at full lean and lock
+    // Full lean with full lock the same way is a countersteer the vehicle never rides: it is
+    // a worst case of the full rectangle, not of the operating region.
+    const [operating, full] = r.out.split('== full rectangle');
+    expect(full).toMatch(/-25\.0, -25\.0, |25\.0, 25\.0, /);
+    expect(operating).not.toMatch(/-25\.0, -25\.0, |(?<!-)25\.0, 25\.0, /);
+    const whole = await run(['check', HERON, '--region', 'full', '--lean-step', '12.5', '--steer-step', '12.5', '--travel-step', '35']);
+    expect(whole.out).toContain('RESULT (full rectangle): FAIL');
+    expect(whole.out.indexOf('== full rectangle')).toBeLessThan(whole.out.indexOf('== operating region'));
+    expect((await run(['check', HERON, '--region', 'some'])).code).toBe(2);
   });
 
   it('exits 0 when everything passes, and --json carries the items', async () => {
     const doc = JSON.parse(readFileSync(HERON, 'utf8'));
     doc.envelope = { leanDeg: 5, handlebarDeg: 5, bumpMm: 5, reboundMm: 5 };
-    doc.tolerances = { toeErrorDeg: 2, slipDeg: 2, jointMarginDeg: 3, clearanceMm: 10 };
+    doc.tolerances = { selfSteerDeg: 2, ratioChangePct: 50, slipDeg: 2, jointMarginDeg: 3, clearanceMm: 10 };
     const file = join(tmp(), 'easy.tiltsheet');
     writeFileSync(file, JSON.stringify(doc));
     const r = await run(['check', file, '--lean-step', '2.5', '--steer-step', '2.5', '--travel-step', '5']);
     expect(r.code, r.out).toBe(0);
-    expect(r.out).toContain('RESULT: PASS');
+    expect(r.out).toContain('RESULT (operating region): PASS');
     const j = await run(['check', file, '--lean-step', '5', '--steer-step', '5', '--travel-step', '5', '--json']);
     expect(j.code).toBe(0);
     const report = JSON.parse(j.out);
@@ -145,7 +169,7 @@ describe('tiltbench check', () => {
   it('runs from the installed command (spawned), exit code and caution included', () => {
     const r = spawnSync(process.execPath, [BIN, 'check', SWIFT, '--lean-step', '17.5', '--steer-step', '15'], { encoding: 'utf8', timeout: 60000 });
     expect(r.status).toBe(1);
-    expect(r.stdout).toContain('RESULT:');
+    expect(r.stdout).toContain('RESULT (operating region):');
     expect(r.stdout).toContain('CAUTION');
   });
 });

@@ -71,7 +71,7 @@ describe('tiltbench pose', () => {
     expect(j.wheels.right.steerDeg).toBeGreaterThan(1);
     const t = run(['pose', DEMO, '--steer', '10']);
     expect(t.out).toContain('CAUTION');
-    expect(t.out).toContain('upright.wheelCentre.left');
+    expect(t.out).toContain('left wheel centre'); // hardpoints by their labels, not their ids
   }, SPAWN_TIMEOUT_MS);
 
   it('holds travel relative to the frame with --travel', () => {

@@ -11,7 +11,7 @@ import type { DesignFile, ResolvedDesign } from '../../../core/design/types';
 import { buildMechanism, type PoseMode } from '../../../core/mechanism/templates/buildMechanism';
 import { zeroInputs, type PoseInputs } from '../../../core/mechanism/MechanismGraph';
 import { PoseSolver, type SolveResult } from '../../../core/solver/PoseSolver';
-import { PoseAnalyser, type ToeReference } from '../../../core/analysis/PoseAnalyser';
+import { PoseAnalyser } from '../../../core/analysis/PoseAnalyser';
 import type { PoseAnalysis } from '../../../core/analysis/analysisTypes';
 
 /** Tests write designs freely, so documents are loosely typed here. */
@@ -37,11 +37,11 @@ export interface Solved {
 }
 
 /** Solve one pose from the design pose (continuation) and analyse it; throws if it fails. */
-export function solveAnalyse(design: ResolvedDesign, inputs: Partial<PoseInputs>, mode: Partial<PoseMode> = {}, toeRef?: ToeReference): Solved {
+export function solveAnalyse(design: ResolvedDesign, inputs: Partial<PoseInputs>, mode: Partial<PoseMode> = {}): Solved {
   const solver = new PoseSolver(buildMechanism(design, { contact: mode.contact ?? 'ground', steerBy: mode.steerBy ?? 'handlebar' }));
   const result = solver.solve({ ...zeroInputs(), ...inputs }, false);
   if (result.status !== 'converged') throw new Error(`pose did not solve: ${result.status}: ${result.message}`);
-  return { result, analysis: new PoseAnalyser(design, solver.mechanism).analyse(result, toeRef), solver };
+  return { result, analysis: new PoseAnalyser(design, solver.mechanism).analyse(result), solver };
 }
 
 /**

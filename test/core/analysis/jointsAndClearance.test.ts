@@ -144,6 +144,31 @@ describe('joint articulation', () => {
   });
 });
 
+/** Distance from q to the circle (centre c, unit normal n, radius r), closed form. */
+function pointCircle(q: V, c: V, n: V, r: number): number {
+  const d: V = [q[0] - c[0], q[1] - c[1], q[2] - c[2]];
+  const h = d[0] * n[0] + d[1] * n[1] + d[2] * n[2];
+  return Math.hypot(Math.hypot(d[0] - h * n[0], d[1] - h * n[1], d[2] - h * n[2]) - r, h);
+}
+
+/** Nearest approach of a segment to a circle: 1e5 samples, then golden-section search around the best. */
+function nearestBySearch(p0: V, p1: V, c: V, n: V, r: number): number {
+  const at = (t: number): V => [p0[0] + t * (p1[0] - p0[0]), p0[1] + t * (p1[1] - p0[1]), p0[2] + t * (p1[2] - p0[2])];
+  const N = 100000;
+  let best = 0;
+  for (let i = 0; i <= N; i++) if (pointCircle(at(i / N), c, n, r) < pointCircle(at(best / N), c, n, r)) best = i;
+  let lo = Math.max(0, (best - 1) / N);
+  let hi = Math.min(1, (best + 1) / N);
+  const g = (Math.sqrt(5) - 1) / 2;
+  for (let k = 0; k < 200; k++) {
+    const a = hi - g * (hi - lo);
+    const b = lo + g * (hi - lo);
+    if (pointCircle(at(a), c, n, r) < pointCircle(at(b), c, n, r)) hi = b;
+    else lo = a;
+  }
+  return pointCircle(at((lo + hi) / 2), c, n, r);
+}
+
 describe('clearance distances', () => {
   const point = fc.tuple(fc.double({ min: -100, max: 100, noNaN: true }), fc.double({ min: -100, max: 100, noNaN: true }), fc.double({ min: -100, max: 100, noNaN: true })) as fc.Arbitrary<V>;
   const lerp = (a: V, b: V, t: number): V => [a[0] + (b[0] - a[0]) * t, a[1] + (b[1] - a[1]) * t, a[2] + (b[2] - a[2]) * t];
@@ -197,8 +222,14 @@ describe('clearance distances', () => {
   it('segment to circle: a narrow dip between samples, a segment through the centre, one along the axis', () => {
     // Cases that defeated sampling-based versions: found by random search against brute force.
     const u = unit([-0.055894914434755534, 0, 0.08292019380302582]);
-    expect(segmentCircleDistance([0, 0, 0], [-66.33615503759673, 0, 0], [0, 0, 0], u, 10)).toBeCloseTo(5.589491443475553, 9);
-    expect(segmentCircleDistance([69.28148832250254, 77.68848876984653, 30.4068234943633], [-64.88076658833997, -63.950642548829784, -17.724933140340006], [0, 0, 0], unit([0.6892680894700036, -0.2681337896147675, -0.6730629775178505]), 20.428697840305993)).toBeCloseTo(3.2428033462945356, 6);
+    // A line through the circle's centre at angle a to its plane passes r sin a from the circle
+    // (here sin a = |u . x|); the foot, 8.3 mm along, lies on the segment.
+    expect(segmentCircleDistance([0, 0, 0], [-66.33615503759673, 0, 0], [0, 0, 0], u, 10)).toBeCloseTo(10 * Math.abs(u[0]), 12);
+    const p0: V = [69.28148832250254, 77.68848876984653, 30.4068234943633];
+    const p1: V = [-64.88076658833997, -63.950642548829784, -17.724933140340006];
+    const n = unit([0.6892680894700036, -0.2681337896147675, -0.6730629775178505]);
+    expect(segmentCircleDistance(p0, p1, [0, 0, 0], n, 20.428697840305993)).toBeCloseTo(nearestBySearch(p0, p1, [0, 0, 0], n, 20.428697840305993), 9);
+    // The segment lies in the circle's plane through its centre and crosses the circle at z = -r.
     expect(segmentCircleDistance([0, 0, 32.42732661773984], [0, 0, -54.04554436289974], [0, 0, 0], [0, 1, 0], 32.53541820646565)).toBeCloseTo(0, 9);
     expect(segmentCircleDistance([0, -0.0141, 0], [0, 0.0149, 0], [0, 0, 0], [0, 1, 0], 10)).toBeCloseTo(10, 12);
   });

@@ -34,12 +34,16 @@ describe('front-view instant centres and roll centre', () => {
     // wishbone's line from its pivot axis to its outer joint; the lines meet at the instant
     // centre; contact-patch-to-instant-centre lines meet at the roll centre. The Heron pivot
     // axes run along x, so they pierce the front view at the pivots' (y, z).
+    // The lower inner pivots are raised 40 mm so the contact-patch lines cross clearly (the
+    // demo's own meet within 1 deg of parallel: see the next test).
     const d = demoDoc('heron-tilting-velomobile');
+    d.frontEnd.lower.frontPivot.z += 40;
+    d.frontEnd.lower.rearPivot.z += 40;
     const uy = d.frontEnd.upper;
     const lw = d.frontEnd.lower;
     const ic = meet([uy.frontPivot.y, uy.frontPivot.z], [uy.outerJoint.y, uy.outerJoint.z], [lw.frontPivot.y, lw.frontPivot.z], [lw.outerJoint.y, lw.outerJoint.z]);
     const rc = meet([-400, 0], ic, [400, 0], [-ic[0], ic[1]]);
-    const { analysis: a } = solveAnalyse(demo('heron-tilting-velomobile'), {});
+    const { analysis: a } = solveAnalyse(resolveDoc(d), {});
     expect(a.suspension.right.instantCentreMm!.y).toBeCloseTo(ic[0], 6);
     expect(a.suspension.right.instantCentreMm!.z).toBeCloseTo(ic[1], 6);
     expect(a.suspension.left.instantCentreMm!.y).toBeCloseTo(-ic[0], 6);
@@ -48,10 +52,24 @@ describe('front-view instant centres and roll centre', () => {
     expect(a.suspension.right.swingArmMm!).toBeCloseTo(Math.hypot(ic[0] + 400, ic[1]), 6);
   });
 
+  it('construction lines within 1 deg of parallel give no roll centre, with the reason (the Heron demo at design)', () => {
+    const d = demoDoc('heron-tilting-velomobile');
+    const uy = d.frontEnd.upper;
+    const lw = d.frontEnd.lower;
+    const ic = meet([uy.frontPivot.y, uy.frontPivot.z], [uy.outerJoint.y, uy.outerJoint.z], [lw.frontPivot.y, lw.frontPivot.z], [lw.outerJoint.y, lw.outerJoint.z]);
+    // The two contact-patch lines are mirror images: they meet at twice the angle of one to the ground.
+    const between = (2 * Math.atan2(Math.abs(ic[1]), Math.abs(ic[0] + 400))) / DEG;
+    expect(between).toBeLessThan(1);
+    const { analysis: a } = solveAnalyse(demo('heron-tilting-velomobile'), {});
+    expect(a.suspension.left.instantCentreMm).not.toBeNull(); // the wishbone lines themselves cross clearly
+    expect(a.suspension.rollCentreMm).toBeNull();
+    expect(a.suspension.reason).toMatch(/near parallel \(within 1 deg\)/);
+  });
+
   it('equal parallel wishbones put the instant centres at infinity: null with a reason, never a made-up number', () => {
     const { analysis: a } = solveAnalyse(resolveDoc(parallelTrike()), {});
     expect(a.suspension.left.instantCentreMm).toBeNull();
-    expect(a.suspension.left.reason).toMatch(/infinity/);
+    expect(a.suspension.left.reason).toMatch(/near parallel/);
     expect(a.suspension.rollCentreMm).toBeNull();
     expect(a.suspension.reason).toBeTruthy();
   });
@@ -85,7 +103,10 @@ describe('motion ratio', () => {
 });
 
 describe('front lift with steer', () => {
-  it('matches an exact construction with the suspension held (upright turned about its fixed axis until the tie rod closes)', () => {
+  // The construction holds the suspension (each upright turned about its design-position axis
+  // until the tie rod closes); the solved pose lets the wishbones move as the front rises,
+  // which the construction leaves out: measured 0.9 % at 10 deg, 2.4 % at 30 deg of handlebar.
+  it('agrees to 3 % with a construction that holds the suspension (upright turned about its design-position axis until the tie rod closes)', () => {
     const d = demo('heron-tilting-velomobile');
     if (d.steering.kind !== 'bellCrank') throw new Error('expected a bell crank');
     const st = d.steering;
@@ -118,7 +139,7 @@ describe('front lift with steer', () => {
       }
       const ours = c.series[0].values[i]!;
       expect(ours).toBeGreaterThan(0); // KPI with positive scrub lifts the front
-      expect(Math.abs(ours - lift)).toBeLessThan(0.05 * Math.abs(lift) + 1e-3);
+      expect(Math.abs(ours - lift)).toBeLessThan(0.03 * Math.abs(lift));
     });
   });
 });

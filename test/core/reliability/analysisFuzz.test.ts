@@ -59,7 +59,6 @@ function analysePoses(design: ResolvedDesign, label: string): string[] {
   const lean = design.vehicle.tilting ? design.envelope.leanDeg : 0;
   const hb = design.envelope.handlebarDeg;
   const poses: Partial<PoseInputs>[] = [{}, { handlebarDeg: hb / 2 }, { leanDeg: lean, handlebarDeg: hb }, { leanDeg: -lean, handlebarDeg: -hb }, { handlebarDeg: 170 }];
-  let toeRef: { leftDeg: number; rightDeg: number } | undefined;
   for (const p of poses) {
     const inputs = { ...zeroInputs(), ...p };
     const t0 = performance.now();
@@ -69,8 +68,7 @@ function analysePoses(design: ResolvedDesign, label: string): string[] {
     const reached = takeSnapshot(solver.mechanism).inputs.handlebarDeg === inputs.handlebarDeg;
     if (!(result.status === 'converged' || (result.status === 'singular' && reached))) continue;
     try {
-      const a = analyser.analyse(result, toeRef);
-      if (!toeRef && p.handlebarDeg === undefined) toeRef = { leftDeg: a.wheels.left.toeDeg, rightDeg: a.wheels.right.toeDeg };
+      const a = analyser.analyse(result);
       problems.push(...nonFiniteIn(a, 'analysis').map((x) => `${label} ${JSON.stringify(p)}: ${x}`));
       // Findings are words: they must not print a non-number either.
       for (const f of a.findings) if (nonFiniteIn(f).length > 0) problems.push(`${label}: finding "${f}"`);
@@ -186,9 +184,14 @@ describe('analysis outputs on fuzzed designs: finite numbers or null with a reas
       const design = resolveDesign(d.design);
       for (const steerBy of ['handlebar', 'leftWheel', 'rightWheel'] as const) {
         for (const contact of ['ground', 'travel'] as const) {
-          const out = solveSinglePose(design, { contact, steerBy, leanDeg: 10, handlebarDeg: steerBy === 'handlebar' ? 10 : 0, wheelAngleDeg: 8, heaveMm: 0, travelRightMm: 5, travelLeftMm: -5 });
+          const lean = design.vehicle.tilting ? 10 : 0;
+          const request = { contact, steerBy, leanDeg: lean, handlebarDeg: steerBy === 'handlebar' ? 10 : 0, wheelAngleDeg: 8, heaveMm: 0, travelRightMm: 5, travelLeftMm: -5 };
+          const out = solveSinglePose(design, request);
           expect(nonFiniteIn(out.report), `${d.file} ${contact}/${steerBy}`).toEqual([]);
           expect(nonFiniteIn(out.text)).toEqual([]);
+          // The ride input (a speed instead of a lean) likewise.
+          const ride = solveSinglePose(design, { ...request, leanDeg: 0, speedKmh: 25 });
+          expect(nonFiniteIn(ride.report), `${d.file} ${contact}/${steerBy} at 25 km/h`).toEqual([]);
         }
       }
     }
