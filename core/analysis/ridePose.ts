@@ -13,7 +13,7 @@ import type { EnginePose, PoseEngine } from './PoseEngine';
 import { balancedLeanDeg, lateralG, turnOf } from './ridingRegion';
 
 export const BALANCE_TOLERANCE_DEG = 1e-6;
-const MAX_BALANCE_STEPS = 40;
+const MAX_BALANCE_STEPS = 60;
 
 export interface RidePose {
   pose: EnginePose;
@@ -54,33 +54,49 @@ export function solveRide(engine: PoseEngine, speedKmh: number, inputs: PoseInpu
       notes,
     };
   }
-  let lean = 0;
-  let balanced: number | null = null;
-  let steps = 0;
-  for (; steps < MAX_BALANCE_STEPS; steps++) {
+  // g(lean) = balanced lean for the turn the linkage makes at that lean, minus the lean.
+  const gap = (lean: number): number | null => {
     at.leanDeg = lean;
     const p = engine.solve(at, { relatives: false });
-    if (!p.analysis) break;
-    const turn = turnOf(p.analysis.slip.turnCentreMm?.y ?? null, p.analysis.slip.turnRadiusMm);
-    balanced = balancedLeanDeg(speedKmh, turn);
-    if (Math.abs(balanced - lean) < BALANCE_TOLERANCE_DEG) break;
-    lean = balanced;
-    balanced = null;
+    if (!p.analysis) return null;
+    return balancedLeanDeg(speedKmh, turnOf(p.analysis.slip.turnCentreMm?.y ?? null, p.analysis.slip.turnRadiusMm)) - lean;
+  };
+  // The search stays within the lean limit: a balance beyond it is not a pose the vehicle reaches.
+  const limit = design.riding.maxLeanDeg;
+  let lean = 0;
+  let g = gap(lean);
+  let steps = 1;
+  let prev: { lean: number; g: number } | null = null;
+  let pinned = false;
+  while (g !== null && Math.abs(g) >= BALANCE_TOLERANCE_DEG && steps < MAX_BALANCE_STEPS) {
+    // Secant step once two points are known (a fixed-point step before, or when they are too close).
+    const slope = prev && Math.abs(prev.g - g) > 1e-15 ? (g - prev.g) / (lean - prev.lean) : -1;
+    const next = Math.max(-limit, Math.min(limit, lean - g / slope));
+    if (next === lean) {
+      // At the limit and the turn still asks for more lean: no balance inside the limit.
+      pinned = true;
+      break;
+    }
+    prev = { lean, g };
+    lean = next;
+    g = gap(lean);
+    steps++;
   }
+  let balanced: number | null = null;
   at.leanDeg = lean;
   const pose = engine.solve(at, { relatives });
   const a = pose.analysis;
-  let g: number | null = null;
+  let lateral: number | null = null;
   if (!a) {
     notes.push(`the linkage cannot reach the pose at lean ${lean.toFixed(2)} deg: ${pose.result.message}`);
     balanced = null;
   } else {
     const turn = turnOf(a.slip.turnCentreMm?.y ?? null, a.slip.turnRadiusMm);
     balanced = balancedLeanDeg(speedKmh, turn);
-    g = turn.side === 'straight' ? null : lateralG(speedKmh, turn.radiusMm);
-    if (Math.abs(balanced - lean) >= BALANCE_TOLERANCE_DEG) notes.push(`the lean did not settle within ${MAX_BALANCE_STEPS} steps`);
-    if (Math.abs(lean) > design.riding.maxLeanDeg) notes.push(`the balanced lean is past the lean limit (${design.riding.maxLeanDeg} deg)`);
-    if (g !== null && g > design.riding.gripG) notes.push(`the turn needs ${g.toFixed(2)} g, past the grip limit (${design.riding.gripG} g)`);
+    lateral = turn.side === 'straight' ? null : lateralG(speedKmh, turn.radiusMm);
+    if (pinned) notes.push(`no balance within the lean limit (${limit} deg): at the limit this turn needs ${Math.abs(balanced).toFixed(1)} deg of lean`);
+    else if (Math.abs(balanced - lean) >= BALANCE_TOLERANCE_DEG) notes.push(`the lean did not settle within ${MAX_BALANCE_STEPS} steps`);
+    if (lateral !== null && lateral > design.riding.gripG) notes.push(`the turn needs ${lateral.toFixed(2)} g, past the grip limit (${design.riding.gripG} g)`);
     if (turn.side === 'straight') notes.push('straight ahead: balanced upright');
   }
   return {
@@ -89,8 +105,8 @@ export function solveRide(engine: PoseEngine, speedKmh: number, inputs: PoseInpu
     leanDeg: lean,
     balancedLeanDeg: balanced,
     balanceResidualDeg: balanced === null ? null : lean - balanced,
-    lateralG: g,
-    steps: steps + 1,
+    lateralG: lateral,
+    steps,
     notes,
   };
 }

@@ -188,10 +188,12 @@ function misclosureWords(mm: number | null): string {
   return `${mm.toFixed(3)} mm (largest loop gap of a least-squares fit there)`;
 }
 
+const balanced = (r: RideReport) => r.balanceResidualDeg !== null && Math.abs(r.balanceResidualDeg) < 1e-4;
+
 function rideLines(r: RideReport): string[] {
   const f = (x: number | null, d: number, unit: string) => (x === null ? '-' : `${x.toFixed(d)} ${unit}`);
   return [
-    `ride: ${r.speedKmh} km/h, balanced lean ${r.leanDeg.toFixed(3)} deg (right side down +), balance residual ${f(r.balanceResidualDeg, 6, 'deg')}, ` +
+    `ride: ${r.speedKmh} km/h, lean ${r.leanDeg.toFixed(3)} deg (right side down +; ${balanced(r) ? 'balanced' : 'not balanced'}), balance residual ${f(r.balanceResidualDeg, 6, 'deg')}, ` +
       `lateral acceleration ${f(r.lateralG, 3, 'g')}, ${r.steps} lean-and-solve steps`,
     ...r.notes.map((n) => `  (ride: ${n})`),
   ];
