@@ -156,7 +156,11 @@ export class PoseAnalyser {
   }
 
   /** Every measure of the pose the mechanism is in now (after a converged or singular solve). */
-  analyse(result: SolveResult): PoseAnalysis {
+  /**
+   * `judge: false` leaves the verdict for relativeMeasures.ts to make once the neighbouring
+   * poses are in (a sweep judges every cell that way; judging twice cost it a few per cent).
+   */
+  analyse(result: SolveResult, judge = true): PoseAnalysis {
     const m = this.mechanism;
     const d = this.design;
     m.forward();
@@ -229,7 +233,7 @@ export class PoseAnalyser {
       findings: [],
     };
     // Judged on what one pose gives; relativeMeasures.ts judges again once the neighbours are known.
-    return applyJudgement(analysis, d.tolerances, this.findings);
+    return judge ? applyJudgement(analysis, d.tolerances, this.findings) : analysis;
   }
 
 

@@ -23,47 +23,53 @@ export function noChecks(): Record<CheckKind, Verdict | null> {
   return c;
 }
 
-/** Judge every check of a solved pose; words only when asked for (sweeps skip them for speed). */
+/**
+ * Judge every check of a solved pose; words only when asked for. This runs twice per pose of a
+ * sweep (after the pose's own measures, then with the neighbours' ones), so without words it
+ * builds no strings and no closures.
+ */
 export function judgePose(a: PoseAnalysis, tol: Tolerances, words: boolean): PoseJudgement {
   const checks = noChecks();
   const findings: string[] = [];
-  const note = (v: Verdict, text: string) => {
-    if (words && v !== 'within') findings.push(`${v}: ${text}`);
-  };
-  for (const side of ['left', 'right'] as const) {
+  for (const side of SIDES) {
     const s = a.slip[side].slipDeg;
     const v = judgeSlip(s, tol);
     checks.slip = worseOf(checks.slip, v);
-    note(v, `${side} slip ${fmt(s)} deg (tolerance ${tol.slipDeg} deg)`);
-    const e = a.selfSteer[`${side}Deg`];
+    if (words && v !== 'within') findings.push(`${v}: ${side} slip ${fmt(s)} deg (tolerance ${tol.slipDeg} deg)`);
+    const e = side === 'left' ? a.selfSteer.leftDeg : a.selfSteer.rightDeg;
     if (e !== null) {
       const ve = judgeSelfSteer(e, tol);
       checks.selfSteer = worseOf(checks.selfSteer, ve);
-      note(ve, `${side} self-steer ${fmt(e, 3)} deg (tolerance ${tol.selfSteerDeg} deg)`);
+      if (words && ve !== 'within') findings.push(`${ve}: ${side} self-steer ${fmt(e, 3)} deg (tolerance ${tol.selfSteerDeg} deg)`);
     }
   }
   const rc = a.steering.ratioChangePct;
   if (rc !== null) {
-    checks.ratioChange = judgeRatioChange(rc, tol);
-    note(checks.ratioChange, `steering-ratio change ${fmt(rc, 1)} % (tolerance ${tol.ratioChangePct} %)`);
+    const v = judgeRatioChange(rc, tol);
+    checks.ratioChange = v;
+    if (words && v !== 'within') findings.push(`${v}: steering-ratio change ${fmt(rc, 1)} % (tolerance ${tol.ratioChangePct} %)`);
   }
   for (const j of a.joints) {
     const v = judgeJoint(j.articulationDeg, j.ratedDeg, tol);
     checks.joint = worseOf(checks.joint, v);
-    note(v, `${jointWords(j.joint, j.side)} at ${fmt(j.articulationDeg, 1)} deg of ${j.ratedDeg} rated (margin ${fmt(j.marginDeg, 1)}, required ${tol.jointMarginDeg})`);
+    if (words && v !== 'within') {
+      findings.push(`${v}: ${jointWords(j.joint, j.side)} at ${fmt(j.articulationDeg, 1)} deg of ${j.ratedDeg} rated (margin ${fmt(j.marginDeg, 1)}, required ${tol.jointMarginDeg})`);
+    }
   }
   for (const c of a.clearances) {
     const v = judgeClearance(c.distanceMm, tol);
     checks.clearance = worseOf(checks.clearance, v);
-    note(v, `${clearancePairWords(c.pair)} clearance, ${c.side}, ${fmt(c.distanceMm, 1)} mm (required ${tol.clearanceMm} mm)`);
+    if (words && v !== 'within') findings.push(`${v}: ${clearancePairWords(c.pair)} clearance, ${c.side}, ${fmt(c.distanceMm, 1)} mm (required ${tol.clearanceMm} mm)`);
   }
   const t = a.worst.transmissionDeg;
   checks.deadCentre = judgeTransmission(t);
-  note(checks.deadCentre, `a steering lever is at or past dead centre (transmission ${fmt(t, 1)} deg)`);
+  if (words && checks.deadCentre !== 'within') findings.push(`${checks.deadCentre}: a steering lever is at or past dead centre (transmission ${fmt(t, 1)} deg)`);
   let status: Verdict = 'within';
   for (const k of CHECK_KINDS) status = worseOf(status, checks[k]) ?? status;
   return { status, checks, findings };
 }
+
+const SIDES = ['left', 'right'] as const;
 
 /** Put a judgement on the analysis (in place) and return it. */
 export function applyJudgement(a: PoseAnalysis, tol: Tolerances, words: boolean): PoseAnalysis {

@@ -202,7 +202,8 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
         solves++;
         // Literal objects, no spread: V8's spread-with-extra-keys is slow and this runs per pose.
         if (r.reached) {
-          const analysis = grid.analyser.analyse(r);
+          // Judged below, once the row's neighbours are in (completeMeasures).
+          const analysis = grid.analyser.analyse(r, false);
           rowAnalyses[si] = analysis;
           const region = regionOf(lean, analysis, si);
           rowCells[si] = { leanIndex: li, handlebarIndex: si, travelIndex: ti, leanDeg: lean, handlebarDeg: bar, travelMm: travel, region, ok: true, analysis };
