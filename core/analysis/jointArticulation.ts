@@ -3,7 +3,10 @@
  * body) and the stud or bolt axis (fixed in the other). At design position both lie along
  * the joint's `studAxis`, so articulation is zero there.
  *
- *   upper / lower outer joint: stud in the upright, housing in the wishbone or member;
+ *   upper / lower outer joint: stud in the upright, housing in the wishbone or member; with a
+ *                              kingpin (upright.steeringAxis "kingpin") the stud is in the yoke
+ *                              the upright turns in, so these see the suspension's motion and
+ *                              never the steering;
  *   tie rod outer:             stud in the steering arm (upright), housing in the tie rod;
  *   tie rod inner:             stud in the crank, lever or rack, housing in the tie rod.
  *

@@ -5,7 +5,8 @@
  *
  * Bodies (the template's ids): frame, `${side}.upright`, `${side}.upperWishbone` /
  * `${side}.lowerWishbone` or `upperMember` / `lowerMember`, and the steering body that
- * carries the tie rods' inner joints (bell crank, rack or steering column).
+ * carries the tie rods' inner joints (bell crank, rack or steering column); with a kingpin
+ * upright also `${side}.yoke`, which carries the outer joints' studs (kingpinYoke.ts).
  */
 
 import type { ResolvedDesign, Side, Vec3Mm } from '../design/types';
@@ -69,6 +70,8 @@ export interface PoseGeometry {
 
 interface SideRefs {
   upright: number;
+  /** The body holding the outer joints' studs: the upright, or with a kingpin its yoke. */
+  outerStudBody: number;
   upperCarrier: number;
   lowerCarrier: number;
   upperJoint: Vec3;
@@ -129,6 +132,8 @@ export class GeometryReader {
     const st = design.steering;
     const make = (side: Side): SideRefs => {
       const upright = bodyIndex(graph, `${side}.upright`);
+      // A kingpin upright turns in its yoke; the outer joints hold the yoke, so they do not see the steering.
+      const yoke = graph.bodies.findIndex((b) => b.id === `${side}.yoke`);
       const split = fe.kind === 'splitWishbones';
       const upperCarrier = bodyIndex(graph, split ? `${side}.upperWishbone` : 'upperMember');
       const lowerCarrier = bodyIndex(graph, split ? `${side}.lowerWishbone` : 'lowerMember');
@@ -166,6 +171,7 @@ export class GeometryReader {
       const j = design.joints;
       return {
         upright,
+        outerStudBody: yoke >= 0 ? yoke : upright,
         upperCarrier,
         lowerCarrier,
         upperJoint: U,
@@ -303,9 +309,9 @@ export class GeometryReader {
     if (r.crankFoot && o.crankFoot) m.worldPoint(sb, r.crankFoot, o.crankFoot);
     if (r.springFrame && o.springFrame) m.worldPoint(f, r.springFrame, o.springFrame);
     if (r.springArm && o.springArm) m.worldPoint(r.springBody, r.springArm, o.springArm);
-    m.worldDirection(u, r.studUpper, o.upperStud);
+    m.worldDirection(r.outerStudBody, r.studUpper, o.upperStud);
     m.worldDirection(r.upperCarrier, r.studUpper, o.upperHousing);
-    m.worldDirection(u, r.studLower, o.lowerStud);
+    m.worldDirection(r.outerStudBody, r.studLower, o.lowerStud);
     m.worldDirection(r.lowerCarrier, r.studLower, o.lowerHousing);
     m.worldDirection(u, r.studTieOuter, o.tieOuterStud);
     m.worldDirection(sb, r.studTieInner, o.tieInnerStud);

@@ -4,9 +4,10 @@
  *
  * Tree: ground -> heave slide (z) -> frame (roll about the x axis through the origin, the
  * lean) -> wishbones or centre members (revolute) -> uprights (spherical at the lower outer
- * joint); the steering body (crank, rack or column) hangs on the frame. Loops are closed by
- * coincident upper joints, tie-rod lengths, a drag link where there is one, and either
- * ground contact or a travel driver per wheel.
+ * joint; with a kingpin, a yoke on a cross there and the upright on a revolute joint in it,
+ * kingpinYoke.ts); the steering body (crank, rack or column) hangs on the frame. Loops are
+ * closed by coincident upper joints, tie-rod lengths, a drag link where there is one, and
+ * either ground contact or a travel driver per wheel.
  *
  * Each part of the tree is built by its own module (front suspension, uprights, steering,
  * wheels); the order of the calls below is the order of bodies, points and constraints in

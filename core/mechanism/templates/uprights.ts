@@ -1,12 +1,24 @@
 /**
- * The uprights: each hangs on its lower outer joint (spherical) and closes its loop at the
- * upper outer joint (coincident with the upper wishbone or member). Drawn as the kingpin
- * tube, a spindle to the wheel centre and a steering arm, with the steering axis line.
+ * The uprights. With ball joints (`upright.steeringAxis: "ballJoints"`) each upright hangs on
+ * its lower outer joint (spherical) and closes its loop at the upper outer joint (coincident
+ * with the upper wishbone or member): the outer joints see every rotation of the upright,
+ * steering included.
+ *
+ * With a kingpin (`"kingpin"`) the outer joints carry a yoke (kingpinYoke.ts) and the upright
+ * turns in the yoke on a revolute joint about the kingpin axis, the line through the two outer
+ * joints; the steering arm and the wheel are on the upright, so the outer joints do not see
+ * the steering. Either way the upright's named points (outer joints, steering arm, wheel
+ * centre) ride on the upright: the outer joints lie on the kingpin axis, so they sit at the
+ * same place whether read on the yoke or on the upright.
+ *
+ * Drawn as the kingpin tube, a spindle to the wheel centre and a steering arm, with the
+ * steering axis line.
  */
 
 import type { ResolvedDesign, Side } from '../../design/types';
 import type { DrawingPointRef } from '../drawingLayout';
 import type { OuterJoints, Suspension } from './frontSuspension';
+import { addKingpinUpright } from './kingpinYoke';
 import { mid, SIDES, v, type MechanismBuilder } from './mechanismBuilder';
 
 export interface Uprights {
@@ -20,6 +32,7 @@ export interface Uprights {
 export function addUprights(b: MechanismBuilder, design: ResolvedDesign, suspension: Suspension): Uprights {
   const fe = design.frontEnd;
   const carrierWord = fe.kind === 'centrePivot' ? 'upper member' : 'upper wishbone';
+  const kingpin = design.upright.steeringAxis === 'kingpin';
   const out: Uprights = {
     body: { right: -1, left: -1 },
     outerJoints: {} as OuterJoints,
@@ -29,17 +42,27 @@ export function addUprights(b: MechanismBuilder, design: ResolvedDesign, suspens
   for (const side of SIDES) {
     const lowerJ = fe.lower.outerJoint[side];
     const upperJ = fe.upper.outerJoint[side];
-    const u = b.addBody(`${side}.upright`, `${side} upright`, {
-      kind: 'spherical',
-      parent: suspension.carrier[side].lower,
-      origin: v(lowerJ),
-      axis: [0, 0, 1],
-    });
+    // What the upper outer joint joins to the upper carrier: the yoke, or the upright itself.
+    let u: number;
+    let upperJoined: number;
+    if (kingpin) {
+      const k = addKingpinUpright(b, side, suspension.carrier[side].lower, v(lowerJ), v(upperJ));
+      u = k.upright;
+      upperJoined = k.yoke;
+    } else {
+      u = b.addBody(`${side}.upright`, `${side} upright`, {
+        kind: 'spherical',
+        parent: suspension.carrier[side].lower,
+        origin: v(lowerJ),
+        axis: [0, 0, 1],
+      });
+      upperJoined = u;
+    }
     const closure = b.addConstraint({
       kind: 'coincident',
       id: `${side}.upperOuterJoint`,
-      label: `${side} upper outer joint (${carrierWord} to upright)`,
-      bodyA: u,
+      label: `${side} upper outer joint (${carrierWord} to ${kingpin ? 'kingpin yoke' : 'upright'})`,
+      bodyA: upperJoined,
       pointA: v(upperJ),
       bodyB: suspension.carrier[side].upper,
       pointB: v(upperJ),
@@ -53,7 +76,7 @@ export function addUprights(b: MechanismBuilder, design: ResolvedDesign, suspens
     out.steeringArmJoint[side] = arm;
 
     const kingpinMid = b.onBody(u, mid(upperJ, lowerJ));
-    const kingpin = b.tube(`${side}.upright`, { label: `${side} upright`, part: 'upright', a: upper, b: lower, radius: 12 });
+    const kingpinTube = b.tube(`${side}.upright`, { label: `${side} upright`, part: 'upright', a: upper, b: lower, radius: 12 });
     out.spindle[side] = b.tube(`${side}.spindle`, { label: `${side} spindle`, part: 'upright', a: kingpinMid, b: wheelCentre, radius: 10 });
     const steeringArm = b.tube(`${side}.steeringArm`, {
       label: `${side} steering arm`,
@@ -68,7 +91,7 @@ export function addUprights(b: MechanismBuilder, design: ResolvedDesign, suspens
     const armJoint = b.jointAt(arm, `tie rod outer joint, ${side}`, 12);
     b.jointAt(wheelCentre, `wheel centre, ${side}`, 9);
 
-    b.shows({ kind: 'constraint', constraint: closure }, kingpin);
+    b.shows({ kind: 'constraint', constraint: closure }, kingpinTube);
     b.shows({ kind: 'joint', joint: 'upperOuter', side }, upperJoint);
     b.shows({ kind: 'joint', joint: 'lowerOuter', side }, lowerJoint);
     b.shows({ kind: 'joint', joint: 'tieRodOuter', side }, armJoint);
