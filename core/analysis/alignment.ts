@@ -68,6 +68,10 @@ export function wheelAlignment(
   const toeDeg = toeFromHeading(side, heading) * RAD;
   const camberDeg = camberFromAxis(side, a[0], a[1], a[2]) * RAD;
   const camberToFrameDeg = camberFromAxis(side, a[0], a[1], a[2], frame.up) * RAD;
+  // The front-view projection: the wheel plane's trace in the y-z plane, perpendicular there to
+  // the spin axis projected onto it (equal to the camber when the wheel points straight ahead).
+  const ayz = Math.hypot(a[1], a[2]);
+  const camberFrontViewDeg = ayz > 1e-12 ? camberFromAxis(side, 0, a[1] / ayz, a[2] / ayz) * RAD : null;
   // The axis meets the ground only if it is not horizontal (a near-horizontal axis would
   // put its ground point kilometres away: no meaningful trail or scrub).
   let trailMm: number | null = null;
@@ -95,6 +99,7 @@ export function wheelAlignment(
     toeDeg,
     camberDeg,
     camberToFrameDeg,
+    camberFrontViewDeg,
     casterDeg: ground.caster * RAD,
     kpiDeg: ground.kpi * RAD,
     casterToFrameDeg: inFrame.caster * RAD,

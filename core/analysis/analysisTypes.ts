@@ -36,10 +36,19 @@ export interface WheelAlignment {
   steerDeg: number;
   /** Toe to the vehicle's x axis, toe-in positive. */
   toeDeg: number;
-  /** Camber to the ground normal, top outward positive. */
+  /**
+   * Camber to the ground normal, top outward positive: the inclination of the wheel plane itself
+   * from the ground normal (not its front-view projection), whatever the steer.
+   */
   camberDeg: number;
-  /** Camber to the frame's z axis, top outward positive. */
+  /** Camber to the frame's z axis, top outward positive (the same inclination, to the frame). */
   camberToFrameDeg: number;
+  /**
+   * The wheel plane's front-view (y-z) projection against the ground normal, top outward
+   * positive: what a front-view drawing shows; equals camberDeg straight ahead and differs
+   * with steer. Null when the wheel plane is the front-view plane (steered 90 deg).
+   */
+  camberFrontViewDeg: number | null;
   /** Caster in side view of the vehicle (x-z plane, ground frame), top rearward positive. */
   casterDeg: number;
   /** Kingpin inclination in front view (y-z plane, ground frame), top inward positive. */

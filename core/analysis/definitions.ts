@@ -12,7 +12,8 @@ export const ANALYSIS_DEFINITIONS = {
   handlebar: 'positive turns left',
   steer: 'road-wheel angle: heading of the wheel about the ground normal, positive left',
   toe: 'toe-in positive',
-  camber: 'top of the wheel outward positive; to the ground normal and to the frame z axis',
+  camber:
+    'top of the wheel outward positive: the inclination of the wheel plane itself (not its front-view projection) from the ground normal and from the frame z axis; camberFrontViewDeg is the front-view projection, equal straight ahead',
   caster: 'side view (x-z), top of the steering axis rearward positive',
   kpi: 'front view (y-z), top of the steering axis inward positive',
   trail: 'along the wheel heading on the ground: contact patch behind the axis ground point positive',

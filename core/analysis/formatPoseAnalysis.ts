@@ -22,6 +22,7 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
   row('self-steer (deg, left +)', a.selfSteer.leftDeg, a.selfSteer.rightDeg, 3);
   row('camber to ground (deg, top out +)', L.camberDeg, R.camberDeg, 3);
   row('camber to frame (deg)', L.camberToFrameDeg, R.camberToFrameDeg, 3);
+  row('camber, front-view projection (deg)', L.camberFrontViewDeg, R.camberFrontViewDeg, 3);
   row('caster (deg, top rearward +)', L.casterDeg, R.casterDeg);
   row('KPI (deg, top inward +)', L.kpiDeg, R.kpiDeg);
   row('caster / KPI to frame (deg)', L.casterToFrameDeg, R.casterToFrameDeg);

@@ -66,6 +66,7 @@ export function poseColumns(design: ResolvedDesign): Column[] {
       measure(`${s}.selfSteerDeg`, 'deg', (a) => a.selfSteer[`${s}Deg`]),
       measure(`${s}.camberDeg`, 'deg', (a) => w(a).camberDeg),
       measure(`${s}.camberToFrameDeg`, 'deg', (a) => w(a).camberToFrameDeg),
+      measure(`${s}.camberFrontViewDeg`, 'deg', (a) => w(a).camberFrontViewDeg),
       measure(`${s}.casterDeg`, 'deg', (a) => w(a).casterDeg),
       measure(`${s}.kpiDeg`, 'deg', (a) => w(a).kpiDeg),
       measure(`${s}.casterToFrameDeg`, 'deg', (a) => w(a).casterToFrameDeg),

@@ -101,7 +101,7 @@ export function solveSinglePose(
   design: ResolvedDesign,
   request: PoseRequest,
 ): { result: SolveResult; snapshot?: PoseSnapshot; report: PoseReport; text: string } {
-  const mode: PoseMode = { contact: request.contact, steerBy: request.steerBy };
+  const mode: PoseMode = { contact: request.contact, steerBy: request.steerBy, ...(request.hold ? { hold: request.hold } : {}) };
   if (!design.vehicle.tilting && request.leanDeg !== 0) {
     throw new PoseRequestError(`the design does not tilt (vehicle.tilting is false): lean must be 0, found ${request.leanDeg} deg`);
   }
@@ -211,7 +211,11 @@ function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult, label
   const lines = [
     `${design.name}`,
     `pose: lean ${i.leanDeg.toFixed(2)} deg, handlebar ${i.handlebarDeg.toFixed(2)} deg, ` +
-      (rep.mode.contact === 'ground' ? 'tyres on the ground' : `travel R/L ${i.travelRightMm.toFixed(1)}/${i.travelLeftMm.toFixed(1)} mm`),
+      (rep.mode.hold === 'suspension'
+        ? 'suspension held at its design position (steering only)'
+        : rep.mode.contact === 'ground'
+          ? 'tyres on the ground'
+          : `travel R/L ${i.travelRightMm.toFixed(1)}/${i.travelLeftMm.toFixed(1)} mm`),
     statusLine(r),
     ...(rep.ride ? rideLines(rep.ride) : []),
     '',

@@ -89,6 +89,7 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, dr
         row('steer', 'Road-wheel angle (left +)', 'deg', 2, both((w) => w.steerDeg)),
         row('camberGround', 'Camber to ground (top out +)', 'deg', 2, both((w) => w.camberDeg)),
         row('camberFrame', 'Camber to frame', 'deg', 2, both((w) => w.camberToFrameDeg)),
+        row('camberFront', 'Camber, front-view projection', 'deg', 2, both((w) => w.camberFrontViewDeg), { hint: 'the wheel plane as a front-view drawing shows it; the camber rows above are the plane\'s true inclination' }),
         row('caster', 'Caster (top rearward +)', 'deg', 2, both((w) => w.casterDeg)),
         row('kpi', 'Kingpin inclination (top in +)', 'deg', 2, both((w) => w.kpiDeg)),
         row('casterFrame', 'Caster to frame', 'deg', 2, both((w) => w.casterToFrameDeg)),

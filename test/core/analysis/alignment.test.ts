@@ -120,3 +120,25 @@ describe('camber change with steer (Milliken and Milliken, Race Car Vehicle Dyna
     expect(a.wheels.right.camberDeg).toBeLessThan(0); // outer
   });
 });
+
+describe('camber: the wheel plane itself, and its front-view projection beside it', () => {
+  it('steered about a vertical axis, the true camber stays put while the front-view projection follows tan(p) = tan(camber) / cos(steer)', () => {
+    // A wheel of camber g turned by d about the vertical: its spin axis is the design axis
+    // rotated about z, so its inclination from the ground normal stays g; its trace in the
+    // front-view (y-z) plane leans by atan(tan g / cos d) (plane geometry of the rotated axis,
+    // written out here from the Rodrigues rotation above).
+    const doc = kingpinTrike({ armInward: 20 });
+    doc.upright.staticCamberDeg = 2;
+    const design = resolveDoc(doc);
+    for (const steer of [0, 15, 30]) {
+      const { analysis: a } = solveAnalyse(design, { wheelAngleDeg: steer }, { contact: 'travel', steerBy: 'leftWheel' });
+      const w = a.wheels.left;
+      const g = 2 * DEG;
+      const axis = rotate([0, Math.cos(g), -Math.sin(g)], [0, 0, 1], w.steerDeg * DEG);
+      const projected = Math.atan2(-axis[2], Math.hypot(axis[1])) / DEG;
+      expect(w.camberDeg).toBeCloseTo(2, 7);
+      expect(w.camberFrontViewDeg!).toBeCloseTo(projected, 7);
+      expect(w.camberFrontViewDeg!).toBeCloseTo(Math.atan(Math.tan(g) / Math.cos(w.steerDeg * DEG)) / DEG, 7);
+    }
+  });
+});
