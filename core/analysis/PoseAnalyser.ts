@@ -96,7 +96,6 @@ export function frontLift(a: PoseAnalysis, ref: PoseAnalysis): number {
   return a.frameHeaveMm - ref.frameHeaveMm + taken / 2 - contact;
 }
 
-const fmt = (x: number, d = 2) => x.toFixed(d);
 
 function planWheel(w: WheelAlignment, gs: SideGeometry): PlanWheel {
   return { x: w.contactPatchMm.x, y: w.contactPatchMm.y, heading: wheelHeading(gs.spinAxis[0], gs.spinAxis[1]) };

@@ -18,7 +18,6 @@
 import type { Side, Vec2Mm } from '../design/types';
 import type { TurningCircle, XyMm } from './analysisTypes';
 import { axisLineMeetsX, innerWheelDeg, STRAIGHT_AHEAD_DEG, straightAheadReason, type PlanWheel } from './ackermann';
-import { RAD } from './vec3';
 
 export interface PlanTyre extends PlanWheel {
   rollingRadiusMm: number;
