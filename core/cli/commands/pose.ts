@@ -3,8 +3,9 @@ import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
 import { PoseRequestError, solveSinglePose, type PoseRequest } from '../../analysis/solveSinglePose';
+import { parseHold } from './sweep';
 
-export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed KMH) --steer DEG [--travel MM | --on-ground] [--json]
+export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed KMH) --steer DEG [--travel MM | --on-ground | --hold suspension] [--json]
   Solves one pose of the closed linkage and prints every measure, every hardpoint's posed
   position and, per wheel, toe and camber. Without a design it uses the bundled demo.
   --lean DEG          frame roll, positive lowers the right side (leaning into a right turn)
@@ -19,6 +20,10 @@ export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed
                       (positive up; a centre-pivot design takes it on the right wheel)
   --travel-left MM, --travel-right MM   per-side travel (split wishbones)
   --heave MM          frame height change (ignored where ground contact sets it)
+  --hold suspension   steering only, with the wishbones or centre members held at their design
+                      position (as on a jig, to compare with bench measurements): no ground
+                      contact, lean 0, travel 0; takes no --lean, --speed, --travel, --heave
+                      or --on-ground
   --json              machine-readable output
   Exit 0 when solved, 1 when the linkage cannot be assembled there, 2 for bad input.`;
 
@@ -29,8 +34,9 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
   try {
     const args = parseArgs(argv, {
       flags: ['json', 'on-ground'],
-      values: ['lean', 'speed', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel'],
+      values: ['lean', 'speed', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel', 'hold'],
     });
+    const hold = parseHold(args, ['lean', 'speed', 'travel', 'travel-left', 'travel-right', 'heave', 'on-ground']);
     if (args.positionals.length > 1) throw new ArgError(`expected at most one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
     json = args.options.has('json');
@@ -47,7 +53,9 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
       leanDeg: numberOption(args, 'lean', 'degrees', 0),
       handlebarDeg: numberOption(args, 'steer', 'degrees', 0),
       heaveMm: numberOption(args, 'heave', 'mm', 0),
-      contact: travelGiven ? 'travel' : 'ground',
+      // Held, no row of the mechanism reads the contact; travel (all zero) says the tyres are not asked to touch.
+      contact: travelGiven || hold ? 'travel' : 'ground',
+      ...(hold ? { hold } : {}),
       travelRightMm: numberOption(args, 'travel-right', 'mm', travel),
       travelLeftMm: numberOption(args, 'travel-left', 'mm', travel),
       ...(speed !== undefined ? { speedKmh: speed } : {}),

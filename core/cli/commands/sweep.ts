@@ -2,13 +2,13 @@ import { closeSync, openSync, writeSync } from 'node:fs';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
-import { ArgError, parseArgs, rangeOption } from '../args';
+import { ArgError, parseArgs, rangeOption, type ParsedArgs } from '../args';
 // The analysis modules are loaded when the command runs, so other commands start faster.
 import type { SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
 import type { CellValue, Column } from '../../analysis/poseColumns';
 import { VERDICT_ORDER } from '../../analysis/tolerance';
 
-export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --steer A:B:STEP [--travel A:B:STEP] --out FILE.csv|FILE.json
+export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --steer A:B:STEP [--travel A:B:STEP] [--hold suspension] --out FILE.csv|FILE.json
   Solves every pose of the grid lean x handlebar x travel (each range inclusive; an axis left
   out is 0) with one solver stepping warm through neighbouring poses, and writes one row per
   pose with every measure (alignment, steering, Ackermann and scrub, turning circle, joints,
@@ -19,6 +19,9 @@ export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --s
   --travel A:B:STEP   wheel travel, mm, bump positive: with the tyres on the ground the frame
                       is lowered by it (heave = -travel); see --contact
   --contact ground|travel  tyres on the ground (default), or wheel travel held relative to the frame
+  --hold suspension   steering only, with the wishbones or centre members held at their design
+                      position (as on a jig, to compare with bench measurements): no ground
+                      contact, lean 0, travel 0; takes no --lean, --travel or --contact
   --out FILE          .csv (header row of column names with units) or .json (columns, rows,
                       definitions and the caution)
   A progress bar goes to stderr on a terminal; a summary line is always printed.
@@ -70,14 +73,34 @@ export function parseContact(raw: string | true | undefined): SweepContact {
   throw new ArgError(`option --contact: expected ground or travel, found "${String(raw)}"`);
 }
 
+/**
+ * `--hold suspension` (pose and sweep): the wishbones or members held at design, only the
+ * steering moves. Refuses the options that would move the suspension or the frame.
+ */
+export function parseHold(args: ParsedArgs, refused: readonly string[]): 'suspension' | undefined {
+  const raw = args.options.get('hold');
+  if (raw === undefined) return undefined;
+  if (raw !== 'suspension') throw new ArgError(`option --hold: expected suspension, found "${String(raw)}"`);
+  const given = refused.filter((n) => args.options.has(n)).map((n) => `--${n}`);
+  if (given.length > 0) {
+    throw new ArgError(
+      `--hold suspension holds the wishbones or members at their design position and the frame upright ` +
+        `(only the steering moves): it takes no ${given.join(', ')}`,
+    );
+  }
+  return 'suspension';
+}
+
 export async function runSweepCommand(argv: string[], io: CliIo): Promise<number> {
   let axes: SweepAxes;
   let out: string;
   let format: 'csv' | 'json';
   let contact: SweepContact;
+  let hold: 'suspension' | undefined;
   let designPath: string;
   try {
-    const args = parseArgs(argv, { flags: [], values: ['lean', 'steer', 'travel', 'out', 'contact'] });
+    const args = parseArgs(argv, { flags: [], values: ['lean', 'steer', 'travel', 'out', 'contact', 'hold'] });
+    hold = parseHold(args, ['lean', 'travel', 'contact']);
     if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
     axes = {
@@ -92,7 +115,8 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
     if (lower.endsWith('.csv')) format = 'csv';
     else if (lower.endsWith('.json')) format = 'json';
     else throw new ArgError(`option --out: the file name must end in .csv or .json, found "${out}"`);
-    contact = parseContact(args.options.get('contact'));
+    // Held, no row of the mechanism reads the contact; travel (all zero) keeps the frame at design height.
+    contact = hold ? 'travel' : parseContact(args.options.get('contact'));
     const poses = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
     if (poses > MAX_SWEEP_POSES) throw new ArgError(`the grid has ${poses} poses; a sweep takes at most ${MAX_SWEEP_POSES}`);
   } catch (e) {
@@ -104,6 +128,7 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
   const { runSweep, checkAxes, SweepInputError } = await import('../../analysis/sweep');
   const { cellRow, poseColumns } = await import('../../analysis/poseColumns');
   const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');
+  const { PoseEngine } = await import('../../analysis/PoseEngine');
   try {
     checkAxes(design, axes, contact);
   } catch (e) {
@@ -154,7 +179,7 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
       design: loaded.path,
       name: design.name,
       caution: SAFETY_CAUTION,
-      contact,
+      ...(hold ? { hold } : { contact }),
       axes,
       definitions: ANALYSIS_DEFINITIONS,
       columns: columns.map((c) => ({ name: c.name, unit: c.unit })),
@@ -165,7 +190,9 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
   const bar = progressBar(io, 'sweep');
   let summary: SweepSummary;
   try {
-    summary = runSweep(design, axes, { contact, onProgress: (d, t) => bar.update(d, t), progressEvery: 200 }, (cell) => {
+    // Held, the sweep runs on an engine built in that mode (runSweep's own is free to move).
+    const engine = hold ? new PoseEngine(design, { contact, steerBy: 'handlebar', hold }, { findings: false }) : undefined;
+    summary = runSweep(design, axes, { contact, engine, onProgress: (d, t) => bar.update(d, t), progressEvery: 200 }, (cell) => {
       layer[cell.leanIndex * nS + cell.handlebarIndex] = rowText(cell);
       layerCount++;
       if (layerCount === nL * nS) flushLayer();
@@ -176,7 +203,7 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
     bar.end();
     closeSync(fd);
   }
-  io.out(`${design.name}: ${summaryLine(summary)}; wrote ${summary.poses} rows to ${out}\n`);
+  io.out(`${design.name}${hold ? ' (suspension held at its design position)' : ''}: ${summaryLine(summary)}; wrote ${summary.poses} rows to ${out}\n`);
   if (summary.failed > 0) io.out(`${summary.failed} poses could not be assembled (status and message in their rows, no numbers)\n`);
   io.out(SAFETY_CAUTION + '\n');
   return summary.failed > 0 ? EXIT_FAILED : EXIT_OK;

@@ -29,6 +29,13 @@ export interface PoseMode {
   contact: 'ground' | 'travel';
   /** Steer by handlebar angle, or by a target road-wheel angle of one wheel. */
   steerBy: 'handlebar' | 'leftWheel' | 'rightWheel';
+  /**
+   * 'suspension': the wishbones or centre members are held at their design position, as on a
+   * jig (for comparing with bench measurements): no ground contact or travel rows, `contact`
+   * is then ignored, and only the steering moves (with lean and heave at zero the frame stays
+   * put; they still drive it if given). Left out: the suspension moves.
+   */
+  hold?: 'suspension';
 }
 
 export const DEFAULT_MODE: PoseMode = { contact: 'ground', steerBy: 'handlebar' };
@@ -42,9 +49,10 @@ export function bodyIndex(graph: MechanismGraph, id: string): number {
 
 export function buildMechanism(design: ResolvedDesign, mode: PoseMode = DEFAULT_MODE): MechanismGraph & { drawing: DrawingLayout } {
   const b = new MechanismBuilder();
+  const held = mode.hold === 'suspension';
   // A centre-pivot parallelogram couples the sides, leaving one travel for two tyres: with
   // both on the ground the heave is solved to put them there; otherwise it is an input.
-  const heaveFree = design.frontEnd.kind === 'centrePivot' && mode.contact === 'ground';
+  const heaveFree = design.frontEnd.kind === 'centrePivot' && mode.contact === 'ground' && !held;
   const heave = b.addBody('heave', 'heave slide', {
     kind: 'prismatic',
     parent: -1,
@@ -60,7 +68,7 @@ export function buildMechanism(design: ResolvedDesign, mode: PoseMode = DEFAULT_
     driver: { input: 'leanDeg', gain: DEG },
   });
 
-  const suspension = addFrontSuspension(b, design, frame);
+  const suspension = addFrontSuspension(b, design, frame, held);
   const uprights = addUprights(b, design, suspension);
   suspension.drawArms(uprights.outerJoints);
   const handlebarAt = addSteering(b, design, frame, uprights, mode);

@@ -1,11 +1,13 @@
 /**
  * The front suspension's bodies: a wishbone per side and level (split wishbones), or one
  * member per level pivoting at the centre (centre-pivot parallelogram), each on a revolute
- * joint in the frame; with their pivot points and the frame tubes they mount on.
+ * joint in the frame; with their pivot points and the frame tubes they mount on. Held (the
+ * pose mode's `hold: 'suspension'`), each of those joints stays at its design angle.
  */
 
 import type { ResolvedDesign, Side } from '../../design/types';
 import type { DrawingPointRef } from '../drawingLayout';
+import type { InputBinding } from '../MechanismGraph';
 import { SIDES, sub, v, type MechanismBuilder } from './mechanismBuilder';
 
 export type Level = 'upper' | 'lower';
@@ -24,13 +26,21 @@ export interface Suspension {
   drawArms(outer: OuterJoints): void;
 }
 
-export function addFrontSuspension(b: MechanismBuilder, design: ResolvedDesign, frame: number): Suspension {
+/**
+ * A joint held at its design angle: driven at zero gain, so its coordinate is 0 whatever the
+ * input (the graph has no fixed joint kind, and a driven joint is no unknown for the solver).
+ */
+type Hold = { driver?: InputBinding };
+const HELD: Hold = { driver: { input: 'heaveMm', gain: 0 } };
+
+export function addFrontSuspension(b: MechanismBuilder, design: ResolvedDesign, frame: number, held = false): Suspension {
   const fe = design.frontEnd;
   const radius = design.parts.wishboneTubeRadiusMm;
-  return fe.kind === 'splitWishbones' ? addSplitWishbones(b, fe, frame, radius) : addCentreMembers(b, fe, frame, radius);
+  const hold: Hold = held ? HELD : {};
+  return fe.kind === 'splitWishbones' ? addSplitWishbones(b, fe, frame, radius, hold) : addCentreMembers(b, fe, frame, radius, hold);
 }
 
-function addSplitWishbones(b: MechanismBuilder, fe: SplitFrontEnd, frame: number, radius: number): Suspension {
+function addSplitWishbones(b: MechanismBuilder, fe: SplitFrontEnd, frame: number, radius: number, hold: Hold): Suspension {
   const carrier = { right: { upper: -1, lower: -1 }, left: { upper: -1, lower: -1 } };
   const pivots = new Map<string, { front: DrawingPointRef; rear: DrawingPointRef }>();
   for (const side of SIDES) {
@@ -42,6 +52,7 @@ function addSplitWishbones(b: MechanismBuilder, fe: SplitFrontEnd, frame: number
         parent: frame,
         origin: v(w.frontPivot[side]),
         axis: sub(w.frontPivot[side], w.rearPivot[side]),
+        ...hold,
       });
       const front = b.addPoint(`frontEnd.${level}.frontPivot.${side}`, `${label} front pivot`, body, w.frontPivot[side]);
       const rear = b.addPoint(`frontEnd.${level}.rearPivot.${side}`, `${label} rear pivot`, body, w.rearPivot[side]);
@@ -100,7 +111,7 @@ function drawSplitFrame(b: MechanismBuilder, fe: SplitFrontEnd, frame: number, r
   }
 }
 
-function addCentreMembers(b: MechanismBuilder, fe: CentreFrontEnd, frame: number, radius: number): Suspension {
+function addCentreMembers(b: MechanismBuilder, fe: CentreFrontEnd, frame: number, radius: number, hold: Hold): Suspension {
   const carrier = { right: { upper: -1, lower: -1 }, left: { upper: -1, lower: -1 } };
   const members = new Map<Level, { body: number; pivot: DrawingPointRef }>();
   for (const level of LEVELS) {
@@ -110,6 +121,7 @@ function addCentreMembers(b: MechanismBuilder, fe: CentreFrontEnd, frame: number
       parent: frame,
       origin: v(m.pivot),
       axis: v(m.pivotAxis),
+      ...hold,
     });
     const pivot = b.addPoint(`frontEnd.${level}.pivot`, `${level} member centre pivot`, body, m.pivot);
     b.jointAt(pivot, `${level} member centre pivot`, 14);

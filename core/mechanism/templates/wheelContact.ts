@@ -1,7 +1,8 @@
 /**
  * The front wheels on their uprights, and what fixes each wheel's travel: the tyre on the
- * ground, or a travel input per wheel; plus the road-wheel angle target when a wheel's angle,
- * not the handlebar, is the steering input.
+ * ground, or a travel input per wheel (nothing when the suspension is held at design: the held
+ * wishbones or members fix it); plus the road-wheel angle target when a wheel's angle, not the
+ * handlebar, is the steering input.
  */
 
 import type { InputBinding } from '../MechanismGraph';
@@ -32,7 +33,9 @@ export function addFrontWheels(b: MechanismBuilder, design: ResolvedDesign, fram
     b.shows({ kind: 'clearance', part: 'tyre', side }, drawn);
 
     let fixed: string | null = null;
-    if (mode.contact === 'ground') {
+    if (mode.hold === 'suspension') {
+      // Held suspension: a tyre-on-ground or travel row would over-constrain the upright.
+    } else if (mode.contact === 'ground') {
       fixed = b.addConstraint({
         kind: 'groundContact',
         id: `${side}.groundContact`,

@@ -247,3 +247,27 @@ describe('kingpin yoke on a parallelogram with rod-end bolts along the member pi
     });
   });
 });
+
+describe('pure steer with the members held at design (zero lean and travel)', () => {
+  // The wishbones do not move, so the yoke does not either: whatever the steer, a kingpin
+  // design's outer joints stay at their design alignment. The ball joints turn with the
+  // upright about the kingpin axis. (The exact ball-joint value and the road-wheel angle
+  // against an outside rotation are in test/core/analysis/holdSuspension.test.ts.)
+  const HELD: PoseMode = { contact: 'travel', steerBy: 'handlebar', hold: 'suspension' };
+  const steers = [-35, -20, -7, 3, 12, 28, 35].map((handlebarDeg) => ({ handlebarDeg }));
+  const king = solveGrid(withAxis(split, 'kingpin'), HELD, steers);
+  const ball = solveGrid(withAxis(split, 'ballJoints'), HELD, steers);
+
+  it('kingpin: no outer-joint articulation at any steer (to 1e-9 deg); ball joints: some', () => {
+    steers.forEach((p, i) => {
+      for (const side of SIDES) {
+        expect(Math.abs(king[i].snap.wheels[side].steerDeg), 'the wheel is steered').toBeGreaterThan(2);
+        for (const j of ['upperOuter', 'lowerOuter'] as const) {
+          expect(reported(king[i].analysis, j, side), `${side} ${j} at ${p.handlebarDeg}`).toBeLessThan(1e-9);
+          // Loose bound, common practice, no source: the studs lean well off the kingpin axis here.
+          expect(reported(ball[i].analysis, j, side), `${side} ${j} at ${p.handlebarDeg}`).toBeGreaterThan(0.1 * Math.abs(ball[i].snap.wheels[side].steerDeg));
+        }
+      }
+    });
+  });
+});
