@@ -130,10 +130,47 @@ function rowNeighbours(row: (PoseAnalysis | null)[], i: number): PoseRelatives['
 
 const NO_ROW_NEIGHBOURS = 'the sweep has one handlebar value: no neighbouring pose for the local ratio';
 
+/** What the upright pass (zero lean and travel, every handlebar value) gives every row. */
+interface UprightReferences {
+  /** Local ratio upright at each handlebar value: the reference of the ratio change. */
+  ratio: Relative<number>[];
+  /** The turn each handlebar value makes upright (a failed cell's region uses it). */
+  turns: Turn[];
+  /** Road-wheel angles at zero lean, travel and handlebar. */
+  base: Relative<BaseSteer>;
+  solves: number;
+}
+
+const turnAt = (a: PoseAnalysis | null): Turn => (a ? turnOf(a.slip.turnCentreMm?.y ?? null, a.slip.turnRadiusMm) : { side: 'straight' });
+
+/**
+ * The upright pass, ascending along the handlebar, run first on the grid's own solver; its
+ * local ratios come from the same grid spacing as every row's, so the ratio change compares
+ * like with like.
+ */
+function uprightPass(engine: PoseEngine, axes: SweepAxes, contact: SweepContact): UprightReferences {
+  const input = zeroInputs();
+  setTravel(input, contact, 0);
+  const row: (PoseAnalysis | null)[] = axes.handlebarDeg.map((bar) => {
+    input.handlebarDeg = bar;
+    return engine.main.analyse(input);
+  });
+  const ratio = row.map((_, i): Relative<number> => {
+    const n = rowNeighbours(row, i);
+    return 'value' in n ? ratioBetween(n.value.lower, n.value.upper) : { reason: `upright: ${n.reason}` };
+  });
+  const straight = axes.handlebarDeg.indexOf(0);
+  const s = straight >= 0 ? row[straight] : null;
+  const base: Relative<BaseSteer> = s ? { value: { leftDeg: s.wheels.left.steerDeg, rightDeg: s.wheels.right.steerDeg } } : engine.baseSteer();
+  return { ratio, turns: row.map(turnAt), base, solves: row.length };
+}
+
 /**
  * Run a sweep; `onCell` receives every cell once, row by row (a row is one lean and travel,
  * all handlebar values, in ascending handlebar order). The sweep runs on the engine's main
- * solver (given, or made for the design in handlebar mode with the sweep's contact).
+ * solver (given, or made for the design in handlebar mode with the sweep's contact). The pose
+ * loop is written out in one piece with literal objects: it runs per pose, and V8's object
+ * spread and extra closures there cost measurable time.
  */
 export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: SweepOptions, onCell: (cell: SweepCell) => void): SweepSummary {
   const contact = options.contact ?? 'ground';
@@ -149,36 +186,15 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
   const total = nL * nS * nT;
   const every = Math.max(1, options.progressEvery ?? 500);
   const input = zeroInputs();
-  let solves = 0;
-
-  // Upright pass: zero lean and travel, every handlebar value, ascending; its local ratios are
-  // the references of the ratio change, found on the same grid spacing as every row's.
-  const uprightRow: (PoseAnalysis | null)[] = new Array(nS);
-  setTravel(input, contact, 0);
-  for (let s = 0; s < nS; s++) {
-    input.leanDeg = 0;
-    input.handlebarDeg = axes.handlebarDeg[s];
-    uprightRow[s] = grid.analyse(input);
-    solves++;
-  }
-  const uprightRatio: Relative<number>[] = uprightRow.map((_, i) => {
-    const n = rowNeighbours(uprightRow, i);
-    return 'value' in n ? ratioBetween(n.value.lower, n.value.upper) : { reason: `upright: ${n.reason}` };
-  });
-  const turnAt = (a: PoseAnalysis | null): Turn => (a ? turnOf(a.slip.turnCentreMm?.y ?? null, a.slip.turnRadiusMm) : { side: 'straight' });
-  const uprightTurns = uprightRow.map(turnAt);
+  const upright = uprightPass(engine, axes, contact);
+  let solves = upright.solves;
   const tilting = design.vehicle.tilting;
   // A cell's region from the turn it makes; a cell that failed takes the upright turn of its handlebar.
   const regionOf = (lean: number, a: PoseAnalysis | null, si: number): RegionVerdict =>
-    inRidingRegion(lean, a ? turnAt(a) : uprightTurns[si], design.riding, tilting);
-  let inRegion = 0;
+    inRidingRegion(lean, a ? turnAt(a) : upright.turns[si], design.riding, tilting);
   const straight = axes.handlebarDeg.indexOf(0);
-  const base: Relative<BaseSteer> =
-    straight >= 0 && uprightRow[straight]
-      ? { value: { leftDeg: uprightRow[straight]!.wheels.left.steerDeg, rightDeg: uprightRow[straight]!.wheels.right.steerDeg } }
-      : engine.baseSteer();
-
   const counts = emptyCounts();
+  let inRegion = 0;
   let solved = 0;
   let failed = 0;
   let done = 0;
@@ -200,7 +216,6 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
         setTravel(input, contact, travel);
         const r = grid.solve(input);
         solves++;
-        // Literal objects, no spread: V8's spread-with-extra-keys is slow and this runs per pose.
         if (r.reached) {
           // Judged below, once the row's neighbours are in (completeMeasures).
           const analysis = grid.analyser.analyse(r, false);
@@ -216,19 +231,13 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
         done++;
         if (options.onProgress && done % every === 0) options.onProgress(done, total);
       }
-      let straightRel: PoseRelatives['straight'];
-      if (straight >= 0) {
-        const p = rowAnalyses[straight];
-        straightRel = p ? { value: p } : { reason: 'the straight-ahead pose of this lean and travel could not be solved' };
-      } else {
-        straightRel = engine.straightAt(input);
-        solves++;
-      }
+      if (straight < 0) solves++;
+      const straightRel = straight >= 0 ? straightCell(rowAnalyses[straight]) : engine.straightAt(input);
       for (let si = 0; si < nS; si++) {
         const c = rowCells[si];
         if (c.region.inside) inRegion++;
         if (c.ok) {
-          const rel: PoseRelatives = { neighbours: rowNeighbours(rowAnalyses, si), straight: straightRel, base, uprightLocalRatio: uprightRatio[si] };
+          const rel: PoseRelatives = { neighbours: rowNeighbours(rowAnalyses, si), straight: straightRel, base: upright.base, uprightLocalRatio: upright.ratio[si] };
           completeMeasures(c.analysis, rel, tol, words);
           solved++;
           counts[c.analysis.status]++;
@@ -241,8 +250,11 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
     }
   }
   if (options.onProgress && done % every !== 0) options.onProgress(done, total);
-  return { poses: total, solved, failed, byStatus: counts, solves, inRegion, uprightTurns, elapsedMs: Date.now() - t0 };
+  return { poses: total, solved, failed, byStatus: counts, solves, inRegion, uprightTurns: upright.turns, elapsedMs: Date.now() - t0 };
 }
+
+const straightCell = (p: PoseAnalysis | null): PoseRelatives['straight'] =>
+  p ? { value: p } : { reason: 'the straight-ahead pose of this lean and travel could not be solved' };
 
 /**
  * Axes covering a design's envelope: lean -L..L, handlebar -H..H, travel -rebound..bump
