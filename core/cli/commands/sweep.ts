@@ -9,6 +9,10 @@ import type { CellValue, Column } from '../../analysis/poseColumns';
 import { VERDICT_ORDER } from '../../analysis/tolerance';
 
 export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --steer A:B:STEP [--travel A:B:STEP] [--hold suspension] --out FILE.csv|FILE.json
+       tiltbench sweep <design.tiltsheet> --speed A:B:STEP --steer A:B:STEP --out FILE.csv|FILE.json
+  With --speed (km/h) instead of --lean: the ride sweep, each pose at the lean that balances
+  the turn it makes at that speed (tan(lean) = v^2 / (g R)); rows add the speed, the balance
+  residual (deg) and the lateral acceleration (g) before the usual columns.
   Solves every pose of the grid lean x handlebar x travel (each range inclusive; an axis left
   out is 0) with one solver stepping warm through neighbouring poses, and writes one row per
   pose with every measure (alignment, steering, Ackermann and scrub, turning circle, joints,
@@ -92,6 +96,14 @@ export function parseHold(args: ParsedArgs, refused: readonly string[]): 'suspen
 }
 
 export async function runSweepCommand(argv: string[], io: CliIo): Promise<number> {
+  // A speed instead of a lean: the ride sweep, each pose at its balanced lean.
+  if (argv.some((a) => a === '--speed' || a.startsWith('--speed='))) {
+    if (argv.some((a) => a === '--hold' || a.startsWith('--hold='))) {
+      return reportArgError(new ArgError('--hold suspension steers on a jig: it takes no --speed'), io, 'sweep', sweepHelp);
+    }
+    const { runRideSweepCommand } = await import('./rideSweepCommand');
+    return runRideSweepCommand(argv, io);
+  }
   let axes: SweepAxes;
   let out: string;
   let format: 'csv' | 'json';

@@ -1,0 +1,120 @@
+/**
+ * `tiltbench sweep --speed A:B:STEP --steer A:B:STEP`: the ride sweep (core/analysis/
+ * rideSweep.ts), each pose at the lean that balances its turn at that speed. Rows carry the
+ * speed, the balance residual and the lateral acceleration before the usual pose columns (the
+ * lean column holds the balanced lean found).
+ */
+import { closeSync, openSync, writeSync } from 'node:fs';
+import type { CliIo } from '../io';
+import { loadDesignOrReport, reportArgError } from '../commandSupport';
+import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { ArgError, parseArgs, rangeOption } from '../args';
+import type { RideAxes, RideCell, RideSweepSummary } from '../../analysis/rideSweep';
+import type { CellValue } from '../../analysis/poseColumns';
+import { parseContact, progressBar, sweepHelp } from './sweep';
+
+/** Largest ride grid (poses): each pose takes a few solves to find its balance. */
+export const MAX_RIDE_POSES = 20_000;
+
+const round6 = (v: CellValue): CellValue => (typeof v === 'number' ? Math.round(v * 1e6) / 1e6 : v);
+
+function csvValue(v: CellValue): string {
+  if (v === null) return '';
+  if (typeof v === 'number') return String(round6(v));
+  return /[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
+}
+
+export async function runRideSweepCommand(argv: string[], io: CliIo): Promise<number> {
+  let axes: RideAxes;
+  let out: string;
+  let format: 'csv' | 'json';
+  let designPath: string;
+  let contact: ReturnType<typeof parseContact>;
+  try {
+    const args = parseArgs(argv, { flags: [], values: ['speed', 'steer', 'out', 'contact', 'lean', 'travel'] });
+    if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
+    designPath = args.positionals[0];
+    if (args.options.has('lean')) throw new ArgError('give either --lean or --speed, not both (the speed sets the lean)');
+    if (args.options.has('travel')) throw new ArgError('--speed sweeps ride at design travel: leave out --travel');
+    const speed = rangeOption(args, 'speed', 'km/h');
+    const steer = rangeOption(args, 'steer', 'degrees');
+    if (!speed || !steer) throw new ArgError('a ride sweep needs both --speed A:B:STEP (km/h) and --steer A:B:STEP (degrees)');
+    if (speed.some((v) => v < 0)) throw new ArgError('option --speed: speeds must be 0 km/h or more');
+    if (speed.length * steer.length > MAX_RIDE_POSES) {
+      throw new ArgError(`${speed.length * steer.length} poses is too many for a ride sweep (at most ${MAX_RIDE_POSES}): widen a STEP`);
+    }
+    axes = { speedKmh: speed, handlebarDeg: steer };
+    const o = args.options.get('out');
+    if (typeof o !== 'string') throw new ArgError('option --out FILE.csv|FILE.json is required');
+    out = o;
+    if (/\.csv$/i.test(out)) format = 'csv';
+    else if (/\.json$/i.test(out)) format = 'json';
+    else throw new ArgError(`option --out: expected a .csv or .json file, found "${out}"`);
+    contact = parseContact(args.options.get('contact'));
+  } catch (e) {
+    return reportArgError(e, io, 'sweep', sweepHelp);
+  }
+  const loaded = loadDesignOrReport(designPath, io);
+  if (!loaded) return EXIT_BAD_INPUT;
+  const design = loaded.design;
+  if (contact === 'travel' && design.frontEnd.kind === 'centrePivot') {
+    io.err('tiltbench sweep: a ride sweep puts the tyres on the ground (leave out --contact travel)\n');
+    return EXIT_BAD_INPUT;
+  }
+  const { runRideSweep } = await import('../../analysis/rideSweep');
+  const { cellRow, poseColumns } = await import('../../analysis/poseColumns');
+  const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');
+  const columns = poseColumns(design);
+  const head = [
+    { name: 'speedKmh', unit: 'km/h' },
+    { name: 'balanceResidualDeg', unit: 'deg' },
+    { name: 'lateralG', unit: 'g' },
+    { name: 'rideNotes', unit: '' },
+    ...columns.map((c) => ({ name: c.name, unit: c.unit })),
+  ];
+  const values = (r: RideCell): CellValue[] => [r.speedKmh, r.balanceResidualDeg, r.lateralG, r.notes.join('; '), ...cellRow(columns, r.cell)];
+  let fd: number;
+  try {
+    fd = openSync(out, 'w');
+  } catch (e) {
+    io.err(`tiltbench sweep: cannot write ${out}: ${(e as Error).message}\n`);
+    return EXIT_BAD_INPUT;
+  }
+  const write = (t: string) => writeSync(fd, t);
+  let first = true;
+  const emit = (r: RideCell) => {
+    if (format === 'csv') write(values(r).map(csvValue).join(',') + '\n');
+    else {
+      write((first ? '\n    ' : ',\n    ') + JSON.stringify(values(r).map(round6)));
+      first = false;
+    }
+  };
+  if (format === 'csv') write(head.map((h) => csvValue(h.name)).join(',') + '\n');
+  else {
+    const text = JSON.stringify({ tiltbench: 'ride sweep', design: loaded.path, name: design.name, caution: SAFETY_CAUTION, axes, riding: design.riding, definitions: ANALYSIS_DEFINITIONS, columns: head }, null, 2);
+    write(text.slice(0, text.lastIndexOf('}')).trimEnd() + ',\n  "rows": [');
+  }
+  const bar = progressBar(io, 'ride sweep');
+  let summary: RideSweepSummary;
+  // Rows come serpentine along the handlebar; each speed's row is written in ascending order.
+  let row: RideCell[] = [];
+  try {
+    summary = runRideSweep(design, axes, { contact, onProgress: (d, t) => bar.update(d, t) }, (cell) => {
+      row[cell.cell.handlebarIndex] = cell;
+      if (row.filter(Boolean).length === axes.handlebarDeg.length) {
+        row.forEach(emit);
+        row = [];
+      }
+    });
+    if (format === 'json') write(`\n  ],\n  "summary": ${JSON.stringify(summary)}\n}\n`);
+  } finally {
+    bar.end();
+    closeSync(fd);
+  }
+  io.out(
+    `${design.name}: ${summary.poses} ride poses (${summary.solved} solved, ${summary.failed} not assembled, ${summary.unbalanced} without a balance inside the lean limit) ` +
+      `in ${(summary.elapsedMs / 1000).toFixed(2)} s; wrote ${summary.poses} rows to ${out}\n`,
+  );
+  io.out(SAFETY_CAUTION + '\n');
+  return summary.failed > 0 ? EXIT_FAILED : EXIT_OK;
+}
