@@ -9,14 +9,16 @@ import type { MechanismGraph } from '../../core/mechanism/MechanismGraph';
 import type { SolveStatus } from '../../core/solver/PoseSolver';
 import type { PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import type { PoseAnalysis } from '../../core/analysis/analysisTypes';
-import { PoseEngine } from '../../core/analysis/PoseEngine';
+import { PoseEngine, type EnginePose } from '../../core/analysis/PoseEngine';
+import { solveRide } from '../../core/analysis/ridePose';
 import type { Verdict } from '../../core/analysis/tolerance';
 import type { Severity } from './severity';
 import { toCoreInputs, type Contact, type PoseUi } from './poseInputs';
 import { describePose } from './readoutTables';
+import { rideTable, type RideFigures } from './rideReadout';
 import { emptyDrawing } from '../../core/mechanism/drawingLayout';
 
-export type Unit = 'mm' | 'deg' | '%' | 'm/km' | 'mm/mm' | 'deg/deg' | '';
+export type Unit = 'mm' | 'deg' | '%' | 'm/km' | 'mm/mm' | 'deg/deg' | 'km/h' | 'g' | '';
 
 export interface ReadoutCell {
   value: number | null;
@@ -75,6 +77,8 @@ export interface PoseOutcome {
   iterations: number;
   residualMm: number | null;
   solveMs: number;
+  /** In ride mode: the speed, the balanced lean core found for it and how well it balances. */
+  ride?: RideFigures;
 }
 
 /** Which mechanism body carries each named point, and where it sits at design. */
@@ -119,7 +123,33 @@ export class PoseSession {
    */
   solve(pose: PoseUi, detail = true): PoseOutcome {
     const t0 = performance.now();
-    const { result, analysis, snapshot, shown } = this.engine.solve(toCoreInputs(pose), { relatives: detail });
+    return this.describe(this.engine.solve(toCoreInputs(pose), { relatives: detail }), t0);
+  }
+
+  /**
+   * Ride mode: the pose a rider reaches at `speedKmh` with the handlebar (and travel) of
+   * `pose`; core finds the balanced lean (the lean of `pose` is ignored). The outcome's
+   * `ride` carries the speed, the lean found, the balance residual and the lateral g, and the
+   * readouts gain a table of them.
+   */
+  solveRide(pose: PoseUi, speedKmh: number, detail = true): PoseOutcome & { ride: RideFigures } {
+    const t0 = performance.now();
+    const r = solveRide(this.engine, speedKmh, toCoreInputs(pose), detail);
+    const ride: RideFigures = {
+      speedKmh: r.speedKmh,
+      leanDeg: r.leanDeg,
+      balancedLeanDeg: r.balancedLeanDeg,
+      balanceResidualDeg: r.balanceResidualDeg,
+      lateralG: r.lateralG,
+      steps: r.steps,
+      notes: r.notes,
+      tilting: this.design.vehicle.tilting,
+    };
+    const outcome = this.describe(r.pose, t0);
+    return { ...outcome, tables: [rideTable(ride, this.design.riding), ...outcome.tables], ride };
+  }
+
+  private describe({ result, analysis, snapshot, shown }: EnginePose, t0: number): PoseOutcome {
     return describePose(this.design, this.layout, this.engine.graph.drawing ?? emptyDrawing(), {
       status: result.status,
       reached: result.reached,

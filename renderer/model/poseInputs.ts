@@ -2,7 +2,7 @@
  * The pose the user sets with the sliders, and the ranges the sliders span (from the design's
  * envelope). Pure reshaping into core's `PoseInputs`.
  */
-import type { DesignFile } from '../../core/design/types';
+import type { DesignFile, Riding } from '../../core/design/types';
 import { zeroInputs, type PoseInputs } from '../../core/mechanism/MechanismGraph';
 
 export type Contact = 'ground' | 'travel';
@@ -66,6 +66,16 @@ export function sliderRanges(d: DesignFile, contact: Contact): Record<PoseField,
     Object.assign(travelL, { enabled: false, disabledReason: 'the centre members couple the sides: the right wheel sets both' });
   }
   return { leanDeg: lean, handlebarDeg: span(e.handlebarDeg, e.handlebarDeg, 0.5), heaveMm: heave, travelRightMm: travelR, travelLeftMm: travelL };
+}
+
+/**
+ * The ride mode's speed slider: 0 to a fifth past the riding range's top (at least 10 km/h),
+ * the riding range marked on the track. Disabled while the design is invalid (no riding block
+ * resolved).
+ */
+export function rideSpeedRange(riding: Riding | null): SliderRange {
+  if (!riding) return { min: 0, max: 10, step: 0.5, envelopeMin: 0, envelopeMax: 0, enabled: false, disabledReason: 'the design has errors; fix them to ride' };
+  return { min: 0, max: Math.max(riding.maxKmh * 1.2, 10), step: 0.5, envelopeMin: riding.minKmh, envelopeMax: riding.maxKmh, enabled: true };
 }
 
 export const POSE_LABELS: Record<PoseField, { label: string; unit: 'deg' | 'mm'; hint: string }> = {

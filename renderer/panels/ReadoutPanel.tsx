@@ -3,6 +3,7 @@ import { usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { useThrottledSlice } from '../app/useThrottled';
 import type { ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
+import { RIDE_TABLE_ID } from '../model/rideReadout';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
 
 /** While the pose moves continuously, the readings repaint at most this often, ms. */
@@ -26,7 +27,7 @@ function Sev({ s }: { s: Severity | undefined }) {
   );
 }
 
-const OPEN_TABLES = new Set(['wheel', 'joints', 'overall']);
+const OPEN_TABLES = new Set([RIDE_TABLE_ID, 'wheel', 'joints', 'overall']);
 
 function cellTestId(table: ReadoutTable, r: ReadoutRow, i: number): string {
   return table.columns.length === 1 ? `readout-${r.id}` : `readout-${r.id}-${table.columns[i].toLowerCase()}`;

@@ -38,12 +38,16 @@ export class PlaybackController {
     return this.wb.ui.getState().playback;
   }
 
-  /** The amplitudes of lean and handlebar for a mode, from the design's envelope. */
+  /**
+   * The amplitudes of lean and handlebar for a mode, from the design's envelope. In ride mode
+   * the lean follows the handlebar, so whatever the mode, the handlebar is swept.
+   */
   private amplitudes(mode: PlaybackMode): { lean: number; steer: number } {
     const design = this.wb.document.getState().design;
+    const riding = this.wb.pose.getState().ride.on;
     const e = design.envelope;
-    const lean = design.vehicle.tilting && mode !== 'steer' ? Math.max(1, e.leanDeg) : 0;
-    const steer = mode !== 'lean' ? Math.max(1, e.handlebarDeg) : 0;
+    const lean = design.vehicle.tilting && mode !== 'steer' && !riding ? Math.max(1, e.leanDeg) : 0;
+    const steer = mode !== 'lean' || riding ? Math.max(1, e.handlebarDeg) : 0;
     return { lean, steer };
   }
 

@@ -16,7 +16,7 @@ import type { Contact, PoseUi } from '../model/poseInputs';
 import type { SweepClient } from '../workers/sweepClient';
 import { createDocumentStore, DocumentEditor, type DocInfo, type DocumentState, type DocumentStore } from './documentStore';
 import { Jobs } from './jobsStore';
-import { PoseView, type PoseState, type PoseStore } from './poseStore';
+import { PoseView, type PoseState, type PoseStore, type RideUi } from './poseStore';
 import { createUiStore, type Notice, type RecoveryOffer, type UiState, type UiStore } from './uiStore';
 
 export interface WorkbenchActions {
@@ -27,6 +27,8 @@ export interface WorkbenchActions {
   redo(): boolean;
   /** Set pose inputs and solve. `quick` (playback) skips the measures that need extra solves. */
   setPose(change: Partial<Omit<PoseUi, 'contact'>>, quick?: boolean): void;
+  /** Switch ride mode (speed and handlebar; the lean follows the balanced turn) or set its speed. */
+  setRide(change: Partial<RideUi>, quick?: boolean): void;
   setContact(contact: Contact): void;
   resetPose(): void;
   select(id: string | null): void;
@@ -99,6 +101,7 @@ function workbenchActions(editor: DocumentEditor, view: PoseView, ui: UiStore): 
     undo: () => editor.undo(),
     redo: () => editor.redo(),
     setPose: (change, quick) => view.setPose(change, quick),
+    setRide: (change, quick) => view.setRide(change, quick),
     setContact: (contact) => view.setContact(contact),
     resetPose: () => view.resetPose(),
     select(id) {
