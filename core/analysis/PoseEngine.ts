@@ -128,9 +128,10 @@ export class PoseEngine {
     return { ...m.currentInputs, ...m.reportedInputs(), wheelAngleDeg: 0 };
   }
 
-  /** A solver steered by the handlebar with the same contact as the main one. */
+  /** A solver steered by the handlebar with the same contact (and hold) as the main one. */
   private handlebarSolver(): WarmSolver {
-    return new WarmSolver(this.design, buildMechanism(this.design, { contact: this.mode.contact, steerBy: 'handlebar' }), false);
+    const mode: PoseMode = { contact: this.mode.contact, steerBy: 'handlebar', ...(this.mode.hold ? { hold: this.mode.hold } : {}) };
+    return new WarmSolver(this.design, buildMechanism(this.design, mode), false);
   }
 
   private notWhilePlaying(): PoseRelatives {

@@ -37,7 +37,8 @@ export const ANALYSIS_DEFINITIONS = {
   motionRatio: 'spring length change per wheel-centre travel, steering held; positive when the spring shortens as the wheel rises',
   frontLift:
     'how far the front would rise, relative to straight ahead at the same lean and travel, with the suspension held: heave change + mean suspension travel taken up (lower-joint travel x wheel-per-joint ratio) - mean contact-height change; positive lifts',
-  joints: 'articulation: angle between housing axis and stud or bolt axis (both along studAxis at design); margin = rated - articulation',
+  joints:
+    'articulation: angle between housing axis and stud or bolt axis (both along studAxis at design); margin = rated - articulation; upper and lower outer joints: stud in the upright, or with a kingpin in the yoke the upright turns in (yoke to wishbone or member, no steering component)',
   tieRodSpin: TIE_ROD_SPIN_TREATMENT,
   clearance: 'surface-to-surface distance of capsules (wishbone arms, frame rails, tie rods, steering arms, crank arms or rack) and the tyre torus; negative = intersecting',
   close: `a measure is close once it has used ${WARNING_FRACTION * 100} % of what its tolerance allows`,
