@@ -33,6 +33,7 @@ import { takeSnapshot } from '../../../core/analysis/poseSnapshot';
 import { solveSinglePose } from '../../../core/analysis/solveSinglePose';
 import { curve, CURVE_KINDS } from '../../../core/analysis/curves';
 import { steerLimits } from '../../../core/analysis/limits';
+import { runRideSweep } from '../../../core/analysis/rideSweep';
 import { cellRow, nullReasons, poseColumns } from '../../../core/analysis/poseColumns';
 import { loadDemos } from './demoDesigns';
 import { nearDesignArb, plausibleDesignArb, wildDesignArb, type GeneratedDesign } from './designArbitraries';
@@ -43,7 +44,7 @@ const tally = new FigureTally('analysis');
 afterAll(() => tally.write());
 
 /** Modules this file calls directly; everything they import is reached too. */
-const ENTRY_MODULES = ['PoseAnalyser', 'sweep', 'envelopeMap', 'designCheck', 'poseSnapshot', 'solveSinglePose', 'curves', 'limits', 'poseColumns'];
+const ENTRY_MODULES = ['PoseAnalyser', 'sweep', 'envelopeMap', 'designCheck', 'poseSnapshot', 'solveSinglePose', 'curves', 'limits', 'poseColumns', 'rideSweep'];
 const SWEEPERS = ['runSweep', 'envelopeMap', 'checkDesign', 'curve', 'steerLimits'] as const;
 
 function accepted(g: GeneratedDesign): ResolvedDesign | undefined {
@@ -189,9 +190,15 @@ describe('analysis outputs on fuzzed designs: finite numbers or null with a reas
           const out = solveSinglePose(design, request);
           expect(nonFiniteIn(out.report), `${d.file} ${contact}/${steerBy}`).toEqual([]);
           expect(nonFiniteIn(out.text)).toEqual([]);
-          // The ride input (a speed instead of a lean) likewise.
+          // The ride input (a speed instead of a lean) likewise, one pose and a small ride sweep.
           const ride = solveSinglePose(design, { ...request, leanDeg: 0, speedKmh: 25 });
           expect(nonFiniteIn(ride.report), `${d.file} ${contact}/${steerBy} at 25 km/h`).toEqual([]);
+          if (contact === 'ground' && steerBy === 'handlebar') {
+            const cells: unknown[] = [];
+            const summary = runRideSweep(design, { speedKmh: [0, 20, 60], handlebarDeg: [-20, 0, 20] }, {}, (c) => cells.push(c));
+            expect(cells.length).toBe(summary.poses);
+            expect(nonFiniteIn(cells, `${d.file} ride sweep`)).toEqual([]);
+          }
         }
       }
     }

@@ -101,7 +101,7 @@ describe('tiltbench on fuzzed design files', () => {
         const loaded = parseDesignText(text, file);
         expect(loaded.ok).toBe(true);
         if (loaded.ok) {
-          const request = { contact: travel ? 'travel' : 'ground', steerBy: 'handlebar', leanDeg: lean, handlebarDeg: steer, heaveMm: 0, travelRightMm: travel ? 20 : 0, travelLeftMm: travel ? 20 : 0, wheelAngleDeg: 0 } as const;
+          const request = { contact: travel ? 'travel' : 'ground', steerBy: 'handlebar', leanDeg: tilts ? lean : 0, handlebarDeg: steer, heaveMm: 0, travelRightMm: travel ? 20 : 0, travelLeftMm: travel ? 20 : 0, wheelAngleDeg: 0 } as const;
           const report = solveSinglePose(resolveDesign(loaded.design), request).report;
           expect(nonFiniteIn(report, 'report'), label).toEqual([]);
           expect(report.status).toBe(status);
