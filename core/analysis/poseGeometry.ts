@@ -109,6 +109,125 @@ function lineFoot(p: Vec3, o: Vec3, axis: Vec3): Vec3 {
   return addScaled(o, u, dot(sub(p, o), u));
 }
 
+/** What a side's geometry is read from: bodies, design points and directions in their bodies. */
+function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side): SideRefs {
+  const fe = design.frontEnd;
+  const st = design.steering;
+  const upright = bodyIndex(graph, `${side}.upright`);
+  // A kingpin upright turns in its yoke; the outer joints hold the yoke, so they do not see the steering.
+  const yoke = graph.bodies.findIndex((b) => b.id === `${side}.yoke`);
+  const split = fe.kind === 'splitWishbones';
+  const upperCarrier = bodyIndex(graph, split ? `${side}.upperWishbone` : 'upperMember');
+  const lowerCarrier = bodyIndex(graph, split ? `${side}.lowerWishbone` : 'lowerMember');
+  const U = v(fe.upper.outerJoint[side]);
+  const L = v(fe.lower.outerJoint[side]);
+  const A = v(design.upright.steeringArmJoint[side]);
+  const I = v(st.tieRodJoint[side]);
+  let upperPivot: Vec3, upperPivotAxis: Vec3, lowerPivot: Vec3, lowerPivotAxis: Vec3;
+  let upperArmInner: Vec3, lowerArmInner: Vec3;
+  let upperRail: [Vec3, Vec3] | null = null;
+  let lowerRail: [Vec3, Vec3] | null = null;
+  if (fe.kind === 'splitWishbones') {
+    const uf = v(fe.upper.frontPivot[side]), ur = v(fe.upper.rearPivot[side]);
+    const lf = v(fe.lower.frontPivot[side]), lr = v(fe.lower.rearPivot[side]);
+    upperPivot = uf;
+    upperPivotAxis = normalize(sub(uf, ur));
+    lowerPivot = lf;
+    lowerPivotAxis = normalize(sub(lf, lr));
+    upperArmInner = [(uf[0] + ur[0]) / 2, (uf[1] + ur[1]) / 2, (uf[2] + ur[2]) / 2];
+    lowerArmInner = [(lf[0] + lr[0]) / 2, (lf[1] + lr[1]) / 2, (lf[2] + lr[2]) / 2];
+    upperRail = [uf, ur];
+    lowerRail = [lf, lr];
+  } else {
+    upperPivot = v(fe.upper.pivot);
+    upperPivotAxis = normalize(v(fe.upper.pivotAxis));
+    lowerPivot = v(fe.lower.pivot);
+    lowerPivotAxis = normalize(v(fe.lower.pivotAxis));
+    upperArmInner = upperPivot;
+    lowerArmInner = lowerPivot;
+  }
+  const wheel = graph.wheels.find((w) => w.side === side);
+  if (!wheel) throw new Error(`mechanism "${graph.name}" has no ${side} wheel`);
+  const crankFoot = st.kind === 'rack' ? null : lineFoot(I, v(st.pivot), v(st.axis));
+  const spring = design.spring;
+  const j = design.joints;
+  return {
+    upright,
+    outerStudBody: yoke >= 0 ? yoke : upright,
+    upperCarrier,
+    lowerCarrier,
+    upperJoint: U,
+    lowerJoint: L,
+    armJoint: A,
+    innerJoint: I,
+    wheelCentre: wheel.centre,
+    spinAxis: wheel.spinAxis,
+    upperPivot,
+    upperPivotAxis,
+    lowerPivot,
+    lowerPivotAxis,
+    upperArmInner,
+    lowerArmInner,
+    upperRail,
+    lowerRail,
+    armFoot: lineFoot(A, L, sub(U, L)),
+    crankFoot,
+    springFrame: spring ? v(spring.frameMount[side]) : null,
+    springArm: spring ? v(spring.armMount[side]) : null,
+    springBody: spring ? (spring.on === 'upper' ? upperCarrier : lowerCarrier) : -1,
+    studUpper: normalize(v(j.upperOuter.studAxis[side])),
+    studLower: normalize(v(j.lowerOuter.studAxis[side])),
+    studTieOuter: normalize(v(j.tieRodOuter.studAxis[side])),
+    studTieInner: normalize(v(j.tieRodInner.studAxis[side])),
+  };
+}
+
+/** The reader's scratch, shaped once so each read only overwrites numbers. */
+function emptyGeometry(sides: Record<Side, SideRefs>, steerKind: 'revolute' | 'prismatic', dragLink: boolean): PoseGeometry {
+  const v3 = (): Vec3 => [0, 0, 0];
+  const side = (sd: Side): SideGeometry => {
+    const r = sides[sd];
+    return {
+      side: sd,
+      upperJoint: v3(),
+      lowerJoint: v3(),
+      armJoint: v3(),
+      innerJoint: v3(),
+      wheelCentre: v3(),
+      spinAxis: v3(),
+      upperPivot: v3(),
+      upperPivotAxis: v3(),
+      lowerPivot: v3(),
+      lowerPivotAxis: v3(),
+      upperArmInner: v3(),
+      lowerArmInner: v3(),
+      upperRail: r.upperRail ? [v3(), v3()] : null,
+      lowerRail: r.lowerRail ? [v3(), v3()] : null,
+      armFoot: v3(),
+      crankFoot: r.crankFoot ? v3() : null,
+      springFrame: r.springFrame ? v3() : null,
+      springArm: r.springArm ? v3() : null,
+      upperStud: v3(),
+      upperHousing: v3(),
+      lowerStud: v3(),
+      lowerHousing: v3(),
+      tieOuterStud: v3(),
+      tieInnerStud: v3(),
+    };
+  };
+  return {
+    frameX: v3(),
+    frameY: v3(),
+    frameUp: v3(),
+    frameOrigin: v3(),
+    steerAxis: v3(),
+    steerKind,
+    dragLink: dragLink ? { crankArm: v3(), crankFoot: v3(), columnArm: v3() } : null,
+    left: side('left'),
+    right: side('right'),
+  };
+}
+
 export class GeometryReader {
   readonly graph: MechanismGraph;
   readonly frame: number;
@@ -128,78 +247,8 @@ export class GeometryReader {
     const steerJoint = graph.joints[this.steerBody];
     this.steerKind = steerJoint.kind === 'prismatic' ? 'prismatic' : 'revolute';
     this.steerAxisDesign = normalize(steerJoint.axis);
-    const fe = design.frontEnd;
     const st = design.steering;
-    const make = (side: Side): SideRefs => {
-      const upright = bodyIndex(graph, `${side}.upright`);
-      // A kingpin upright turns in its yoke; the outer joints hold the yoke, so they do not see the steering.
-      const yoke = graph.bodies.findIndex((b) => b.id === `${side}.yoke`);
-      const split = fe.kind === 'splitWishbones';
-      const upperCarrier = bodyIndex(graph, split ? `${side}.upperWishbone` : 'upperMember');
-      const lowerCarrier = bodyIndex(graph, split ? `${side}.lowerWishbone` : 'lowerMember');
-      const U = v(fe.upper.outerJoint[side]);
-      const L = v(fe.lower.outerJoint[side]);
-      const A = v(design.upright.steeringArmJoint[side]);
-      const I = v(st.tieRodJoint[side]);
-      let upperPivot: Vec3, upperPivotAxis: Vec3, lowerPivot: Vec3, lowerPivotAxis: Vec3;
-      let upperArmInner: Vec3, lowerArmInner: Vec3;
-      let upperRail: [Vec3, Vec3] | null = null;
-      let lowerRail: [Vec3, Vec3] | null = null;
-      if (fe.kind === 'splitWishbones') {
-        const uf = v(fe.upper.frontPivot[side]), ur = v(fe.upper.rearPivot[side]);
-        const lf = v(fe.lower.frontPivot[side]), lr = v(fe.lower.rearPivot[side]);
-        upperPivot = uf;
-        upperPivotAxis = normalize(sub(uf, ur));
-        lowerPivot = lf;
-        lowerPivotAxis = normalize(sub(lf, lr));
-        upperArmInner = [(uf[0] + ur[0]) / 2, (uf[1] + ur[1]) / 2, (uf[2] + ur[2]) / 2];
-        lowerArmInner = [(lf[0] + lr[0]) / 2, (lf[1] + lr[1]) / 2, (lf[2] + lr[2]) / 2];
-        upperRail = [uf, ur];
-        lowerRail = [lf, lr];
-      } else {
-        upperPivot = v(fe.upper.pivot);
-        upperPivotAxis = normalize(v(fe.upper.pivotAxis));
-        lowerPivot = v(fe.lower.pivot);
-        lowerPivotAxis = normalize(v(fe.lower.pivotAxis));
-        upperArmInner = upperPivot;
-        lowerArmInner = lowerPivot;
-      }
-      const wheel = graph.wheels.find((w) => w.side === side);
-      if (!wheel) throw new Error(`mechanism "${graph.name}" has no ${side} wheel`);
-      const crankFoot = st.kind === 'rack' ? null : lineFoot(I, v(st.pivot), v(st.axis));
-      const spring = design.spring;
-      const j = design.joints;
-      return {
-        upright,
-        outerStudBody: yoke >= 0 ? yoke : upright,
-        upperCarrier,
-        lowerCarrier,
-        upperJoint: U,
-        lowerJoint: L,
-        armJoint: A,
-        innerJoint: I,
-        wheelCentre: wheel.centre,
-        spinAxis: wheel.spinAxis,
-        upperPivot,
-        upperPivotAxis,
-        lowerPivot,
-        lowerPivotAxis,
-        upperArmInner,
-        lowerArmInner,
-        upperRail,
-        lowerRail,
-        armFoot: lineFoot(A, L, sub(U, L)),
-        crankFoot,
-        springFrame: spring ? v(spring.frameMount[side]) : null,
-        springArm: spring ? v(spring.armMount[side]) : null,
-        springBody: spring ? (spring.on === 'upper' ? upperCarrier : lowerCarrier) : -1,
-        studUpper: normalize(v(j.upperOuter.studAxis[side])),
-        studLower: normalize(v(j.lowerOuter.studAxis[side])),
-        studTieOuter: normalize(v(j.tieRodOuter.studAxis[side])),
-        studTieInner: normalize(v(j.tieRodInner.studAxis[side])),
-      };
-    };
-    this.sides = { left: make('left'), right: make('right') };
+    this.sides = { left: sideRefs(design, graph, 'left'), right: sideRefs(design, graph, 'right') };
     if (st.kind === 'bellCrank' && st.input.kind === 'dragLink') {
       const columnBody = bodyIndex(graph, 'column');
       const crankArm = v(st.input.crankArmJoint);
@@ -213,48 +262,7 @@ export class GeometryReader {
     } else {
       this.drag = null;
     }
-    const v3 = (): Vec3 => [0, 0, 0];
-    const side = (sd: Side): SideGeometry => {
-      const r = this.sides[sd];
-      return {
-        side: sd,
-        upperJoint: v3(),
-        lowerJoint: v3(),
-        armJoint: v3(),
-        innerJoint: v3(),
-        wheelCentre: v3(),
-        spinAxis: v3(),
-        upperPivot: v3(),
-        upperPivotAxis: v3(),
-        lowerPivot: v3(),
-        lowerPivotAxis: v3(),
-        upperArmInner: v3(),
-        lowerArmInner: v3(),
-        upperRail: r.upperRail ? [v3(), v3()] : null,
-        lowerRail: r.lowerRail ? [v3(), v3()] : null,
-        armFoot: v3(),
-        crankFoot: r.crankFoot ? v3() : null,
-        springFrame: r.springFrame ? v3() : null,
-        springArm: r.springArm ? v3() : null,
-        upperStud: v3(),
-        upperHousing: v3(),
-        lowerStud: v3(),
-        lowerHousing: v3(),
-        tieOuterStud: v3(),
-        tieInnerStud: v3(),
-      };
-    };
-    this.scratch = {
-      frameX: v3(),
-      frameY: v3(),
-      frameUp: v3(),
-      frameOrigin: v3(),
-      steerAxis: v3(),
-      steerKind: this.steerKind,
-      dragLink: this.drag ? { crankArm: v3(), crankFoot: v3(), columnArm: v3() } : null,
-      left: side('left'),
-      right: side('right'),
-    };
+    this.scratch = emptyGeometry(this.sides, this.steerKind, this.drag !== null);
   }
 
   /**
