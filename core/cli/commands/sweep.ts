@@ -95,6 +95,39 @@ export function parseHold(args: ParsedArgs, refused: readonly string[]): 'suspen
   return 'suspension';
 }
 
+interface SweepRequest {
+  axes: SweepAxes;
+  out: string;
+  format: 'csv' | 'json';
+  contact: SweepContact;
+  hold: 'suspension' | undefined;
+  designPath: string;
+}
+
+/** The sweep's options, checked; throws ArgError naming the option at fault. */
+function parseSweepArgs(argv: string[]): SweepRequest {
+  const args = parseArgs(argv, { flags: [], values: ['lean', 'steer', 'travel', 'out', 'contact', 'hold'] });
+  const hold = parseHold(args, ['lean', 'travel', 'contact']);
+  if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
+  const axes: SweepAxes = {
+    leanDeg: rangeOption(args, 'lean', 'degrees') ?? [0],
+    handlebarDeg: rangeOption(args, 'steer', 'degrees') ?? [0],
+    travelMm: rangeOption(args, 'travel', 'mm') ?? [0],
+  };
+  const out = args.options.get('out');
+  if (out === undefined || out === true) throw new ArgError('option --out FILE.csv or FILE.json is required');
+  const lower = out.toLowerCase();
+  let format: 'csv' | 'json';
+  if (lower.endsWith('.csv')) format = 'csv';
+  else if (lower.endsWith('.json')) format = 'json';
+  else throw new ArgError(`option --out: the file name must end in .csv or .json, found "${out}"`);
+  // Held, no row of the mechanism reads the contact; travel (all zero) keeps the frame at design height.
+  const contact = hold ? 'travel' : parseContact(args.options.get('contact'));
+  const poses = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
+  if (poses > MAX_SWEEP_POSES) throw new ArgError(`the grid has ${poses} poses; a sweep takes at most ${MAX_SWEEP_POSES}`);
+  return { axes, out, format, contact, hold, designPath: args.positionals[0] };
+}
+
 export async function runSweepCommand(argv: string[], io: CliIo): Promise<number> {
   // A speed instead of a lean: the ride sweep, each pose at its balanced lean.
   if (argv.some((a) => a === '--speed' || a.startsWith('--speed='))) {
@@ -104,36 +137,13 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
     const { runRideSweepCommand } = await import('./rideSweepCommand');
     return runRideSweepCommand(argv, io);
   }
-  let axes: SweepAxes;
-  let out: string;
-  let format: 'csv' | 'json';
-  let contact: SweepContact;
-  let hold: 'suspension' | undefined;
-  let designPath: string;
+  let request: SweepRequest;
   try {
-    const args = parseArgs(argv, { flags: [], values: ['lean', 'steer', 'travel', 'out', 'contact', 'hold'] });
-    hold = parseHold(args, ['lean', 'travel', 'contact']);
-    if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
-    designPath = args.positionals[0];
-    axes = {
-      leanDeg: rangeOption(args, 'lean', 'degrees') ?? [0],
-      handlebarDeg: rangeOption(args, 'steer', 'degrees') ?? [0],
-      travelMm: rangeOption(args, 'travel', 'mm') ?? [0],
-    };
-    const raw = args.options.get('out');
-    if (raw === undefined || raw === true) throw new ArgError('option --out FILE.csv or FILE.json is required');
-    out = raw;
-    const lower = out.toLowerCase();
-    if (lower.endsWith('.csv')) format = 'csv';
-    else if (lower.endsWith('.json')) format = 'json';
-    else throw new ArgError(`option --out: the file name must end in .csv or .json, found "${out}"`);
-    // Held, no row of the mechanism reads the contact; travel (all zero) keeps the frame at design height.
-    contact = hold ? 'travel' : parseContact(args.options.get('contact'));
-    const poses = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
-    if (poses > MAX_SWEEP_POSES) throw new ArgError(`the grid has ${poses} poses; a sweep takes at most ${MAX_SWEEP_POSES}`);
+    request = parseSweepArgs(argv);
   } catch (e) {
     return reportArgError(e, io, 'sweep', sweepHelp);
   }
+  const { axes, out, format, contact, hold, designPath } = request;
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
   const design = loaded.design;
