@@ -6,6 +6,7 @@ import { echarts } from './echartsSetup';
 export interface ChartClick {
   seriesType?: string;
   data?: unknown;
+  value?: unknown;
 }
 
 export function ChartView({ option, onClick, testId }: { option: EChartsCoreOption; onClick?: (p: ChartClick) => void; testId?: string }) {

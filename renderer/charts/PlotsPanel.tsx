@@ -180,7 +180,7 @@ function PlotBody({ running }: { running: boolean }) {
           testId={`chart-${tab}`}
           onClick={(p) => {
             if (tab !== 'map' || !map || p.seriesType !== 'heatmap') return;
-            const d = p.data as number[];
+            const d = p.value as number[];
             // A cell is a lean and a handlebar: going there leaves ride mode, where the lean is not an input.
             actions.setRide({ on: false });
             actions.setPose({ leanDeg: map.lean[d[0]], handlebarDeg: map.handlebar[d[1]] });

@@ -29,7 +29,19 @@ export interface MapCell {
   /** Core's verdict on each metric ('none': not measured here; 'broken' where the pose cannot be assembled). */
   severity: Record<MapMetric, Severity>;
   values: Record<Exclude<MapMetric, 'status'>, number | null>;
+  /** Whether core counts the pose in the operating region (a balanced turn in the riding range, widened by the transient band). */
+  inRegion: boolean;
   reason?: string;
+}
+
+/**
+ * Core's balanced-turn line for one speed: the balanced lean at each of its handlebar values
+ * (finer than the map's cells; null where that speed cannot ride the turn: grip, lean limit).
+ */
+export interface MapBalancedLine {
+  speedKmh: number;
+  handlebarDeg: number[];
+  leanDeg: (number | null)[];
 }
 
 export interface EnvelopeMapData {
@@ -39,6 +51,10 @@ export interface EnvelopeMapData {
   travelMm: number;
   contact: 'ground' | 'travel';
   cells: MapCell[];
+  /** One per riding speed core picked; none for a vehicle that does not lean. */
+  balancedLines: MapBalancedLine[];
+  /** The design's riding range, km/h, and lean limit, deg (for the map's words). */
+  riding: { minKmh: number; maxKmh: number; maxLeanDeg: number };
   tolerances: CurveSet['tolerances'];
   elapsedMs: number;
 }

@@ -1,12 +1,20 @@
 /**
  * The lean x handlebar envelope map as an ECharts heat map: each cell coloured by core's
  * verdict on the chosen measure (a legend explains the colours, the tooltip gives the
- * number), cells that cannot be assembled marked as such, and a marker at the current pose.
+ * number), cells that cannot be assembled marked as such. Over it: core's operating region as
+ * a dashed outline (the cells outside it paler, so the outline is not the only sign), core's
+ * balanced-turn line for each riding speed with its speed written beside it, and a marker at
+ * the current pose.
+ *
+ * The cells sit on category axes; everything drawn over them uses a second, hidden pair of
+ * value axes spanning the same bands (half a step beyond the first and last values), so lines
+ * and the marker land at their true lean and handlebar rather than at the nearest cell.
  */
 import type { EChartsCoreOption } from 'echarts/core';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
-import type { EnvelopeMapData, MapCell, MapMetric } from './chartData';
+import type { EnvelopeMapData, MapBalancedLine, MapCell, MapMetric } from './chartData';
 import { CHART_COLOURS } from './chartStyle';
+import { bandEdges, regionOutline } from './regionOutline';
 
 export const MAP_METRICS: { id: MapMetric; label: string; unit: string }[] = [
   { id: 'status', label: 'Overall verdict', unit: '' },
@@ -19,12 +27,20 @@ export const MAP_METRICS: { id: MapMetric; label: string; unit: string }[] = [
 
 const LEVELS: Severity[] = ['none', 'within', 'close', 'over', 'broken'];
 
+/** Series names, also the legend's words. */
+export const REGION_SERIES = 'operating region';
+export const BALANCED_SERIES = 'balanced turn';
+
+/** Opacity of the cells outside the operating region. */
+const OUTSIDE_OPACITY = 0.4;
+const REGION_COLOUR = '#14242b';
+const LINE_COLOUR = '#3b3f8f';
 
 export function describeCell(map: EnvelopeMapData, cell: MapCell, metric: MapMetric): string[] {
   const lean = map.lean[cell.leanIndex];
   const bar = map.handlebar[cell.handlebarIndex];
   const meta = MAP_METRICS.find((m) => m.id === metric)!;
-  const lines = [`lean ${lean.toFixed(1)} deg, handlebar ${bar.toFixed(1)} deg`];
+  const lines = [`lean ${lean.toFixed(1)} deg, handlebar ${bar.toFixed(1)} deg`, cell.inRegion ? 'in the operating region' : 'outside the operating region'];
   if (cell.status === 'broken' && cell.reason) {
     lines.push(`cannot assemble: ${cell.reason}`);
     return lines;
@@ -37,14 +53,121 @@ export function describeCell(map: EnvelopeMapData, cell: MapCell, metric: MapMet
   return lines;
 }
 
-export function heatMapOption(
-  map: EnvelopeMapData,
-  metric: MapMetric,
-  marker: { leanDeg: number; handlebarDeg: number } | null = null,
-): EChartsCoreOption {
+type Point = [number, number] | [null, null];
+const GAP: Point = [null, null];
+
+/** The dashed outline of the operating region, its loops joined by gaps into one series, in axis values. */
+export function regionOutlineSeries(map: EnvelopeMapData): Record<string, unknown> | null {
+  const nL = map.lean.length;
+  const nH = map.handlebar.length;
+  const inside = new Uint8Array(nL * nH);
+  for (const c of map.cells) if (c.inRegion) inside[c.leanIndex * nH + c.handlebarIndex] = 1;
+  const loops = regionOutline(nL, nH, (i, j) => inside[i * nH + j] === 1);
+  if (loops.length === 0) return null;
+  const xs = bandEdges(map.lean);
+  const ys = bandEdges(map.handlebar);
+  const data: Point[] = [];
+  for (const loop of loops) {
+    if (data.length) data.push(GAP);
+    for (const [i, j] of [...loop, loop[0]]) data.push([xs[i], ys[j]]);
+  }
+  return {
+    type: 'line',
+    name: REGION_SERIES,
+    xAxisIndex: 1,
+    yAxisIndex: 1,
+    data,
+    showSymbol: false,
+    connectNulls: false,
+    silent: true,
+    lineStyle: { color: REGION_COLOUR, width: 2.5, type: [7, 4] },
+    itemStyle: { color: REGION_COLOUR },
+    z: 5,
+    tooltip: { show: false },
+  };
+}
+
+/**
+ * Where to write a line's speed: its end towards full left lock (`towards` +1, the upper half
+ * of the map) or full right lock (-1): the last point inside the map, before a gap, going out
+ * from straight ahead; null when nothing of that half is drawn.
+ */
+export function labelAnchor(map: EnvelopeMapData, line: MapBalancedLine, towards: 1 | -1): [number, number] | null {
+  const xs = bandEdges(map.lean);
+  const ys = bandEdges(map.handlebar);
+  const inMap = (j: number) => {
+    const lean = line.leanDeg[j];
+    const bar = line.handlebarDeg[j];
+    return lean !== null && lean >= xs[0] && lean <= xs[xs.length - 1] && bar >= ys[0] && bar <= ys[ys.length - 1];
+  };
+  const n = line.handlebarDeg.length;
+  let j = towards > 0 ? line.handlebarDeg.findIndex((h) => h >= 0) : n - 1 - [...line.handlebarDeg].reverse().findIndex((h) => h <= 0);
+  if (j < 0 || j >= n) return null;
+  let last: number | null = null;
+  for (; j >= 0 && j < n && inMap(j); j += towards) last = j;
+  return last === null ? null : [line.leanDeg[last]!, line.handlebarDeg[last]];
+}
+
+/** Core's balanced-turn lines and their speeds, on the hidden value axes. */
+export function balancedLineSeries(map: EnvelopeMapData): Record<string, unknown>[] {
+  if (map.balancedLines.length === 0) return [];
+  const lines = map.balancedLines.map((l) => ({
+    type: 'line',
+    name: BALANCED_SERIES,
+    xAxisIndex: 1,
+    yAxisIndex: 1,
+    data: l.leanDeg.map((lean, j): Point => (lean === null ? GAP : [lean, l.handlebarDeg[j]])),
+    showSymbol: false,
+    connectNulls: false,
+    silent: true,
+    lineStyle: { color: LINE_COLOUR, width: 1.75, type: 'solid' },
+    itemStyle: { color: LINE_COLOUR },
+    z: 6,
+    tooltip: { show: false },
+  }));
+  // Fast lines end close together at the lean limit: the speeds are written at alternate ends
+  // (left lock, right lock, ...), each on the side towards the middle of the map.
+  const labels = map.balancedLines.flatMap((l, k) => {
+    const at = labelAnchor(map, l, k % 2 === 0 ? 1 : -1) ?? labelAnchor(map, l, k % 2 === 0 ? -1 : 1);
+    return at ? [{ value: at, name: `${l.speedKmh} km/h`, label: { position: at[0] <= 0 ? 'right' : 'left' } }] : [];
+  });
+  return [
+    ...lines,
+    {
+      type: 'scatter',
+      name: 'speeds',
+      xAxisIndex: 1,
+      yAxisIndex: 1,
+      data: labels,
+      symbolSize: 5,
+      itemStyle: { color: LINE_COLOUR },
+      label: {
+        show: true,
+        formatter: '{b}',
+        distance: 4,
+        fontSize: 11,
+        color: LINE_COLOUR,
+        backgroundColor: 'rgba(251,251,248,0.85)',
+        padding: [1, 3],
+        borderRadius: 2,
+      },
+      labelLayout: { hideOverlap: true },
+      silent: true,
+      z: 8,
+      tooltip: { show: false },
+    },
+  ];
+}
+
+export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: { leanDeg: number; handlebarDeg: number } | null = null): EChartsCoreOption {
   const meta = MAP_METRICS.find((m) => m.id === metric)!;
-  const data = map.cells.map((c) => [c.leanIndex, c.handlebarIndex, LEVELS.indexOf(c.severity[metric])]);
-  const nearest = (values: number[], x: number) => values.reduce((best, v, i) => (Math.abs(v - x) < Math.abs(values[best] - x) ? i : best), 0);
+  const data = map.cells.map((c) => ({
+    value: [c.leanIndex, c.handlebarIndex, LEVELS.indexOf(c.severity[metric])],
+    ...(c.inRegion ? {} : { itemStyle: { opacity: OUTSIDE_OPACITY } }),
+  }));
+  const xs = bandEdges(map.lean);
+  const ys = bandEdges(map.handlebar);
+  const clamp = (v: number, e: number[]) => Math.min(e[e.length - 1], Math.max(e[0], v));
   const series: Record<string, unknown>[] = [
     {
       type: 'heatmap',
@@ -54,11 +177,16 @@ export function heatMapOption(
       emphasis: { itemStyle: { borderColor: CHART_COLOURS.ink, borderWidth: 1 } },
     },
   ];
+  const region = regionOutlineSeries(map);
+  if (region) series.push(region);
+  series.push(...balancedLineSeries(map));
   if (marker) {
     series.push({
       type: 'scatter',
       name: 'now',
-      data: [[nearest(map.lean, marker.leanDeg), nearest(map.handlebar, marker.handlebarDeg)]],
+      xAxisIndex: 1,
+      yAxisIndex: 1,
+      data: [[clamp(marker.leanDeg, xs), clamp(marker.handlebarDeg, ys)]],
       symbol: 'circle',
       symbolSize: 14,
       itemStyle: { color: 'transparent', borderColor: CHART_COLOURS.marker, borderWidth: 3 },
@@ -68,37 +196,58 @@ export function heatMapOption(
     });
   }
   const label = (v: number) => (Number.isInteger(v) ? String(v) : v.toFixed(1));
+  const hidden = (edges: number[]) => ({ type: 'value', min: edges[0], max: edges[edges.length - 1], show: false });
+  const speeds = map.balancedLines.length
+    ? `; balanced turns at ${map.balancedLines.map((l) => l.speedKmh).join(', ')} km/h`
+    : '; the vehicle does not lean';
   return {
     animation: false,
     backgroundColor: '#fbfbf8',
     textStyle: { fontFamily: 'system-ui, DejaVu Sans, sans-serif', color: CHART_COLOURS.ink },
     title: {
       text: `Envelope map: ${meta.label.toLowerCase()}`,
-      subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm; click a cell to go there`,
+      subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm${speeds}; click a cell to go there`,
       left: 8,
       top: 4,
       textStyle: { fontSize: 13 },
       subtextStyle: { fontSize: 11, color: '#4f5b62' },
     },
-    grid: { left: 62, right: 150, top: 58, bottom: 44 },
+    grid: { left: 62, right: 170, top: 58, bottom: 44 },
     tooltip: {
       confine: true,
-      formatter: (p: { data?: number[] }) => {
-        const d = p.data;
-        if (!d) return '';
+      formatter: (p: { seriesType?: string; value?: number[] }) => {
+        const d = p.value;
+        if (p.seriesType !== 'heatmap' || !d) return '';
         const cell = map.cells.find((c) => c.leanIndex === d[0] && c.handlebarIndex === d[1]);
         return cell ? describeCell(map, cell, metric).join('<br/>') : '';
       },
     },
-    xAxis: { type: 'category', name: 'lean (deg, right side down +)', nameLocation: 'middle', nameGap: 28, data: map.lean.map(label), splitArea: { show: false } },
-    yAxis: { type: 'category', name: 'handlebar (deg, left +)', nameLocation: 'middle', nameGap: 40, data: map.handlebar.map(label) },
+    legend: {
+      data: [
+        { name: REGION_SERIES, icon: 'path://M0,0h6v2h-6zM9,0h6v2h-6zM18,0h6v2h-6z' },
+        ...(map.balancedLines.length ? [{ name: BALANCED_SERIES, icon: 'path://M0,0h24v2h-24z' }] : []),
+      ],
+      orient: 'vertical',
+      right: 8,
+      bottom: 44,
+      itemWidth: 24,
+      itemHeight: 3,
+      selectedMode: false,
+      textStyle: { fontSize: 11 },
+    },
+    xAxis: [
+      // onZero off: with the value axes beside them, the category axes would otherwise sit at handlebar 0.
+      { type: 'category', name: 'lean (deg, right side down +)', nameLocation: 'middle', nameGap: 28, data: map.lean.map(label), splitArea: { show: false }, axisLine: { onZero: false } },
+      hidden(xs),
+    ],
+    yAxis: [{ type: 'category', name: 'handlebar (deg, left +)', nameLocation: 'middle', nameGap: 40, data: map.handlebar.map(label), axisLine: { onZero: false } }, hidden(ys)],
     visualMap: {
       type: 'piecewise',
       dimension: 2,
       seriesIndex: 0,
       orient: 'vertical',
       right: 8,
-      top: 'middle',
+      top: 58,
       itemWidth: 14,
       itemHeight: 10,
       textStyle: { fontSize: 11 },

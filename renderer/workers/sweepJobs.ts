@@ -1,15 +1,15 @@
 /**
- * The sweeps behind the charts and the envelope map: core's `curve` and `envelopeMap`,
- * reshaped into chart data. Runs in the sweep worker (or on the main thread
+ * The sweeps behind the charts and the envelope map: core's `curve` and `envelopeMap`
+ * (with its operating region per cell and its balanced-turn lines), reshaped into chart data. Runs in the sweep worker (or on the main thread
  * where workers are unavailable). No maths here beyond picking numbers out of core's results.
  */
 import { resolveDesign } from '../../core/design/resolveDesign';
-import type { DesignFile } from '../../core/design/types';
-import type { SweepAxes } from '../../core/analysis/sweep';
+import type { DesignFile, ResolvedDesign } from '../../core/design/types';
+import { runSweep, type SweepAxes } from '../../core/analysis/sweep';
 import { CURVE_KINDS, curve } from '../../core/analysis/curves';
-import { envelopeMap } from '../../core/analysis/envelopeMap';
+import { balancedLines, envelopeMap } from '../../core/analysis/envelopeMap';
 import type { Verdict } from '../../core/analysis/tolerance';
-import type { CurveSet, EnvelopeMapData, MapCell } from '../charts/chartData';
+import type { CurveSet, EnvelopeMapData, MapBalancedLine, MapCell } from '../charts/chartData';
 import type { Severity } from '../model/severity';
 
 export type Progress = (done: number, total: number) => void;
@@ -91,6 +91,7 @@ export function computeMap(req: MapRequest, progress?: Progress): EnvelopeMapDat
         jointMargin: c.worstJointMarginDeg,
         clearance: c.worstClearanceMm,
       },
+      inRegion: c.inRegion,
       ...(c.reason ? { reason: c.reason } : {}),
     };
   });
@@ -101,7 +102,28 @@ export function computeMap(req: MapRequest, progress?: Progress): EnvelopeMapDat
     travelMm: axes.travelMm[0],
     contact: 'ground',
     cells,
+    balancedLines: balancedTurnLines(d, axes.handlebarDeg, map.balancedLines),
+    riding: { minKmh: d.riding.minKmh, maxKmh: d.riding.maxKmh, maxLeanDeg: d.riding.maxLeanDeg },
     tolerances: { ...d.tolerances },
     elapsedMs: Date.now() - t0,
   };
+}
+
+/** Handlebar step of the balanced-turn lines, deg. */
+export const LINE_STEP_DEG = 0.25;
+
+/**
+ * Core's balanced-turn lines on a handlebar axis of their own. Core samples them at the map's
+ * handlebar values; on a coarse map a fast line reaches the lean limit within the first step
+ * and would be drawn as a dot at the centre. So when the map is coarser than LINE_STEP_DEG,
+ * core's upright turns are found again along a fine handlebar axis (a one-row sweep at zero
+ * lean and travel) and core's `balancedLines` turns them into lines.
+ */
+function balancedTurnLines(d: ResolvedDesign, mapHandlebar: number[], coarse: { speedKmh: number; leanDeg: (number | null)[] }[]): MapBalancedLine[] {
+  if (coarse.length === 0) return [];
+  const mapStep = mapHandlebar.length > 1 ? mapHandlebar[1] - mapHandlebar[0] : Infinity;
+  if (mapStep <= LINE_STEP_DEG + 1e-9) return coarse.map((l) => ({ speedKmh: l.speedKmh, handlebarDeg: [...mapHandlebar], leanDeg: [...l.leanDeg] }));
+  const handlebarDeg = symmetricAxis(d.envelope.handlebarDeg, LINE_STEP_DEG);
+  const upright = runSweep(d, { leanDeg: [0], handlebarDeg, travelMm: [0] }, { contact: 'ground' }, () => {});
+  return balancedLines(d, upright.uprightTurns).map((l) => ({ speedKmh: l.speedKmh, handlebarDeg, leanDeg: l.leanDeg }));
 }
