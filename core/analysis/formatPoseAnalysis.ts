@@ -11,11 +11,33 @@ import { JOINT_WORDS, clearancePairWords } from './words';
 
 const num = (x: number | null, d = 2, w = 10): string => (x === null ? '-' : x.toFixed(d)).padStart(w);
 
+const rowText = (label: string, l: number | null, r: number | null, d = 2): string => `  ${label.padEnd(34)}${num(l, d)}${num(r, d)}`;
+
+/** Joint articulation and clearance tables. */
+function jointAndClearanceLines(a: PoseAnalysis, design: ResolvedDesign): string[] {
+  const out: string[] = [];
+  out.push('', 'joint                 side   kind        articulation  rated  margin (deg)');
+  for (const j of a.joints) {
+    out.push(
+      `  ${JOINT_WORDS[j.joint].padEnd(19)} ${j.side.padEnd(6)} ${(j.kind === 'rodEnd' ? 'rod end' : 'ball joint').padEnd(10)} ${num(j.articulationDeg, 2, 12)} ${num(j.ratedDeg, 0, 6)} ${num(j.marginDeg, 2, 7)}`,
+    );
+  }
+  out.push(`  tie-rod spin L/R ${a.tieRodSpinDeg.left.toFixed(1)} / ${a.tieRodSpinDeg.right.toFixed(1)} deg (${ANALYSIS_DEFINITIONS.tieRodSpin})`);
+  out.push('', `clearance (mm, required ${design.tolerances.clearanceMm})        left     right`);
+  const pairs = [...new Set(a.clearances.map((c) => c.pair))];
+  for (const p of pairs) {
+    const l = a.clearances.find((c) => c.pair === p && c.side === 'left');
+    const r = a.clearances.find((c) => c.pair === p && c.side === 'right');
+    out.push(rowText(clearancePairWords(p), l?.distanceMm ?? null, r?.distanceMm ?? null, 1));
+  }
+  return out;
+}
+
 export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): string {
   const L = a.wheels.left;
   const R = a.wheels.right;
   const lines: string[] = [];
-  const row = (label: string, l: number | null, r: number | null, d = 2) => lines.push(`  ${label.padEnd(34)}${num(l, d)}${num(r, d)}`);
+  const row = (label: string, l: number | null, r: number | null, d = 2) => lines.push(rowText(label, l, r, d));
   lines.push('alignment                                 left     right');
   row('road-wheel angle (deg, left +)', L.steerDeg, R.steerDeg, 3);
   row('toe (deg, toe-in +)', L.toeDeg, R.toeDeg, 3);
@@ -81,20 +103,7 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
   );
   for (const why of new Set([su.left.reason, su.right.reason, su.reason, su.frontLiftReason])) if (why) lines.push(`  (${why})`);
 
-  lines.push('', 'joint                 side   kind        articulation  rated  margin (deg)');
-  for (const j of a.joints) {
-    lines.push(
-      `  ${JOINT_WORDS[j.joint].padEnd(19)} ${j.side.padEnd(6)} ${(j.kind === 'rodEnd' ? 'rod end' : 'ball joint').padEnd(10)} ${num(j.articulationDeg, 2, 12)} ${num(j.ratedDeg, 0, 6)} ${num(j.marginDeg, 2, 7)}`,
-    );
-  }
-  lines.push(`  tie-rod spin L/R ${a.tieRodSpinDeg.left.toFixed(1)} / ${a.tieRodSpinDeg.right.toFixed(1)} deg (${ANALYSIS_DEFINITIONS.tieRodSpin})`);
-  lines.push('', `clearance (mm, required ${design.tolerances.clearanceMm})        left     right`);
-  const pairs = [...new Set(a.clearances.map((c) => c.pair))];
-  for (const p of pairs) {
-    const l = a.clearances.find((c) => c.pair === p && c.side === 'left');
-    const r = a.clearances.find((c) => c.pair === p && c.side === 'right');
-    row(clearancePairWords(p), l?.distanceMm ?? null, r?.distanceMm ?? null, 1);
-  }
+  lines.push(...jointAndClearanceLines(a, design));
   lines.push('', `verdict: ${a.status}`);
   for (const f of a.findings) lines.push(`  ${f}`);
   return lines.join('\n') + '\n';

@@ -48,6 +48,44 @@ export function nullReasons(a: A): string {
   return out.join('; ');
 }
 
+/** One wheel's columns: alignment, slip, suspension, transmission and tie-rod spin. */
+function sideColumns(s: Side): Column[] {
+  const w = (a: A) => a.wheels[s];
+  return [
+    measure(`${s}.steerDeg`, 'deg', (a) => w(a).steerDeg),
+    measure(`${s}.toeDeg`, 'deg', (a) => w(a).toeDeg),
+    measure(`${s}.selfSteerDeg`, 'deg', (a) => a.selfSteer[`${s}Deg`]),
+    measure(`${s}.camberDeg`, 'deg', (a) => w(a).camberDeg),
+    measure(`${s}.camberToFrameDeg`, 'deg', (a) => w(a).camberToFrameDeg),
+    measure(`${s}.camberFrontViewDeg`, 'deg', (a) => w(a).camberFrontViewDeg),
+    measure(`${s}.casterDeg`, 'deg', (a) => w(a).casterDeg),
+    measure(`${s}.kpiDeg`, 'deg', (a) => w(a).kpiDeg),
+    measure(`${s}.casterToFrameDeg`, 'deg', (a) => w(a).casterToFrameDeg),
+    measure(`${s}.kpiToFrameDeg`, 'deg', (a) => w(a).kpiToFrameDeg),
+    measure(`${s}.trailMm`, 'mm', (a) => w(a).trailMm),
+    measure(`${s}.scrubRadiusMm`, 'mm', (a) => w(a).scrubRadiusMm),
+    measure(`${s}.casterOffsetMm`, 'mm', (a) => w(a).casterOffsetMm),
+    measure(`${s}.kingpinOffsetAtCentreMm`, 'mm', (a) => w(a).kingpinOffsetAtCentreMm),
+    measure(`${s}.spindleLengthMm`, 'mm', (a) => w(a).spindleLengthMm),
+    measure(`${s}.travelMm`, 'mm', (a) => w(a).travelMm),
+    measure(`${s}.centreXMm`, 'mm', (a) => w(a).centreMm.x),
+    measure(`${s}.centreYMm`, 'mm', (a) => w(a).centreMm.y),
+    measure(`${s}.centreZMm`, 'mm', (a) => w(a).centreMm.z),
+    measure(`${s}.contactXMm`, 'mm', (a) => w(a).contactPatchMm.x),
+    measure(`${s}.contactYMm`, 'mm', (a) => w(a).contactPatchMm.y),
+    measure(`${s}.contactZMm`, 'mm', (a) => w(a).contactPatchMm.z),
+    measure(`${s}.slipDeg`, 'deg', (a) => a.slip[s].slipDeg),
+    measure(`${s}.scrubMPerKm`, 'm/km', (a) => a.slip[s].scrubMPerKm),
+    measure(`${s}.instantCentreYMm`, 'mm', (a) => a.suspension[s].instantCentreMm?.y ?? null),
+    measure(`${s}.instantCentreZMm`, 'mm', (a) => a.suspension[s].instantCentreMm?.z ?? null),
+    measure(`${s}.swingArmMm`, 'mm', (a) => a.suspension[s].swingArmMm),
+    measure(`${s}.motionRatio`, '', (a) => a.suspension[s].motionRatio),
+    measure(`${s}.steeringArmTransmissionDeg`, 'deg', (a) => a.steering.steeringArmTransmissionDeg[s]),
+    measure(`${s}.linkageTransmissionDeg`, 'deg', (a) => a.steering.linkageTransmissionDeg[s]),
+    measure(`${s}.tieRodSpinDeg`, 'deg', (a) => a.tieRodSpinDeg[s]),
+  ];
+}
+
 export function poseColumns(design: ResolvedDesign): Column[] {
   const cols: Column[] = [
     { name: 'leanDeg', unit: 'deg', get: (c) => c.leanDeg },
@@ -58,42 +96,7 @@ export function poseColumns(design: ResolvedDesign): Column[] {
     { name: 'residualMm', unit: 'mm', get: (c) => (c.ok ? c.analysis.solver.residualMm : c.failure.solver.residualMm) },
     measure('frameHeaveMm', 'mm', (a) => a.frameHeaveMm),
   ];
-  for (const s of SIDES) {
-    const w = (a: A) => a.wheels[s];
-    cols.push(
-      measure(`${s}.steerDeg`, 'deg', (a) => w(a).steerDeg),
-      measure(`${s}.toeDeg`, 'deg', (a) => w(a).toeDeg),
-      measure(`${s}.selfSteerDeg`, 'deg', (a) => a.selfSteer[`${s}Deg`]),
-      measure(`${s}.camberDeg`, 'deg', (a) => w(a).camberDeg),
-      measure(`${s}.camberToFrameDeg`, 'deg', (a) => w(a).camberToFrameDeg),
-      measure(`${s}.camberFrontViewDeg`, 'deg', (a) => w(a).camberFrontViewDeg),
-      measure(`${s}.casterDeg`, 'deg', (a) => w(a).casterDeg),
-      measure(`${s}.kpiDeg`, 'deg', (a) => w(a).kpiDeg),
-      measure(`${s}.casterToFrameDeg`, 'deg', (a) => w(a).casterToFrameDeg),
-      measure(`${s}.kpiToFrameDeg`, 'deg', (a) => w(a).kpiToFrameDeg),
-      measure(`${s}.trailMm`, 'mm', (a) => w(a).trailMm),
-      measure(`${s}.scrubRadiusMm`, 'mm', (a) => w(a).scrubRadiusMm),
-      measure(`${s}.casterOffsetMm`, 'mm', (a) => w(a).casterOffsetMm),
-      measure(`${s}.kingpinOffsetAtCentreMm`, 'mm', (a) => w(a).kingpinOffsetAtCentreMm),
-      measure(`${s}.spindleLengthMm`, 'mm', (a) => w(a).spindleLengthMm),
-      measure(`${s}.travelMm`, 'mm', (a) => w(a).travelMm),
-      measure(`${s}.centreXMm`, 'mm', (a) => w(a).centreMm.x),
-      measure(`${s}.centreYMm`, 'mm', (a) => w(a).centreMm.y),
-      measure(`${s}.centreZMm`, 'mm', (a) => w(a).centreMm.z),
-      measure(`${s}.contactXMm`, 'mm', (a) => w(a).contactPatchMm.x),
-      measure(`${s}.contactYMm`, 'mm', (a) => w(a).contactPatchMm.y),
-      measure(`${s}.contactZMm`, 'mm', (a) => w(a).contactPatchMm.z),
-      measure(`${s}.slipDeg`, 'deg', (a) => a.slip[s].slipDeg),
-      measure(`${s}.scrubMPerKm`, 'm/km', (a) => a.slip[s].scrubMPerKm),
-      measure(`${s}.instantCentreYMm`, 'mm', (a) => a.suspension[s].instantCentreMm?.y ?? null),
-      measure(`${s}.instantCentreZMm`, 'mm', (a) => a.suspension[s].instantCentreMm?.z ?? null),
-      measure(`${s}.swingArmMm`, 'mm', (a) => a.suspension[s].swingArmMm),
-      measure(`${s}.motionRatio`, '', (a) => a.suspension[s].motionRatio),
-      measure(`${s}.steeringArmTransmissionDeg`, 'deg', (a) => a.steering.steeringArmTransmissionDeg[s]),
-      measure(`${s}.linkageTransmissionDeg`, 'deg', (a) => a.steering.linkageTransmissionDeg[s]),
-      measure(`${s}.tieRodSpinDeg`, 'deg', (a) => a.tieRodSpinDeg[s]),
-    );
-  }
+  for (const s of SIDES) cols.push(...sideColumns(s));
   cols.push(
     measure('steering.meanWheelDeg', 'deg', (a) => a.steering.meanWheelDeg),
     measure('steering.overallRatio', '', (a) => a.steering.overallRatio),
