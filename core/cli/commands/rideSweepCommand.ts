@@ -24,36 +24,44 @@ function csvValue(v: CellValue): string {
   return /[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
 }
 
-export async function runRideSweepCommand(argv: string[], io: CliIo): Promise<number> {
-  let axes: RideAxes;
-  let out: string;
+interface RideRequest {
+  axes: RideAxes;
+  out: string;
+  format: 'csv' | 'json';
+  designPath: string;
+  contact: ReturnType<typeof parseContact>;
+}
+
+/** The ride sweep's options, checked; throws ArgError naming the option at fault. */
+function parseRideArgs(argv: string[]): RideRequest {
+  const args = parseArgs(argv, { flags: [], values: ['speed', 'steer', 'out', 'contact', 'lean', 'travel'] });
+  if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
+  if (args.options.has('lean')) throw new ArgError('give either --lean or --speed, not both (the speed sets the lean)');
+  if (args.options.has('travel')) throw new ArgError('--speed sweeps ride at design travel: leave out --travel');
+  const speed = rangeOption(args, 'speed', 'km/h');
+  const steer = rangeOption(args, 'steer', 'degrees');
+  if (!speed || !steer) throw new ArgError('a ride sweep needs both --speed A:B:STEP (km/h) and --steer A:B:STEP (degrees)');
+  if (speed.some((v) => v < 0)) throw new ArgError('option --speed: speeds must be 0 km/h or more');
+  if (speed.length * steer.length > MAX_RIDE_POSES) {
+    throw new ArgError(`${speed.length * steer.length} poses is too many for a ride sweep (at most ${MAX_RIDE_POSES}): widen a STEP`);
+  }
+  const out = args.options.get('out');
+  if (typeof out !== 'string') throw new ArgError('option --out FILE.csv|FILE.json is required');
   let format: 'csv' | 'json';
-  let designPath: string;
-  let contact: ReturnType<typeof parseContact>;
+  if (/\.csv$/i.test(out)) format = 'csv';
+  else if (/\.json$/i.test(out)) format = 'json';
+  else throw new ArgError(`option --out: expected a .csv or .json file, found "${out}"`);
+  return { axes: { speedKmh: speed, handlebarDeg: steer }, out, format, designPath: args.positionals[0], contact: parseContact(args.options.get('contact')) };
+}
+
+export async function runRideSweepCommand(argv: string[], io: CliIo): Promise<number> {
+  let request: RideRequest;
   try {
-    const args = parseArgs(argv, { flags: [], values: ['speed', 'steer', 'out', 'contact', 'lean', 'travel'] });
-    if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
-    designPath = args.positionals[0];
-    if (args.options.has('lean')) throw new ArgError('give either --lean or --speed, not both (the speed sets the lean)');
-    if (args.options.has('travel')) throw new ArgError('--speed sweeps ride at design travel: leave out --travel');
-    const speed = rangeOption(args, 'speed', 'km/h');
-    const steer = rangeOption(args, 'steer', 'degrees');
-    if (!speed || !steer) throw new ArgError('a ride sweep needs both --speed A:B:STEP (km/h) and --steer A:B:STEP (degrees)');
-    if (speed.some((v) => v < 0)) throw new ArgError('option --speed: speeds must be 0 km/h or more');
-    if (speed.length * steer.length > MAX_RIDE_POSES) {
-      throw new ArgError(`${speed.length * steer.length} poses is too many for a ride sweep (at most ${MAX_RIDE_POSES}): widen a STEP`);
-    }
-    axes = { speedKmh: speed, handlebarDeg: steer };
-    const o = args.options.get('out');
-    if (typeof o !== 'string') throw new ArgError('option --out FILE.csv|FILE.json is required');
-    out = o;
-    if (/\.csv$/i.test(out)) format = 'csv';
-    else if (/\.json$/i.test(out)) format = 'json';
-    else throw new ArgError(`option --out: expected a .csv or .json file, found "${out}"`);
-    contact = parseContact(args.options.get('contact'));
+    request = parseRideArgs(argv);
   } catch (e) {
     return reportArgError(e, io, 'sweep', sweepHelp);
   }
+  const { axes, out, format, designPath, contact } = request;
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
   const design = loaded.design;
