@@ -11,7 +11,7 @@ import { setPlots } from '../state/uiStore';
 import type { Workbench } from '../state/workbench';
 import type { MapMetric } from './chartData';
 import { ChartView } from './ChartView';
-import { CURVE_CHARTS, curveOption, type ChartMarker } from './curveOptions';
+import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from './curveOptions';
 import { heatMapOption, MAP_METRICS } from './heatMapOptions';
 
 /** Quiet time after an edit before the charts are recomputed, ms. */
@@ -77,9 +77,18 @@ function useRecompute(): void {
   }, [jobs, revision, tab, valid, open, asked, resolution]);
 }
 
+/**
+ * The tabs; a vehicle that does not lean has no lean curves, so their tabs are left out and
+ * the bar says why (and the plots move off such a tab).
+ */
 function PlotTabs() {
   const { ui } = useWorkbenchApi();
   const { open, tab } = useUi((s) => s.plots);
+  const tilting = useDocument((s) => s.design.vehicle.tilting);
+  const [shown, hidden] = useMemo(() => [CURVE_CHARTS.filter((c) => tilting || !isLeanChart(c.id)), CURVE_CHARTS.filter((c) => !tilting && isLeanChart(c.id))], [tilting]);
+  useEffect(() => {
+    if (tab !== 'map' && !tilting && isLeanChart(tab)) setPlots(ui, { tab: shown[0].id });
+  }, [ui, tab, tilting, shown]);
   const tabButton = (id: typeof tab, label: string) => (
     <button key={id} type="button" role="tab" aria-selected={tab === id} className={tab === id ? 'is-active' : ''} onClick={() => setPlots(ui, { tab: id, open: true })} data-testid={`tab-${id}`}>
       {label}
@@ -90,8 +99,13 @@ function PlotTabs() {
       <button type="button" className="plots-toggle" onClick={() => setPlots(ui, { open: !open })} aria-expanded={open} title={open ? 'Hide the plots' : 'Show the plots'}>
         {open ? '▾' : '▸'} Plots
       </button>
-      {CURVE_CHARTS.map((c) => tabButton(c.id, c.label))}
+      {shown.map((c) => tabButton(c.id, c.label))}
       {tabButton('map', 'Envelope map')}
+      {hidden.length > 0 && (
+        <span className="hint plots-hidden" data-testid="plots-hidden">
+          {hidden.map((c) => c.label).join(', ')}: not shown, {NO_LEAN_REASON}
+        </span>
+      )}
     </div>
   );
 }

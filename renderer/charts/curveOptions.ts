@@ -18,11 +18,13 @@ export interface ChartMarker {
 
 export const NO_MARKER: ChartMarker = { leanDeg: null, handlebarDeg: null, travelMm: null, ackermann: null };
 
-export type CurveChartId = 'leanSteer' | 'bumpSteer' | 'ackermann' | 'camber' | 'jointsLean' | 'jointsSteer' | 'ratio' | 'frontLift';
+export type CurveChartId = 'leanSteer' | 'bumpSteer' | 'ratioLean' | 'slipSteer' | 'ackermann' | 'camber' | 'jointsLean' | 'jointsSteer' | 'ratio' | 'frontLift';
 
 export const CURVE_CHARTS: { id: CurveChartId; label: string }[] = [
   { id: 'leanSteer', label: 'Lean steer' },
   { id: 'bumpSteer', label: 'Bump steer' },
+  { id: 'ratioLean', label: 'Ratio change' },
+  { id: 'slipSteer', label: 'Toe mismatch' },
   { id: 'ackermann', label: 'Ackermann' },
   { id: 'camber', label: 'Camber' },
   { id: 'jointsLean', label: 'Joints vs lean' },
@@ -238,6 +240,10 @@ export function curveOption(id: CurveChartId, set: CurveSet, m: ChartMarker = NO
       return leanSteerOption(set, m);
     case 'bumpSteer':
       return bumpSteerOption(set, m);
+    case 'ratioLean':
+      return ratioChangeOption(set, m);
+    case 'slipSteer':
+      return slipOption(set, m);
     case 'ackermann':
       return ackermannOption(set, m);
     case 'camber':
@@ -257,6 +263,8 @@ export function curveOption(id: CurveChartId, set: CurveSet, m: ChartMarker = NO
 export const CHART_CURVES: Record<CurveChartId, CurveKind[]> = {
   leanSteer: ['leanSteer'],
   bumpSteer: ['bumpSteer'],
+  ratioLean: ['ratioLean'],
+  slipSteer: ['slipSteer'],
   ackermann: ['ackermann'],
   camber: ['camberLean', 'camberTravel'],
   jointsLean: ['jointsLean'],
@@ -264,3 +272,13 @@ export const CHART_CURVES: Record<CurveChartId, CurveKind[]> = {
   ratio: ['steeringRatio'],
   frontLift: ['frontLift'],
 };
+
+/** Core's curves swept against lean: a vehicle that does not lean has none of them. */
+export const LEAN_CURVES: ReadonlySet<CurveKind> = new Set<CurveKind>(['leanSteer', 'ratioLean', 'camberLean', 'jointsLean']);
+
+export const NO_LEAN_REASON = 'this vehicle does not lean';
+
+/** Whether a chart draws nothing but lean curves (hidden for a vehicle that does not lean). */
+export function isLeanChart(id: CurveChartId): boolean {
+  return CHART_CURVES[id].every((k) => LEAN_CURVES.has(k));
+}

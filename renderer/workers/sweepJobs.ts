@@ -10,6 +10,7 @@ import { CURVE_KINDS, curve } from '../../core/analysis/curves';
 import { balancedLines, envelopeMap } from '../../core/analysis/envelopeMap';
 import type { Verdict } from '../../core/analysis/tolerance';
 import type { CurveSet, EnvelopeMapData, MapBalancedLine, MapCell } from '../charts/chartData';
+import { LEAN_CURVES, NO_LEAN_REASON } from '../charts/curveOptions';
 import type { Severity } from '../model/severity';
 
 export type Progress = (done: number, total: number) => void;
@@ -29,13 +30,10 @@ export interface CurveRequest {
 export function computeCurves(req: CurveRequest, progress?: Progress): CurveSet {
   const t0 = Date.now();
   const d = resolveDesign(req.design);
-  const kinds = CURVE_KINDS.filter((k) => {
-    if (!d.vehicle.tilting && (k === 'leanSteer' || k === 'camberLean' || k === 'jointsLean' || k === 'ratioLean')) return false;
-    return true;
-  });
+  const kinds = CURVE_KINDS.filter((k) => d.vehicle.tilting || !LEAN_CURVES.has(k));
   const curves: CurveSet['curves'] = {};
   const missing: CurveSet['missing'] = {};
-  for (const k of CURVE_KINDS) if (!kinds.includes(k)) missing[k] = 'this vehicle does not lean';
+  for (const k of CURVE_KINDS) if (!kinds.includes(k)) missing[k] = NO_LEAN_REASON;
   kinds.forEach((k, i) => {
     progress?.(i, kinds.length);
     try {
