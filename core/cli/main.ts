@@ -7,6 +7,7 @@ import { runValidate, validateHelp } from './commands/validate';
 import { runPose, poseHelp } from './commands/pose';
 import { runSweepCommand, sweepHelp } from './commands/sweep';
 import { runCheck, checkHelp } from './commands/check';
+import { runSensitivityCommand, sensitivityHelp } from './commands/sensitivity';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -19,6 +20,7 @@ export const COMMANDS: Record<string, CliCommand> = {
   pose: { run: runPose, help: poseHelp },
   sweep: { run: runSweepCommand, help: sweepHelp },
   check: { run: runCheck, help: checkHelp },
+  sensitivity: { run: runSensitivityCommand, help: sensitivityHelp },
 };
 
 function usage(): string {

@@ -13,6 +13,11 @@
  * the rate at h is trusted; otherwise it is flagged as not linear (a kink, a worst pose that
  * changes, a joint near its limit).
  *
+ * Coordinates are ranked by the largest rate of any quantity a tolerance judges (self-steer,
+ * slip, ratio change, joint margin) at any pose, as a share of that tolerance: what 1 mm does
+ * at the pose where it does most, which stays meaningful where the worst value over the poses
+ * has a kink.
+ *
  * Plain data in (a design file, poses, options), plain data out; progress reported after
  * every perturbed copy solved, and `shouldStop()` asked before each one (a stopped study
  * returns the coordinates finished so far, marked cancelled).
@@ -59,6 +64,12 @@ export interface ObjectiveRate {
   halfStepPerMm: number | null;
   /** Whether the two agree (see LINEAR_REL, LINEAR_ABS); null when not checked. */
   linear: boolean | null;
+  /**
+   * The largest rate of any of the objective's quantities at any pose (signed, per mm) and
+   * where: smooth even where the worst passes from one pose or wheel to another within the step.
+   */
+  largestPoseRate: number | null;
+  largestPoseWhere: string | null;
 }
 
 export interface CoordinateSensitivity {
@@ -67,7 +78,7 @@ export interface CoordinateSensitivity {
   objectives: Record<string, ObjectiveRate>;
   /** d(quantity)/d(mm) at step h, per pose (rows) and quantity (columns); null where not measured. */
   perPose: (number | null)[][];
-  /** Largest |rate| / tolerance over the headline objectives: the share of a tolerance 1 mm uses. */
+  /** Largest |rate| of a headline objective's quantities at any pose / its tolerance: the share of a tolerance 1 mm uses. */
   score: number;
   /** Poses a perturbed copy could not be assembled at. */
   failures: string[];
@@ -239,7 +250,7 @@ export function runSensitivity(file: DesignFile, options: SensitivityOptions = {
       const perMm = finiteOrNull(full.objectiveRates[k]);
       const halfStepPerMm = half ? finiteOrNull(half.objectiveRates[k]) : null;
       const linear = perMm === null || halfStepPerMm === null ? null : isLinear(perMm, halfStepPerMm);
-      objectives[o.id] = { perMm, halfStepPerMm, linear };
+      objectives[o.id] = { perMm, halfStepPerMm, linear, ...largestPoseRate(o, setup, full.rates) };
     });
     const c = coords[i];
     results.push({
@@ -274,10 +285,23 @@ export function runSensitivity(file: DesignFile, options: SensitivityOptions = {
   };
 }
 
+function largestPoseRate(o: StudyObjective, setup: StudySetup, rates: Float64Array): Pick<ObjectiveRate, 'largestPoseRate' | 'largestPoseWhere'> {
+  const Q = setup.quantities.length;
+  let best: { r: number; p: number; q: number } | null = null;
+  for (let p = 0; p < setup.poses.length; p++) {
+    for (const q of o.quantities) {
+      const r = rates[p * Q + q];
+      if (Number.isFinite(r) && (!best || Math.abs(r) > Math.abs(best.r))) best = { r, p, q };
+    }
+  }
+  if (!best) return { largestPoseRate: null, largestPoseWhere: null };
+  return { largestPoseRate: best.r, largestPoseWhere: `${setup.quantities[best.q].label} at ${poseWords(setup.poses[best.p])}` };
+}
+
 function score(objectives: readonly StudyObjective[], rates: Record<string, ObjectiveRate>): number {
   let s = 0;
   for (const o of objectives) {
-    const r = rates[o.id]?.perMm;
+    const r = rates[o.id]?.largestPoseRate;
     if ((HEADLINE_OBJECTIVES as readonly string[]).includes(o.id) && o.tolerance && r !== null && r !== undefined) s = Math.max(s, Math.abs(r) / o.tolerance);
   }
   return s;
@@ -312,7 +336,11 @@ export function sensitivitySentence(c: StudyCoordinate, objectives: readonly Stu
     const o = objectives.find((x) => x.id === id);
     if (!o) continue;
     const r = rates[id];
-    parts.push(`${o.label} ${r.perMm === null ? 'not measured' : signedRate(r.perMm, o.unit)}${r.linear === false ? ' (not linear over the step)' : ''}`);
+    const kink =
+      r.linear === false
+        ? ` (not linear over the step${r.largestPoseRate !== null ? `; at one pose up to ${signedRate(r.largestPoseRate, o.unit)}` : ''})`
+        : '';
+    parts.push(`${o.label} ${r.perMm === null ? 'not measured' : signedRate(r.perMm, o.unit)}${kink}`);
   }
   return `move the ${c.point} 1 mm ${c.direction}: ${parts.join(', ')}`;
 }

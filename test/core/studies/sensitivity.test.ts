@@ -127,7 +127,7 @@ describe('sensitivity: central differences of the full solve', () => {
     expect(argWorst(at(0))).toBe(1); // right wheel, first pose
     expect(argWorst(at(0.5))).toBe(0); // left wheel, first pose
     expect(arm.objectives.selfSteer.linear).toBe(false);
-    expect(arm.sentence).toMatch(/worst self-steer [+-]\d\.\d+ deg \(not linear over the step\)/);
+    expect(arm.sentence).toMatch(/worst self-steer [+-]\d\.\d+ deg \(not linear over the step; at one pose up to [+-]\d\.\d{3} deg\)/);
   }, 60_000);
 
   it('one side at a time: matches an independent one-sided move, and both sides add up to the pair (first order)', () => {
