@@ -11,8 +11,8 @@ import { indexedDbRecovery } from './files/durableRecovery';
 import { browserFileService, electronFileService, type FileService } from './files/fileService';
 import { DEFAULT_DEMO } from './model/demoDesigns';
 import { designToText } from './model/designText';
-import { createWorkbench } from './model/workbenchStore';
-import { PlaybackController, playbackStore } from './panels/playback';
+import { createWorkbench } from './state/workbench';
+import { PlaybackController } from './panels/playback';
 import { renderStats } from './viewport/viewSignals';
 import './styles.css';
 
@@ -76,8 +76,9 @@ const files = window.tiltbench ? electronFileService(window.tiltbench) : browser
 const flow = new DocumentFlow(workbench, files);
 const playback = new PlaybackController(workbench);
 
-// Test and benchmark hooks: the state, the actions, the document flow and the render counters.
-Object.assign(window, { __tiltbench: { ...workbench, flow, playback, playbackStore }, __tiltbenchStats: renderStats });
+// Test and benchmark hooks: the stores (document, pose, ui, jobs), the actions, the document
+// flow, playback and the render counters.
+Object.assign(window, { __tiltbench: { ...workbench, flow, playback }, __tiltbenchStats: renderStats });
 
 createRoot(container).render(
   <StrictMode>

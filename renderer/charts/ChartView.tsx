@@ -12,8 +12,12 @@ export interface ChartClick {
 export function ChartView({ option, onClick, testId }: { option: EChartsCoreOption; onClick?: (p: ChartClick) => void; testId?: string }) {
   const el = useRef<HTMLDivElement>(null);
   const chart = useRef<ReturnType<typeof echarts.init> | null>(null);
+  // The latest click handler, for the chart's listener made once below (kept current after
+  // each render, never written during one).
   const click = useRef(onClick);
-  click.current = onClick;
+  useEffect(() => {
+    click.current = onClick;
+  }, [onClick]);
 
   useEffect(() => {
     const node = el.current;

@@ -1,14 +1,14 @@
 /**
- * Open, new, save, save as, recent, autosave and recovery, in terms of the workbench store
- * and a file service. Nothing the user made is lost: a file that does not read leaves the
+ * Open, new, save, save as, recent, autosave and recovery, in terms of the workbench's
+ * document and UI stores and a file service. Nothing the user made is lost: a file that does not read leaves the
  * current design as it was, and every unsaved edit is autosaved to the recovery copy.
  */
 import { parseDesignText, type DesignIssue } from '../../core/design/validateDesign';
 import type { DesignFile } from '../../core/design/types';
-import { askConfirm } from '../app/uiStore';
 import { DEMO_DESIGNS, DEFAULT_DEMO } from '../model/demoDesigns';
 import { designToText, suggestedFileName } from '../model/designText';
-import type { Workbench } from '../model/workbenchStore';
+import { askConfirm } from '../state/uiStore';
+import type { Workbench } from '../state/workbench';
 import type { FileService, OpenedFile, RecentEntry } from './fileService';
 
 /** Quiet time after the last edit before the recovery copy is written, ms. */
@@ -41,9 +41,9 @@ export class DocumentFlow {
 
   /** Asks before dropping unsaved changes. */
   private async mayReplace(what: string): Promise<boolean> {
-    const s = this.wb.store.getState();
+    const s = this.wb.document.getState();
     if (!s.dirty) return true;
-    return askConfirm({
+    return askConfirm(this.wb.ui, {
       title: 'Unsaved changes',
       text: `“${s.design.name}” has changes that are not saved. ${what} anyway? (A recovery copy is kept until you edit the next design.)`,
       confirmLabel: `Discard changes and ${what.toLowerCase()}`,
@@ -96,7 +96,7 @@ export class DocumentFlow {
   }
 
   async save(as = false): Promise<boolean> {
-    const s = this.wb.store.getState();
+    const s = this.wb.document.getState();
     const text = s.designText;
     const fileName = s.doc.filePath === null && s.doc.fileName === 'untitled.tiltsheet' ? suggestedFileName(s.design) : s.doc.fileName;
     try {
@@ -129,7 +129,7 @@ export class DocumentFlow {
     } catch {
       recovered = null;
     }
-    if (recovered !== null && recovered !== this.wb.store.getState().designText) {
+    if (recovered !== null && recovered !== this.wb.document.getState().designText) {
       const parsed = parseDesignText(recovered, 'recovery copy');
       this.wb.actions.setRecovery({
         text: recovered,
@@ -143,7 +143,7 @@ export class DocumentFlow {
 
   /** The user's answer to the recovery offer. */
   async resolveRecovery(restore: boolean): Promise<void> {
-    const offer = this.wb.store.getState().recovery;
+    const offer = this.wb.ui.getState().recovery;
     this.wb.actions.setRecovery(null);
     if (offer && restore) {
       const parsed = parseDesignText(offer.text, 'recovery copy');
@@ -164,15 +164,15 @@ export class DocumentFlow {
       clearTimeout(this.autosaveTimer);
       this.autosaveTimer = setTimeout(() => void this.flushAutosave(), AUTOSAVE_DELAY_MS);
     };
-    this.wb.store.subscribe((s, prev) => {
+    this.wb.document.subscribe((s, prev) => {
       if (s.designText !== prev.designText || s.dirty !== prev.dirty) schedule();
     });
-    if (this.wb.store.getState().dirty) schedule();
+    if (this.wb.document.getState().dirty) schedule();
   }
 
   async flushAutosave(): Promise<void> {
     clearTimeout(this.autosaveTimer);
-    const s = this.wb.store.getState();
+    const s = this.wb.document.getState();
     try {
       if (s.dirty) {
         if (s.designText === this.lastRecoveryText) return;

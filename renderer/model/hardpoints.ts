@@ -3,8 +3,10 @@
  * of each in the file and whether its left side mirrors the right. Pure reshaping of the
  * design document; the mirroring itself is core's (`mirrorY`, `resolveSidedVec`).
  *
- * A row's id equals the id the mechanism gives the same point (`frontEnd.upper.outerJoint.right`,
- * `steering.pivot`), so the table and the viewport select the same thing.
+ * A row's id is the point's path in the design file with its side (`frontEnd.upper.outerJoint.right`,
+ * `steering.pivot`): the file's own field names, not the mechanism's. Core's drawing layout
+ * names the hardpoint each drawn joint shows the same way, so the table and the viewport
+ * select the same thing.
  */
 import { isTwoSided, mirrorY, resolveSidedVec } from '../../core/design/resolveDesign';
 import type { DesignFile, Side, Sided, Vec3Mm } from '../../core/design/types';
@@ -23,7 +25,7 @@ export interface HardpointEntry {
 }
 
 export interface HardpointRow {
-  /** Selection id, equal to the mechanism's point id. */
+  /** Selection id: the design-file path with the side, as core's drawing layout names hardpoints. */
   id: string;
   key: string;
   side: Side | null;

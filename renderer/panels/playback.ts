@@ -10,12 +10,6 @@ import { motion } from '../viewport/viewSignals';
 
 export type { PlaybackMode };
 
-/**
- * Deprecated: playback's flags are the workbench's (wb.ui, `playback`). main.tsx's test hook
- * still lists this name; it holds nothing. Remove it with that line of main.tsx.
- */
-export const playbackStore = undefined;
-
 /** Position in [-1, 1] of a triangle wave with period 4 at phase p. */
 function triangle(p: number): number {
   const q = ((p % 4) + 4) % 4;

@@ -14,10 +14,10 @@ import { changeAt } from '../model/history';
 import { pointTarget, splitRowId } from '../model/hardpoints';
 import type { Contact, PoseUi } from '../model/poseInputs';
 import type { SweepClient } from '../workers/sweepClient';
-import { createDocumentStore, DocumentEditor, type DocInfo, type DocumentState, type DocumentStore } from './documentStore';
+import { createDocumentStore, DocumentEditor, type DocInfo, type DocumentStore } from './documentStore';
 import { Jobs } from './jobsStore';
-import { PoseView, type PoseState, type PoseStore, type RideUi } from './poseStore';
-import { createUiStore, type Notice, type RecoveryOffer, type UiState, type UiStore } from './uiStore';
+import { PoseView, type PoseStore, type RideUi } from './poseStore';
+import { createUiStore, type Notice, type RecoveryOffer, type UiStore } from './uiStore';
 
 export interface WorkbenchActions {
   /** Replace the design (open, new, restore): history cleared, the pose back at the design's. */
@@ -41,26 +41,12 @@ export interface WorkbenchActions {
   setAboutOpen(open: boolean): void;
 }
 
-/**
- * One read-only view of the document, pose and dialog state together, for code that reads
- * the workbench as one object: the document flow (renderer/files), main.tsx's test hook and
- * the end-to-end tests. Components read the stores themselves.
- */
-export type WorkbenchState = DocumentState & PoseState & Pick<UiState, 'selection' | 'dragging' | 'notice' | 'recovery' | 'aboutOpen'>;
-
-export interface ReadonlyStore<T> {
-  getState(): T;
-  subscribe(listener: (state: T, prev: T) => void): () => void;
-}
-
 export interface Workbench {
   document: DocumentStore;
   pose: PoseStore;
   ui: UiStore;
   jobs: Jobs;
   actions: WorkbenchActions;
-  /** The combined read-only view (see WorkbenchState). */
-  store: ReadonlyStore<WorkbenchState>;
 }
 
 export interface WorkbenchOptions {
@@ -68,21 +54,14 @@ export interface WorkbenchOptions {
   sweepClient?: SweepClient;
 }
 
-/** The UI store of the workbench made last, for the confirmation asked by code that does not name its workbench. */
-let latestUi: UiStore | null = null;
-export function latestUiStore(): UiStore | null {
-  return latestUi;
-}
-
 export function createWorkbench(design: DesignFile, doc: DocInfo, options: WorkbenchOptions = {}): Workbench {
   const document = createDocumentStore(design, doc);
   const editor = new DocumentEditor(document);
   const view = new PoseView(document);
   const ui = createUiStore();
-  latestUi = ui;
   const jobs = new Jobs(document, options.sweepClient);
   const actions = workbenchActions(editor, view, ui);
-  return { document, pose: view.store, ui, jobs, actions, store: combinedView(document, view.store, ui) };
+  return { document, pose: view.store, ui, jobs, actions };
 }
 
 function workbenchActions(editor: DocumentEditor, view: PoseView, ui: UiStore): WorkbenchActions {
@@ -133,40 +112,5 @@ function workbenchActions(editor: DocumentEditor, view: PoseView, ui: UiStore): 
     showNotice: (notice) => ui.setState({ notice }),
     setRecovery: (recovery) => ui.setState({ recovery }),
     setAboutOpen: (aboutOpen) => ui.setState({ aboutOpen }),
-  };
-}
-
-function combinedView(document: DocumentStore, pose: PoseStore, ui: UiStore): ReadonlyStore<WorkbenchState> {
-  const read = (): WorkbenchState => {
-    const u = ui.getState();
-    return {
-      ...document.getState(),
-      ...pose.getState(),
-      selection: u.selection,
-      dragging: u.dragging,
-      notice: u.notice,
-      recovery: u.recovery,
-      aboutOpen: u.aboutOpen,
-    };
-  };
-  let current = read();
-  const listeners = new Set<(s: WorkbenchState, prev: WorkbenchState) => void>();
-  const update = () => {
-    const prev = current;
-    current = read();
-    for (const l of listeners) l(current, prev);
-  };
-  document.subscribe(update);
-  pose.subscribe(update);
-  // The hover tip and the plots' settings change often and are not part of this view.
-  ui.subscribe((u, prev) => {
-    if (u.selection !== prev.selection || u.dragging !== prev.dragging || u.notice !== prev.notice || u.recovery !== prev.recovery || u.aboutOpen !== prev.aboutOpen) update();
-  });
-  return {
-    getState: () => current,
-    subscribe(listener) {
-      listeners.add(listener);
-      return () => listeners.delete(listener);
-    },
   };
 }

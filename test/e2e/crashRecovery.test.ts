@@ -50,7 +50,10 @@ function profileProcesses(dir: string): { pid: number; args: string }[] {
     .map((m) => ({ pid: Number(m[1]), args: m[2] }));
 }
 
-const state = <T>(page: Page, expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.store.getState(); return ${expr}; })()`);
+/** Reads the workbench's document store (design and its text) in the page. */
+const doc = <T>(page: Page, expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.document.getState(); return ${expr}; })()`);
+/** Reads the workbench's UI store (the recovery offer) in the page. */
+const ui = <T>(page: Page, expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.ui.getState(); return ${expr}; })()`);
 
 async function commitField(page: Page, testId: string, value: string) {
   const f = page.getByTestId(testId);
@@ -67,18 +70,18 @@ it('after the browser process is killed, the next start offers the recovered des
   await commitField(page, 'hp-steering.pivot-z', '117.5');
   await commitField(page, 'hp-upright.steeringArmJoint.right-x', '-88');
   await commitField(page, 'field-name', 'Heron T3 after a crash');
-  await expect.poll(() => state<string>(page, 's.design.name')).toBe('Heron T3 after a crash');
+  await expect.poll(() => doc<string>(page, 's.design.name')).toBe('Heron T3 after a crash');
   expect(await page.getByTestId('dirty-marker').isVisible()).toBe(true);
 
   // Wait for the autosave to write the recovery copy of exactly what is on screen.
   await pollFor(
     page,
-    `localStorage.getItem(${JSON.stringify(RECOVERY_KEY)}) === window.__tiltbench.store.getState().designText`,
+    `localStorage.getItem(${JSON.stringify(RECOVERY_KEY)}) === window.__tiltbench.document.getState().designText`,
     10_000,
     'the recovery copy to match the design on screen',
   );
-  const onScreen = await state<unknown>(page, 's.design');
-  const onScreenText = await state<string>(page, 's.designText');
+  const onScreen = await doc<unknown>(page, 's.design');
+  const onScreenText = await doc<string>(page, 's.designText');
   expect(JSON.parse(onScreenText)).toEqual(onScreen);
   expect(onScreenText).toContain('117.5');
   expect(onScreenText).toContain('-88');
@@ -99,13 +102,13 @@ it('after the browser process is killed, the next start offers the recovered des
     .poll(() => offer.count(), { timeout: 15_000, message: 'no recovery offer after the kill: the recovery copy seen in localStorage never reached the disk' })
     .toBe(1);
   // The copy on offer is the last one autosaved, not an older one.
-  expect(await state<string>(page, 's.recovery && s.recovery.text')).toBe(onScreenText);
+  expect(await ui<string>(page, 's.recovery && s.recovery.text')).toBe(onScreenText);
   expect(await text(offer)).toMatch(/unsaved changes to Heron T3 after a crash/);
   await page.getByTestId('recovery-restore').click();
-  await expect.poll(() => state<string>(page, 's.design.name')).toBe('Heron T3 after a crash');
+  await expect.poll(() => doc<string>(page, 's.design.name')).toBe('Heron T3 after a crash');
 
-  expect(await state<unknown>(page, 's.design')).toEqual(onScreen);
-  expect(await state<string>(page, 's.designText')).toBe(onScreenText);
+  expect(await doc<unknown>(page, 's.design')).toEqual(onScreen);
+  expect(await doc<string>(page, 's.designText')).toBe(onScreenText);
   expect(await page.getByTestId('hp-steering.pivot-z').inputValue()).toBe('117.5');
   expect(await page.getByTestId('hp-upright.steeringArmJoint.right-x').inputValue()).toBe('-88');
   expect(await page.getByTestId('field-name').inputValue()).toBe('Heron T3 after a crash');

@@ -41,7 +41,10 @@ afterEach(async () => {
   expect(problems).toEqual([]);
 });
 
-const state = <T>(expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.store.getState(); return ${expr}; })()`);
+/** Reads the workbench's document store (design, its text, undo history) in the page. */
+const doc = <T>(expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.document.getState(); return ${expr}; })()`);
+/** Reads the workbench's pose store (pose asked for, ride mode, core's outcome) in the page. */
+const pose = <T>(expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.pose.getState(); return ${expr}; })()`);
 
 async function commitField(testId: string, value: string) {
   const f = page.getByTestId(testId);
@@ -91,7 +94,7 @@ describe('workbench', () => {
     await page.mouse.move(box.x + box.width * 0.66, box.y + box.height / 2, { steps: 8 });
     await page.mouse.move(box.x + box.width * 0.78, box.y + box.height / 2, { steps: 8 });
     await page.mouse.up();
-    const lean = await state<number>('s.pose.leanDeg');
+    const lean = await pose<number>('s.pose.leanDeg');
     expect(lean).toBeGreaterThan(10);
     await expect.poll(() => readNumber(page, 'readout-lean')).toBeCloseTo(lean, 2);
     expect(await text(page.getByTestId('readout-camberGround-left'))).not.toBe(camberBefore);
@@ -123,7 +126,7 @@ describe('workbench', () => {
     await commitField('hp-steering.pivot-z', '112.5');
     await page.getByTestId('unlink-upright.wheelCentre').click();
     await commitField('hp-upright.wheelCentre.left-x', '3');
-    const savedText = await state<string>('s.designText');
+    const savedText = await doc<string>('s.designText');
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('file-save').click()]);
     const dir = await mkdtemp(path.join(os.tmpdir(), 'tiltbench-e2e-'));
     const file = path.join(dir, download.suggestedFilename());
@@ -138,8 +141,8 @@ describe('workbench', () => {
     await page.getByTestId('file-open').click();
     const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.getByTestId('confirm-ok').click()]);
     await chooser.setFiles(file);
-    await expect.poll(() => state<string>('s.designText')).toBe(onDisk);
-    expect(await state<unknown>('s.design')).toEqual(JSON.parse(onDisk));
+    await expect.poll(() => doc<string>('s.designText')).toBe(onDisk);
+    expect(await doc<unknown>('s.design')).toEqual(JSON.parse(onDisk));
     expect(await page.getByTestId('hp-upright.wheelCentre.left-x').inputValue()).toBe('3');
     expect(await page.getByTestId('dirty-marker').count()).toBe(0);
     expect(await text(page.getByTestId('doc-title'))).toContain(path.basename(file));
@@ -147,7 +150,7 @@ describe('workbench', () => {
 
   it('a malformed file shows a clear error and loses nothing', async () => {
     await commitField('hp-steering.pivot-z', '111');
-    const before = await state<string>('s.designText');
+    const before = await doc<string>('s.designText');
     await page.getByTestId('open-file-input').setInputFiles({ name: 'broken.tiltsheet', mimeType: 'application/json', buffer: Buffer.from('{ "tiltsheet": 1, "name": "half a file",') });
     const notice = page.getByTestId('notice');
     await notice.waitFor();
@@ -157,7 +160,7 @@ describe('workbench', () => {
     expect(words).toMatch(/still here/);
     await page.screenshot({ path: shotPath('04-malformed') });
     await page.getByTestId('notice-ok').click();
-    expect(await state<string>('s.designText')).toBe(before);
+    expect(await doc<string>('s.designText')).toBe(before);
     expect(await page.getByTestId('dirty-marker').isVisible()).toBe(true);
 
     // Valid JSON with a bad field: the message names the field.
@@ -167,11 +170,11 @@ describe('workbench', () => {
     await notice.waitFor();
     expect(await text(notice)).toMatch(/vehicle\.wheelbaseMm/);
     await page.getByTestId('notice-ok').click();
-    expect(await state<string>('s.designText')).toBe(before);
+    expect(await doc<string>('s.designText')).toBe(before);
   });
 
   it("a design that cannot assemble shows that state, not a broken picture", async () => {
-    const design = JSON.parse(await state<string>('s.designText'));
+    const design = JSON.parse(await doc<string>('s.designText'));
     design.name = 'Tyres too big to reach the ground';
     design.wheels.front.rollingRadiusMm = 1500;
     await page.getByTestId('open-file-input').setInputFiles({ name: 'too-big.tiltsheet', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(design)) });
@@ -179,7 +182,7 @@ describe('workbench', () => {
     await status.waitFor();
     expect(await text(status)).toMatch(/Won't assemble/);
     expect(await text(status)).toMatch(/hardpoints as entered/);
-    expect(await state<string>('s.outcome.shown')).toBe('as-entered');
+    expect(await pose<string>('s.outcome.shown')).toBe('as-entered');
     expect(await text(page.getByTestId('readouts'))).toMatch(/No readings/);
     expect(await text(page.getByTestId('alerts'))).toMatch(/cannot reach this pose/);
     await waitForPicture(page);
@@ -192,7 +195,7 @@ describe('workbench', () => {
     await status.waitFor();
     expect(await text(status)).toMatch(/Won't reach this pose/);
     expect(await text(status)).toMatch(/tie rod/);
-    expect(await state<string>('s.outcome.shown')).toBe('last-good');
+    expect(await pose<string>('s.outcome.shown')).toBe('last-good');
     await waitForPicture(page);
     await page.screenshot({ path: shotPath('06-unreachable-pose') });
     await commitField('pose-handlebarDeg', '5');
@@ -219,9 +222,9 @@ describe('workbench', () => {
     await chart.waitFor({ timeout: 60_000 });
     await pollFor(page, `document.querySelectorAll('[data-testid=chart-map] svg path, [data-testid=chart-map] svg rect').length > 50`, 60_000, 'the heat map');
     const box = (await chart.boundingBox())!;
-    await page.mouse.click(box.x + 62 + (box.width - 62 - 150) * 0.85, box.y + 58 + (box.height - 58 - 44) * 0.2);
-    await expect.poll(() => state<number>('s.pose.leanDeg')).toBeGreaterThan(5);
-    expect(Math.abs(await state<number>('s.pose.handlebarDeg'))).toBeGreaterThan(5);
+    await page.mouse.click(box.x + 62 + (box.width - 62 - 170) * 0.85, box.y + 58 + (box.height - 58 - 44) * 0.2);
+    await expect.poll(() => pose<number>('s.pose.leanDeg')).toBeGreaterThan(5);
+    expect(Math.abs(await pose<number>('s.pose.handlebarDeg'))).toBeGreaterThan(5);
     await waitForPicture(page);
     await page.screenshot({ path: shotPath('08-envelope-map') });
   });
@@ -233,12 +236,12 @@ describe('gizmo', () => {
     await page.getByTestId('hp-upright.steeringArmJoint.right').locator('th').click();
     await page.getByTestId('gizmo-bar').waitFor();
     await waitForPicture(page);
-    const before = await state<{ x: number; y: number; z: number }>('s.design.upright.steeringArmJoint');
+    const before = await doc<{ x: number; y: number; z: number }>('s.design.upright.steeringArmJoint');
     const toeBefore = await text(page.getByTestId('readout-toe-right'));
     const canvas = (await page.locator('[data-testid=viewport] canvas').boundingBox())!;
     const [px, py] = await evalIn<[number, number]>(
       page,
-      `(() => { const p = window.__tiltbench.store.getState().outcome.snapshot.points['upright.steeringArmJoint.right']; return window.__tiltbenchStats.project(p[0], p[1], p[2]); })()`,
+      `(() => { const p = window.__tiltbench.pose.getState().outcome.snapshot.points['upright.steeringArmJoint.right']; return window.__tiltbenchStats.project(p[0], p[1], p[2]); })()`,
     );
     const x0 = canvas.x + px;
     const y0 = canvas.y + py;
@@ -247,14 +250,14 @@ describe('gizmo', () => {
     for (let k = 1; k <= 10; k++) await page.mouse.move(x0 + 3 * k, y0 - 2 * k);
     await page.mouse.up();
     await waitForPicture(page);
-    const after = await state<{ x: number; y: number; z: number }>('s.design.upright.steeringArmJoint');
+    const after = await doc<{ x: number; y: number; z: number }>('s.design.upright.steeringArmJoint');
     expect(after).not.toEqual(before);
-    expect(await state<number>('s.history.past.length')).toBe(1);
-    expect(await state<string>('s.history.past[0].label')).toMatch(/move right upright steering arm joint/);
+    expect(await doc<number>('s.history.past.length')).toBe(1);
+    expect(await doc<string>('s.history.past[0].label')).toMatch(/move right upright steering arm joint/);
     await expect.poll(() => text(page.getByTestId('readout-toe-right'))).not.toBe(toeBefore);
     await page.screenshot({ path: shotPath('09-gizmo-drag') });
     await page.getByTestId('undo').click();
-    expect(await state<unknown>('s.design.upright.steeringArmJoint')).toEqual(before);
+    expect(await doc<unknown>('s.design.upright.steeringArmJoint')).toEqual(before);
     await expect.poll(() => text(page.getByTestId('readout-toe-right'))).toBe(toeBefore);
   });
 });

@@ -1,6 +1,7 @@
 // The sweep client: progress, cancel, and the main-thread fallback when no worker can start.
 import { describe, expect, it } from 'vitest';
 import { CancelledError, SweepClient } from '../../renderer/workers/sweepClient';
+import { computeMap } from '../../renderer/workers/sweepJobs';
 import { demoDesign } from './helpers';
 
 /** A stand-in worker that never loads (as a file:// page may refuse module workers). */
@@ -24,9 +25,15 @@ describe('sweep client', () => {
 
   it('falls back to the main thread when the worker fails to load, for the same job', async () => {
     const client = new SweepClient(() => new BrokenWorker() as unknown as Worker);
-    const map = await client.map({ design: demoDesign('wren-rack-trike'), angleStepDeg: 10 });
-    expect(map.cells.length).toBeGreaterThan(0);
+    const request = { design: demoDesign('heron-tilting-velomobile'), angleStepDeg: 10 };
+    const map = await client.map(request);
     expect(client.usesWorker).toBe(false);
+    // The same job run on the main thread directly: every cell, verdict, region flag and
+    // balanced line the same (only the time it took differs).
+    const reference = computeMap(request);
+    expect(map.cells.length).toBeGreaterThan(0);
+    expect(map.balancedLines.length).toBeGreaterThan(0);
+    expect({ ...map, elapsedMs: 0 }).toEqual({ ...reference, elapsedMs: 0 });
   });
 
   it('cancel rejects the running job with CancelledError', async () => {
