@@ -15,6 +15,9 @@ import { balancedLeanDeg, lateralG, turnOf } from './ridingRegion';
 export const BALANCE_TOLERANCE_DEG = 1e-6;
 const MAX_BALANCE_STEPS = 60;
 
+/** What the ride solve found, without the pose itself: the figures a report or a readout shows. */
+export type RideFigures = Omit<RidePose, 'pose'>;
+
 export interface RidePose {
   pose: EnginePose;
   speedKmh: number;

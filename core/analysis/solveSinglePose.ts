@@ -12,7 +12,7 @@ import type { SolveResult } from '../solver/PoseSolver';
 import type { PoseSnapshot } from './poseSnapshot';
 import type { PoseAnalysis, PoseInputsReport } from './analysisTypes';
 import { PoseEngine, type EnginePose } from './PoseEngine';
-import { solveRide } from './ridePose';
+import { solveRide, type RideFigures } from './ridePose';
 import { buildMechanism } from '../mechanism/templates/buildMechanism';
 import { PoseSolver } from '../solver/PoseSolver';
 import { formatPoseAnalysis } from './formatPoseAnalysis';
@@ -44,15 +44,7 @@ export interface LimitReport {
   misclosureAtRequestMm: number | null;
 }
 
-export interface RideReport {
-  speedKmh: number;
-  leanDeg: number;
-  balancedLeanDeg: number | null;
-  balanceResidualDeg: number | null;
-  lateralG: number | null;
-  steps: number;
-  notes: string[];
-}
+export type RideReport = RideFigures;
 
 export interface WheelReport {
   toeDeg: number;
@@ -110,10 +102,10 @@ export function solveSinglePose(
   let ride: RideReport | undefined;
   let pose: EnginePose;
   if (request.speedKmh !== undefined) {
-    const r = solveRide(engine, request.speedKmh, inputs);
-    pose = r.pose;
-    ride = { speedKmh: r.speedKmh, leanDeg: r.leanDeg, balancedLeanDeg: r.balancedLeanDeg, balanceResidualDeg: r.balanceResidualDeg, lateralG: r.lateralG, steps: r.steps, notes: r.notes };
-    inputs.leanDeg = r.leanDeg;
+    const { pose: solved, ...figures } = solveRide(engine, request.speedKmh, inputs);
+    pose = solved;
+    ride = figures;
+    inputs.leanDeg = figures.leanDeg;
   } else {
     pose = engine.solve(inputs);
   }

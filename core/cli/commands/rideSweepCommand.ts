@@ -4,25 +4,17 @@
  * speed, the balance residual and the lateral acceleration before the usual pose columns (the
  * lean column holds the balanced lean found).
  */
-import { closeSync, openSync, writeSync } from 'node:fs';
+import { closeSync, writeSync } from 'node:fs';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs, rangeOption } from '../args';
 import type { RideAxes, RideCell, RideSweepSummary } from '../../analysis/rideSweep';
 import type { CellValue } from '../../analysis/poseColumns';
-import { parseContact, progressBar, sweepHelp } from './sweep';
+import { csvValue, jsonValue, openOutput, parseContact, progressBar, sweepHelp } from './sweep';
 
 /** Largest ride grid (poses): each pose takes a few solves to find its balance. */
 export const MAX_RIDE_POSES = 20_000;
-
-const round6 = (v: CellValue): CellValue => (typeof v === 'number' ? Math.round(v * 1e6) / 1e6 : v);
-
-function csvValue(v: CellValue): string {
-  if (v === null) return '';
-  if (typeof v === 'number') return String(round6(v));
-  return /[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
-}
 
 interface RideRequest {
   axes: RideAxes;
@@ -81,19 +73,14 @@ export async function runRideSweepCommand(argv: string[], io: CliIo): Promise<nu
     ...columns.map((c) => ({ name: c.name, unit: c.unit })),
   ];
   const values = (r: RideCell): CellValue[] => [r.speedKmh, r.balanceResidualDeg, r.lateralG, r.notes.join('; '), ...cellRow(columns, r.cell)];
-  let fd: number;
-  try {
-    fd = openSync(out, 'w');
-  } catch (e) {
-    io.err(`tiltbench sweep: cannot write ${out}: ${(e as Error).message}\n`);
-    return EXIT_BAD_INPUT;
-  }
+  const fd = openOutput(out, io);
+  if (fd === null) return EXIT_BAD_INPUT;
   const write = (t: string) => writeSync(fd, t);
   let first = true;
   const emit = (r: RideCell) => {
     if (format === 'csv') write(values(r).map(csvValue).join(',') + '\n');
     else {
-      write((first ? '\n    ' : ',\n    ') + JSON.stringify(values(r).map(round6)));
+      write((first ? '\n    ' : ',\n    ') + JSON.stringify(values(r).map(jsonValue)));
       first = false;
     }
   };

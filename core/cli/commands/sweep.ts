@@ -56,14 +56,24 @@ export function progressBar(io: CliIo, label: string): { update(done: number, to
   };
 }
 
-function csvValue(v: CellValue): string {
+export function csvValue(v: CellValue): string {
   if (v === null) return '';
   if (typeof v === 'number') return String(Math.round(v * 1e6) / 1e6);
   return /[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
 }
 
-function jsonValue(v: CellValue): CellValue {
+export function jsonValue(v: CellValue): CellValue {
   return typeof v === 'number' ? Math.round(v * 1e6) / 1e6 : v;
+}
+
+/** Open a sweep's output file, or say why not (null). */
+export function openOutput(out: string, io: CliIo): number | null {
+  try {
+    return openSync(out, 'w');
+  } catch (e) {
+    io.err(`tiltbench sweep: cannot write ${out}: ${(e as Error).message}\n`);
+    return null;
+  }
 }
 
 export function summaryLine(s: SweepSummary): string {
@@ -160,13 +170,8 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
     }
     throw e;
   }
-  let fd: number;
-  try {
-    fd = openSync(out, 'w');
-  } catch (e) {
-    io.err(`tiltbench sweep: cannot write ${out}: ${(e as Error).message}\n`);
-    return EXIT_BAD_INPUT;
-  }
+  const fd = openOutput(out, io);
+  if (fd === null) return EXIT_BAD_INPUT;
   const columns: Column[] = poseColumns(design);
   const nL = axes.leanDeg.length;
   const nS = axes.handlebarDeg.length;
