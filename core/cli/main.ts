@@ -8,6 +8,7 @@ import { runPose, poseHelp } from './commands/pose';
 import { runSweepCommand, sweepHelp } from './commands/sweep';
 import { runCheck, checkHelp } from './commands/check';
 import { runSensitivityCommand, sensitivityHelp } from './commands/sensitivity';
+import { runToleranceCommand, toleranceHelp } from './commands/tolerance';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -21,6 +22,7 @@ export const COMMANDS: Record<string, CliCommand> = {
   sweep: { run: runSweepCommand, help: sweepHelp },
   check: { run: runCheck, help: checkHelp },
   sensitivity: { run: runSensitivityCommand, help: sensitivityHelp },
+  tolerance: { run: runToleranceCommand, help: toleranceHelp },
 };
 
 function usage(): string {

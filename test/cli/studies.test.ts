@@ -1,6 +1,8 @@
 // The study commands: sensitivity and tolerance. Text in words (no identifiers), JSON, the
 // caution, progress on a terminal only, exit codes 0 / 1 / 2 as the help texts state.
 import { describe, it, expect } from 'vitest';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main } from '../../core/cli/main';
 import type { CliIo } from '../../core/cli/io';
@@ -77,6 +79,72 @@ describe('tiltbench sensitivity', () => {
       [['sensitivity', WREN, '--poses', '10,0'], /does not tilt/],
       [['sensitivity', join(DESIGNS, 'no-such.tiltsheet')], /no such file/],
       [['sensitivity'], /expected one design file/],
+    ];
+    for (const [argv, message] of cases) {
+      const r = await run(argv);
+      expect(r.code, argv.join(' ')).toBe(2);
+      expect(r.err, argv.join(' ')).toMatch(message);
+    }
+  }, 60_000);
+});
+
+describe('tiltbench tolerance', () => {
+  it('prints the spread in words with the seed, distribution and caution; exit 0 when at least 95 % are within', async () => {
+    const r = await run(['tolerance', WREN, '--samples', '30', '--band', '0.1', '--poses', '0,2;0,-2']);
+    expect(r.code, r.out + r.err).toBe(0);
+    expect(r.out).toMatch(/Monte Carlo with the full solve/);
+    expect(r.out).toMatch(/band \+-0\.1 mm \(\d+ coordinates\), normal, the band being 3 standard deviations/);
+    expect(r.out).toMatch(/seed 1\b/);
+    expect(r.out).toMatch(/samples: 30 asked, 30 done, 30 measured, 0 could not be assembled/);
+    expect(r.out).toMatch(/histogram of worst slip angle \(toe mismatch\) over the poses/);
+    expect(r.out).toMatch(/what drives the spread/);
+    expect(r.out).toMatch(/^at each pose:/m);
+    expect(r.out).toContain(SAFETY_CAUTION);
+    expect(identifiers(r.out)).toEqual([]);
+    expect(r.err).toBe('');
+  }, 60_000);
+
+  it('exit 1 when fewer than 95 % of the samples keep every tolerance; the same seed gives the same JSON', async () => {
+    const argv = ['tolerance', HERON, '--samples', '2000', '--seed', '77', '--method', 'first-order', '--poses', '20,-5;-10,5', '--json'];
+    const a = await run(argv);
+    const b = await run(argv);
+    expect(a.code).toBe(1); // the Heron's slip is far outside its tolerance at lean 20 deg
+    const ja = JSON.parse(a.out);
+    const jb = JSON.parse(b.out);
+    expect({ ...ja, elapsedMs: null }).toEqual({ ...jb, elapsedMs: null });
+    expect(ja.seed).toBe(77);
+    expect(ja.withinAll).toBeLessThan(0.95);
+    expect(ja.caution).toBe(SAFETY_CAUTION);
+    const slip = ja.overPoses.find((s: { id: string }) => s.id === 'slip');
+    expect(slip.summary.histogram.counts.reduce((x: number, y: number) => x + y, 0)).toBe(2000);
+    expect(slip.drivers[0].point).toMatch(/^(left|right) /);
+  }, 60_000);
+
+  it('exit 1 and says so when samples cannot be assembled; progress on a terminal', async () => {
+    const r = await run(['tolerance', SWIFT, '--samples', '3', '--band', '0.3', '--poses', '-35,15'], true);
+    expect(r.code).toBe(1);
+    expect(r.out).toMatch(/samples that could not be assembled \(first few\):\n {2}sample \d+: /);
+    expect(r.err).toMatch(/tolerance \[#+\.*\] +\d+% \d+\/\d+ steps/);
+    expect(identifiers(r.out)).toEqual([]);
+  }, 60_000);
+
+  it('exit 2 for bad input, naming the option and the limit', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tb-tol-'));
+    const unknown = join(dir, 'unknown.json');
+    writeFileSync(unknown, JSON.stringify({ 'upright.nose': 0.2 }));
+    const broken = join(dir, 'broken.json');
+    writeFileSync(broken, '{ "upright.wheelCentre": ');
+    const cases: [string[], RegExp][] = [
+      [['tolerance', HERON], /--samples SAMPLES is required/],
+      [['tolerance', HERON, '--samples', '20001'], /from 1 to 20000/],
+      [['tolerance', HERON, '--samples', '0', '--method', 'first-order'], /from 1 to 1000000/],
+      [['tolerance', HERON, '--samples', '10', '--seed', '-1'], /--seed/],
+      [['tolerance', HERON, '--samples', '10', '--band', '6'], /--band: expected more than 0 and at most 5 mm/],
+      [['tolerance', HERON, '--samples', '10', '--distribution', 'cauchy'], /expected normal or uniform, found "cauchy"/],
+      [['tolerance', HERON, '--samples', '10', '--method', 'guess'], /expected monte-carlo or first-order/],
+      [['tolerance', HERON, '--samples', '10', '--bands', join(dir, 'none.json')], /cannot read .*no such file/],
+      [['tolerance', HERON, '--samples', '10', '--bands', broken], /is not JSON/],
+      [['tolerance', HERON, '--samples', '10', '--bands', unknown], /"upright\.nose" is not a hardpoint of this design/],
     ];
     for (const [argv, message] of cases) {
       const r = await run(argv);
