@@ -135,7 +135,7 @@ describe('tiltbench tolerance', () => {
     const broken = join(dir, 'broken.json');
     writeFileSync(broken, '{ "upright.wheelCentre": ');
     const cases: [string[], RegExp][] = [
-      [['tolerance', HERON], /--samples SAMPLES is required/],
+      [['tolerance', HERON, '--samples', 'many'], /--samples: expected a whole number of samples from 1 to 20000, found "many"/],
       [['tolerance', HERON, '--samples', '20001'], /from 1 to 20000/],
       [['tolerance', HERON, '--samples', '0', '--method', 'first-order'], /from 1 to 1000000/],
       [['tolerance', HERON, '--samples', '10', '--seed', '-1'], /--seed/],

@@ -35,14 +35,17 @@ export function boundedOption(args: ParsedArgs, name: string, unit: string, fall
   return v;
 }
 
-/** A whole-number option in [lo, hi]. */
+/** A whole-number option in [lo, hi]; required when there is no fallback. */
 export function countOption(args: ParsedArgs, name: string, what: string, fallback: number | undefined, lo: number, hi: number): number {
-  if (!args.options.has(name)) {
-    if (fallback === undefined) throw new ArgError(`option --${name} ${what.toUpperCase()} is required`);
+  const raw = args.options.get(name);
+  if (raw === undefined) {
+    if (fallback === undefined) throw new ArgError(`option --${name} is required (a whole number of ${what} from ${lo} to ${hi})`);
     return fallback;
   }
-  const v = numberOption(args, name, what, NaN);
-  if (!Number.isInteger(v) || v < lo || v > hi) throw new ArgError(`option --${name}: expected a whole number of ${what} from ${lo} to ${hi}, found ${args.options.get(name)}`);
+  const v = raw === true ? NaN : Number(raw);
+  if (raw === true || raw.trim() === '' || !Number.isInteger(v) || v < lo || v > hi) {
+    throw new ArgError(`option --${name}: expected a whole number of ${what} from ${lo} to ${hi}, found ${raw === true ? 'no value' : `"${raw}"`}`);
+  }
   return v;
 }
 

@@ -11,17 +11,20 @@ import { POSES_HELP, boundedOption, countOption, parsePoses, stopOnInterrupt, st
 
 /** Limits, stated in the help and refused (exit 2) beyond. */
 export const TOLERANCE_LIMITS = { monteCarloSamples: 20_000, firstOrderSamples: 1_000_000, bandMm: 5, bandsFileBytes: 1024 * 1024 };
+/** Samples when none are asked for: a few seconds of full solves on a demo design. */
+export const DEFAULT_SAMPLES = 200;
 /** Share of samples that must be inside every tolerance for exit 0. */
 export const REQUIRED_WITHIN = 0.95;
 
-export const toleranceHelp = `tiltbench tolerance <design.tiltsheet> --samples N [--seed S] [--band MM] [--bands FILE.json] [--distribution normal|uniform] [--method monte-carlo|first-order] [--poses "LEAN,HANDLEBAR[,TRAVEL];..."] [--json]
+export const toleranceHelp = `tiltbench tolerance <design.tiltsheet> [--samples N] [--seed S] [--band MM] [--bands FILE.json] [--distribution normal|uniform] [--method monte-carlo|first-order] [--poses "LEAN,HANDLEBAR[,TRAVEL];..."] [--json]
   How far self-steer, slip (toe mismatch) and the joint margins scatter over built vehicles whose
   hardpoints are off by their manufacturing tolerances: every point's x, y and z on each side off
   independently within +-band. Reports the design as drawn, mean, standard deviation, the 5th,
   50th and 95th percentiles and a histogram of each, the share of samples inside the design's
   tolerances, and which tolerances drive the spread (first-order estimate from the sensitivity:
   sigma^2 = sum (dq/dx_i sigma_i)^2, printed beside the sampled spread).
-  --samples N                         samples: 1 to ${TOLERANCE_LIMITS.monteCarloSamples} for monte-carlo, 1 to ${TOLERANCE_LIMITS.firstOrderSamples} for first-order
+  --samples N                         samples (default ${DEFAULT_SAMPLES}): 1 to ${TOLERANCE_LIMITS.monteCarloSamples} for monte-carlo,
+                                      1 to ${TOLERANCE_LIMITS.firstOrderSamples} for first-order
   --seed S                            seed of the random errors, a whole number 0 to 4294967295
                                       (default 1; the same seed gives the same numbers)
   --band MM                           +- band of every coordinate (default 0.5, at most ${TOLERANCE_LIMITS.bandMm})
@@ -147,7 +150,7 @@ export async function runToleranceCommand(argv: string[], io: CliIo): Promise<nu
     designPath = args.positionals[0];
     method = choice(args, 'method', ['monte-carlo', 'first-order'] as const, 'monte-carlo');
     const most = method === 'monte-carlo' ? TOLERANCE_LIMITS.monteCarloSamples : TOLERANCE_LIMITS.firstOrderSamples;
-    samples = countOption(args, 'samples', 'samples', undefined, 1, most);
+    samples = countOption(args, 'samples', 'samples', DEFAULT_SAMPLES, 1, most);
     seed = countOption(args, 'seed', 'seed', 1, 0, 0xffffffff);
     bands = readBands(args, boundedOption(args, 'band', 'mm', 0.5, 0, TOLERANCE_LIMITS.bandMm));
     distribution = choice(args, 'distribution', ['normal', 'uniform'] as const, 'normal');
