@@ -26,9 +26,8 @@
 import type { DesignFile } from '../design/types';
 import { resolveDesign } from '../design/resolveDesign';
 import { offsetDesignFile, studyCoordinates, type SideMode, type StudyCoordinate } from './studyCoordinates';
-import { checkStudyPoses, measureAtPoses, poseWords, regionSamplePoses, studyPoseInputs, type StudyPose } from './studyPoses';
+import { StudyInputError, checkStudyPoses, measureAtPoses, poseWords, regionSamplePoses, type StudyPose } from './studyPoses';
 import { activeEntry, objectiveValue, studyObjectives, studyQuantities, type StudyObjective, type StudyQuantity } from './studyQuantities';
-import { PoseEngine } from '../analysis/PoseEngine';
 
 export const DEFAULT_STEP_MM = 0.5;
 /** Relative agreement of the rates at h and h/2 taken as linear. */
@@ -146,11 +145,8 @@ export function setUpStudy(file: DesignFile, given: StudyPose[] | undefined): St
     poses = s.poses;
     regionSample = { outside: s.outside, notAssembled: s.notAssembled };
   }
-  // The joints (names and sides) come from a pose of the design as it is.
-  const engine = new PoseEngine(design, { contact: 'ground', steerBy: 'handlebar' }, { findings: false });
-  const first = poses.length > 0 ? engine.solve(studyPoseInputs(poses[0])).analysis ?? engine.solve(studyPoseInputs({ leanDeg: 0, handlebarDeg: 0, travelMm: 0 })).analysis : null;
-  if (!first) throw new Error('the design cannot be assembled at its design pose');
-  const quantities = studyQuantities(first);
+  if (poses.length === 0) throw new StudyInputError('no pose of the region sample lies in the operating region: give poses with --poses');
+  const quantities = studyQuantities(design);
   const measured = measureAtPoses(design, poses, quantities);
   const bad = new Set(measured.failed.map((f) => f.pose));
   const Q = quantities.length;

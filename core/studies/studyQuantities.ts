@@ -16,7 +16,7 @@
  * order is taken.
  */
 
-import type { Side, Tolerances } from '../design/types';
+import type { ResolvedDesign, Side, Tolerances } from '../design/types';
 import type { JointName, PoseAnalysis } from '../analysis/analysisTypes';
 import { jointWords } from '../analysis/words';
 
@@ -41,17 +41,17 @@ export interface StudyObjective {
 
 const SIDES: readonly Side[] = ['left', 'right'];
 
-/** The quantities of a design, its joints taken from a measured pose (their names and sides). */
-export function studyQuantities(sample: PoseAnalysis): StudyQuantity[] {
+/** The quantities of a design: every joint it has on each side (the analysis measures all of them). */
+export function studyQuantities(design: ResolvedDesign): StudyQuantity[] {
   const qs: StudyQuantity[] = [];
   for (const side of SIDES) qs.push({ id: `selfSteer.${side}`, label: `self-steer, ${side} wheel`, unit: 'deg', read: (a) => a.selfSteer[`${side}Deg`] });
   for (const side of SIDES) qs.push({ id: `slip.${side}`, label: `slip angle (toe mismatch), ${side} wheel`, unit: 'deg', read: (a) => a.slip[side].slipDeg });
   qs.push({ id: 'ackermannError', label: 'Ackermann error (outer wheel against the ideal)', unit: 'deg', read: (a) => a.ackermann.errorDeg });
   qs.push({ id: 'ratioChange', label: 'steering-ratio change from upright', unit: '%', read: (a) => a.steering.ratioChangePct });
-  for (const j of sample.joints) {
-    const name: JointName = j.joint;
-    const side = j.side;
-    qs.push({ id: `joint.${name}.${side}`, label: `joint margin, ${jointWords(name, side)}`, unit: 'deg', read: (a) => a.joints.find((x) => x.joint === name && x.side === side)?.marginDeg ?? null });
+  for (const side of SIDES) {
+    for (const name of Object.keys(design.joints) as JointName[]) {
+      qs.push({ id: `joint.${name}.${side}`, label: `joint margin, ${jointWords(name, side)}`, unit: 'deg', read: (a) => a.joints.find((x) => x.joint === name && x.side === side)?.marginDeg ?? null });
+    }
   }
   qs.push({ id: 'leastJointMargin', label: 'least joint margin', unit: 'deg', read: (a) => a.worst.jointMarginDeg });
   return qs;
