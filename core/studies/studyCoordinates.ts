@@ -16,6 +16,7 @@
  */
 
 import { hardpointIds } from '../design/hardpointCsv';
+import { hardpointEntries } from '../design/hardpointCatalogue';
 import { isTwoSided, resolveSidedVec } from '../design/resolveDesign';
 import type { DesignFile, Side, Vec3Mm } from '../design/types';
 
@@ -41,33 +42,10 @@ export interface StudyCoordinate {
 /** How sided points are studied. */
 export type SideMode = 'together' | 'each';
 
-/**
- * Words for each hardpoint field, as the workbench's hardpoint table has them (its group,
- * then its label). Kept here too because core may not import the renderer; a field missing
- * from this list is named from its path.
- */
+/** Words for a hardpoint field from the hardpoint catalogue (its group, then its label). */
 function tableWords(file: DesignFile, key: string): { group: string; label: string } | null {
-  const parts = key.split('.');
-  if (parts[0] === 'frontEnd' && parts.length === 3) {
-    const level = parts[1] === 'upper' ? 'upper' : 'lower';
-    const group = file.frontEnd.kind === 'splitWishbones' ? `${level} wishbone` : `${level} centre member`;
-    const label = { frontPivot: 'front pivot', rearPivot: 'rear pivot', outerJoint: 'outer joint', pivot: 'centre pivot' }[parts[2]];
-    return label ? { group, label } : null;
-  }
-  const s = file.steering;
-  const steeringGroup = s.kind === 'bellCrank' ? 'bell crank' : s.kind === 'rack' ? 'rack' : 'steering lever';
-  const fixed: Record<string, { group: string; label: string }> = {
-    'upright.steeringArmJoint': { group: 'upright', label: 'steering arm joint' },
-    'upright.wheelCentre': { group: 'upright', label: 'wheel centre' },
-    'steering.pivot': { group: steeringGroup, label: s.kind === 'direct' ? 'column pivot' : 'pivot' },
-    'steering.tieRodJoint': { group: steeringGroup, label: s.kind === 'rack' ? 'rack end joint' : 'tie rod joint' },
-    'steering.input.columnPivot': { group: 'drag link input', label: 'column pivot' },
-    'steering.input.columnArmJoint': { group: 'drag link input', label: 'column arm joint' },
-    'steering.input.crankArmJoint': { group: 'drag link input', label: 'crank arm joint' },
-    'spring.frameMount': { group: 'spring', label: 'frame mount' },
-    'spring.armMount': { group: 'spring', label: 'arm mount' },
-  };
-  return fixed[key] ?? null;
+  const e = hardpointEntries(file).find((x) => x.key === key);
+  return e ? { group: e.group.toLowerCase(), label: e.label } : null;
 }
 
 /** 'frontEnd.upper.frontPivot' -> 'front end upper front pivot' (for a field the table does not name). */

@@ -11,18 +11,12 @@
 import { isTwoSided, mirrorY, resolveSidedVec } from '../../core/design/resolveDesign';
 import type { DesignFile, Side, Sided, Vec3Mm } from '../../core/design/types';
 import { getAt } from './designPath';
+import { hardpointEntries } from '../../core/design/hardpointCatalogue';
+
+export { hardpointEntries, type HardpointEntry } from '../../core/design/hardpointCatalogue';
 
 export type Axis = 'x' | 'y' | 'z';
 export const AXES: readonly Axis[] = ['x', 'y', 'z'];
-
-export interface HardpointEntry {
-  /** Path of the field in the design file, dotted. */
-  key: string;
-  label: string;
-  group: string;
-  /** A per-side point (mirrored or given for both sides) or a single centre point. */
-  sided: boolean;
-}
 
 export interface HardpointRow {
   /** Selection id: the design-file path with the side, as core's drawing layout names hardpoints. */
@@ -34,47 +28,6 @@ export interface HardpointRow {
   value: Vec3Mm;
   /** Sided points only: true when the file holds one value mirrored to the left. */
   linked: boolean;
-}
-
-export function hardpointEntries(d: DesignFile): HardpointEntry[] {
-  const out: HardpointEntry[] = [];
-  const add = (key: string, label: string, group: string, sided = true) => out.push({ key, label, group, sided });
-  if (d.frontEnd.kind === 'splitWishbones') {
-    for (const level of ['upper', 'lower'] as const) {
-      const g = `${level === 'upper' ? 'Upper' : 'Lower'} wishbone`;
-      add(`frontEnd.${level}.frontPivot`, 'front pivot', g);
-      add(`frontEnd.${level}.rearPivot`, 'rear pivot', g);
-      add(`frontEnd.${level}.outerJoint`, 'outer joint', g);
-    }
-  } else {
-    for (const level of ['upper', 'lower'] as const) {
-      const g = `${level === 'upper' ? 'Upper' : 'Lower'} centre member`;
-      add(`frontEnd.${level}.pivot`, 'centre pivot', g, false);
-      add(`frontEnd.${level}.outerJoint`, 'outer joint', g);
-    }
-  }
-  add('upright.steeringArmJoint', 'steering arm joint', 'Upright');
-  add('upright.wheelCentre', 'wheel centre', 'Upright');
-  const s = d.steering;
-  if (s.kind === 'bellCrank') {
-    add('steering.pivot', 'pivot', 'Bell crank', false);
-    add('steering.tieRodJoint', 'tie rod joint', 'Bell crank');
-    if (s.input.kind === 'dragLink') {
-      add('steering.input.columnPivot', 'column pivot', 'Drag link input', false);
-      add('steering.input.columnArmJoint', 'column arm joint', 'Drag link input', false);
-      add('steering.input.crankArmJoint', 'crank arm joint', 'Drag link input', false);
-    }
-  } else if (s.kind === 'rack') {
-    add('steering.tieRodJoint', 'rack end joint', 'Rack');
-  } else {
-    add('steering.pivot', 'column pivot', 'Steering lever', false);
-    add('steering.tieRodJoint', 'tie rod joint', 'Steering lever');
-  }
-  if (d.spring) {
-    add('spring.frameMount', 'frame mount', 'Spring');
-    add('spring.armMount', 'arm mount', 'Spring');
-  }
-  return out;
 }
 
 export function hardpointRows(d: DesignFile): HardpointRow[] {

@@ -1,0 +1,57 @@
+/**
+ * The hardpoint catalogue: which named points a design has, in table order, with the path of
+ * each in the file, its words (group and label, as the workbench's hardpoint table and the
+ * studies name it) and whether it is a per-side point. One list for every caller.
+ */
+import type { DesignFile } from './types';
+
+export interface HardpointEntry {
+  /** Path of the field in the design file, dotted. */
+  key: string;
+  label: string;
+  group: string;
+  /** A per-side point (mirrored or given for both sides) or a single centre point. */
+  sided: boolean;
+}
+
+export function hardpointEntries(d: DesignFile): HardpointEntry[] {
+  const out: HardpointEntry[] = [];
+  const add = (key: string, label: string, group: string, sided = true) => out.push({ key, label, group, sided });
+  if (d.frontEnd.kind === 'splitWishbones') {
+    for (const level of ['upper', 'lower'] as const) {
+      const g = `${level === 'upper' ? 'Upper' : 'Lower'} wishbone`;
+      add(`frontEnd.${level}.frontPivot`, 'front pivot', g);
+      add(`frontEnd.${level}.rearPivot`, 'rear pivot', g);
+      add(`frontEnd.${level}.outerJoint`, 'outer joint', g);
+    }
+  } else {
+    for (const level of ['upper', 'lower'] as const) {
+      const g = `${level === 'upper' ? 'Upper' : 'Lower'} centre member`;
+      add(`frontEnd.${level}.pivot`, 'centre pivot', g, false);
+      add(`frontEnd.${level}.outerJoint`, 'outer joint', g);
+    }
+  }
+  add('upright.steeringArmJoint', 'steering arm joint', 'Upright');
+  add('upright.wheelCentre', 'wheel centre', 'Upright');
+  const s = d.steering;
+  if (s.kind === 'bellCrank') {
+    add('steering.pivot', 'pivot', 'Bell crank', false);
+    add('steering.tieRodJoint', 'tie rod joint', 'Bell crank');
+    if (s.input.kind === 'dragLink') {
+      add('steering.input.columnPivot', 'column pivot', 'Drag link input', false);
+      add('steering.input.columnArmJoint', 'column arm joint', 'Drag link input', false);
+      add('steering.input.crankArmJoint', 'crank arm joint', 'Drag link input', false);
+    }
+  } else if (s.kind === 'rack') {
+    add('steering.tieRodJoint', 'rack end joint', 'Rack');
+  } else {
+    add('steering.pivot', 'column pivot', 'Steering lever', false);
+    add('steering.tieRodJoint', 'tie rod joint', 'Steering lever');
+  }
+  if (d.spring) {
+    add('spring.frameMount', 'frame mount', 'Spring');
+    add('spring.armMount', 'arm mount', 'Spring');
+  }
+  return out;
+}
+
