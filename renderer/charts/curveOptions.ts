@@ -58,6 +58,18 @@ function withNow(series: Record<string, unknown>[], x: number | null): Record<st
   return series;
 }
 
+/** The ± tolerance lines as a legend entry of their own, its icon drawn like the lines (dashed, the limit's colour). */
+function toleranceSeries(tol: number, unit: string): Record<string, unknown> {
+  return {
+    type: 'line',
+    name: `tolerance ±${tol} ${unit}`,
+    data: [],
+    lineStyle: { color: CHART_COLOURS.limit, type: 'dashed', width: 1 },
+    itemStyle: { color: CHART_COLOURS.limit },
+    markLine: toleranceLines(tol, `${tol} ${unit}`),
+  };
+}
+
 /** The x axis name of a curve, with its unit. */
 const xName = (c: Curve, sign = '') => `${c.x.label} (${c.x.unit}${sign})`;
 
@@ -70,7 +82,7 @@ function selfSteer(set: CurveSet, kind: 'leanSteer' | 'bumpSteer', x: number | n
   if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
   const tol = set.tolerances.selfSteerDeg;
   const series: Record<string, unknown>[] = pick(c, 'selfSteer').map((s) => line(s.label, points(c, s), sideColour(s.id)));
-  series.push({ type: 'line', name: `tolerance ±${tol} deg`, data: [], markLine: toleranceLines(tol, `${tol} deg`) });
+  series.push(toleranceSeries(tol, 'deg'));
   return {
     ...base(title, subtitle + failuresNote(c)),
     xAxis: axis(xName(c, sign)),
@@ -92,7 +104,7 @@ export function ratioChangeOption(set: CurveSet, m: ChartMarker = NO_MARKER): EC
   if (!c) return unavailable('Ratio change', set.missing.ratioLean ?? 'not computed');
   const tol = set.tolerances.ratioChangePct;
   const s = pick(c, 'ratioChange').map((cs) => line(cs.label, points(c, cs), CHART_COLOURS.left));
-  s.push({ type: 'line', name: `tolerance ±${tol} %`, data: [], markLine: toleranceLines(tol, `${tol} %`) });
+  s.push(toleranceSeries(tol, '%'));
   return {
     ...base('Ratio change', 'road-wheel degrees per handlebar degree against upright, handlebar at zero' + failuresNote(c)),
     xAxis: axis(xName(c, ', right side down +')),
@@ -106,7 +118,7 @@ export function slipOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCo
   if (!c) return unavailable('Toe mismatch', set.missing.slipSteer ?? 'not computed');
   const tol = set.tolerances.slipDeg;
   const s = pick(c, 'slip').map((cs) => line(cs.label, points(c, cs), sideColour(cs.id)));
-  s.push({ type: 'line', name: `tolerance ±${tol} deg`, data: [], markLine: toleranceLines(tol, `${tol} deg`) });
+  s.push(toleranceSeries(tol, 'deg'));
   return {
     ...base('Toe mismatch', 'front slip angles about the common turn centre against handlebar, no lean' + failuresNote(c)),
     xAxis: axis(xName(c, ', left +')),

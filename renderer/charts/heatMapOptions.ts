@@ -108,6 +108,26 @@ export function labelAnchor(map: EnvelopeMapData, line: MapBalancedLine, towards
   return last === null ? null : [line.leanDeg[last]!, line.handlebarDeg[last]];
 }
 
+/**
+ * Where a speed's words go beside the end of its line. The text reaches towards the middle of
+ * the map. A line leaving through the top or bottom of the map gets its words beside its end;
+ * otherwise (a line stopped by the lean limit or grip) above or below it: the fastest line of
+ * its half, the flattest, on the side towards straight ahead, where no other line ends, and
+ * the others on the far side, so neighbouring ends do not cover each other's words.
+ */
+function labelPlace(map: EnvelopeMapData, at: [number, number], all: { at: [number, number]; speedKmh: number }[]): Record<string, unknown> {
+  const ys = bandEdges(map.handlebar);
+  const step = ys.length > 1 ? ys[1] - ys[0] : 1;
+  const align = at[0] <= 0 ? 'left' : 'right';
+  const atEdge = (bar: number) => bar >= ys[ys.length - 1] - step || bar <= ys[0] + step;
+  if (atEdge(at[1])) return { position: at[0] <= 0 ? 'right' : 'left' };
+  const upper = at[1] > 0;
+  const sameHalf = all.filter((a) => a.at[1] > 0 === upper && !atEdge(a.at[1]));
+  const fastest = sameHalf.reduce((best, a) => (a.speedKmh > best.speedKmh ? a : best), sameHalf[0]);
+  const towardsStraight = fastest.at === at;
+  return { position: upper === towardsStraight ? 'bottom' : 'top', align, distance: 3 };
+}
+
 /** Core's balanced-turn lines and their speeds, on the hidden value axes. */
 export function balancedLineSeries(map: EnvelopeMapData): Record<string, unknown>[] {
   if (map.balancedLines.length === 0) return [];
@@ -126,11 +146,12 @@ export function balancedLineSeries(map: EnvelopeMapData): Record<string, unknown
     tooltip: { show: false },
   }));
   // Fast lines end close together at the lean limit: the speeds are written at alternate ends
-  // (left lock, right lock, ...), each on the side towards the middle of the map.
-  const labels = map.balancedLines.flatMap((l, k) => {
+  // (left lock, right lock, ...), reaching towards the middle of the map.
+  const anchors = map.balancedLines.flatMap((l, k) => {
     const at = labelAnchor(map, l, k % 2 === 0 ? 1 : -1) ?? labelAnchor(map, l, k % 2 === 0 ? -1 : 1);
-    return at ? [{ value: at, name: `${l.speedKmh} km/h`, label: { position: at[0] <= 0 ? 'right' : 'left' } }] : [];
+    return at ? [{ at, speedKmh: l.speedKmh }] : [];
   });
+  const labels = anchors.map(({ at, speedKmh }) => ({ value: at, name: `${speedKmh} km/h`, label: labelPlace(map, at, anchors) }));
   return [
     ...lines,
     {
@@ -197,16 +218,14 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
   }
   const label = (v: number) => (Number.isInteger(v) ? String(v) : v.toFixed(1));
   const hidden = (edges: number[]) => ({ type: 'value', min: edges[0], max: edges[edges.length - 1], show: false });
-  const speeds = map.balancedLines.length
-    ? `; balanced turns at ${map.balancedLines.map((l) => l.speedKmh).join(', ')} km/h`
-    : '; the vehicle does not lean';
+  const leans = map.balancedLines.length ? '' : '; the vehicle does not lean';
   return {
     animation: false,
     backgroundColor: '#fbfbf8',
     textStyle: { fontFamily: 'system-ui, DejaVu Sans, sans-serif', color: CHART_COLOURS.ink },
     title: {
       text: `Envelope map: ${meta.label.toLowerCase()}`,
-      subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm${speeds}; click a cell to go there`,
+      subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm${leans}; click a cell to go there`,
       left: 8,
       top: 4,
       textStyle: { fontSize: 13 },
@@ -229,7 +248,9 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
       ],
       orient: 'vertical',
       right: 8,
-      bottom: 44,
+      // Under the colour key (five rows of 10 px and 4 px gaps from 58 px).
+      top: 58 + LEVELS.length * 14 + 12,
+      itemGap: 6,
       itemWidth: 24,
       itemHeight: 3,
       selectedMode: false,
@@ -248,6 +269,7 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
       orient: 'vertical',
       right: 8,
       top: 58,
+      itemGap: 4,
       itemWidth: 14,
       itemHeight: 10,
       textStyle: { fontSize: 11 },

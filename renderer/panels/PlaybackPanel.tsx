@@ -38,7 +38,7 @@ export function PlaybackPanel({ controller }: { controller: PlaybackController }
         </select>
       </div>
       <label className="speed-row">
-        <span>Speed</span>
+        <span>Rate</span>
         <input
           type="range"
           min={2}

@@ -104,6 +104,62 @@ describe('workbench', () => {
     await page.screenshot({ path: shotPath('02-leaned') });
   });
 
+  it('ride mode: the speed slider moves the lean to the balanced lean of the turn the handlebar makes', async () => {
+    await commitField('pose-handlebarDeg', '5');
+    await page.getByTestId('mode-ride').click();
+    const slider = page.getByTestId('slider-speedKmh');
+    await slider.waitFor();
+    expect(await page.getByTestId('slider-leanDeg').isDisabled()).toBe(true);
+
+    /** Drags the speed slider to a fraction of its track; returns the speed the pose took. */
+    const dragSpeedTo = async (fraction: number) => {
+      const box = (await slider.boundingBox())!;
+      const from = await pose<number>('s.ride.speedKmh');
+      const min = Number(await slider.getAttribute('min'));
+      const max = Number(await slider.getAttribute('max'));
+      await page.mouse.move(box.x + box.width * ((from - min) / (max - min)), box.y + box.height / 2);
+      await page.mouse.down();
+      await page.mouse.move(box.x + box.width * fraction, box.y + box.height / 2, { steps: 10 });
+      await page.mouse.up();
+      const speed = await pose<number>('s.ride.speedKmh');
+      await expect.poll(() => readNumber(page, 'readout-rideSpeed')).toBeCloseTo(speed, 1);
+      return speed;
+    };
+    /**
+     * The balanced lean of a steady turn, tan(lean) = v^2 / (g R), with R the turn radius
+     * readout and g = 9.80665 m/s^2 (standard gravity, 3rd CGPM 1901; ISO 80000-3); the
+     * point-mass balance of a leaning vehicle, common practice, no source. A left turn
+     * (handlebar +) leans left: negative lean (right side down +).
+     */
+    const balancedLean = (speedKmh: number, radiusMm: number) => -(Math.atan((speedKmh / 3.6) ** 2 / (9.80665 * (radiusMm / 1000))) * 180) / Math.PI;
+
+    const slow = await dragSpeedTo(0.25);
+    expect(slow).toBeGreaterThan(5);
+    const leanSlow = await readNumber(page, 'readout-lean');
+    // The lean readout has two decimals and the radius none: agreement to 0.02 deg.
+    expect(Math.abs(leanSlow - balancedLean(slow, await readNumber(page, 'readout-turnRadius')))).toBeLessThan(0.02);
+    expect(Math.abs(await readNumber(page, 'readout-rideResidual'))).toBeLessThan(1e-3);
+
+    const fast = await dragSpeedTo(0.38);
+    expect(fast).toBeGreaterThan(slow + 5);
+    const leanFast = await readNumber(page, 'readout-lean');
+    expect(leanFast).toBeLessThan(leanSlow - 1);
+    expect(Math.abs(leanFast - balancedLean(fast, await readNumber(page, 'readout-turnRadius')))).toBeLessThan(0.02);
+    const leanSolved = await pose<number>('s.pose.leanDeg');
+    expect(leanSolved).toBeCloseTo(leanFast, 1);
+    expect(await page.getByTestId('pose-leanDeg').inputValue()).toBe(leanSolved.toFixed(1));
+    await waitForPicture(page);
+    await page.screenshot({ path: shotPath('11-ride-mode') });
+
+    // Faster still, this turn needs more lean than the design allows: the lean stops at the
+    // limit and the panel says so.
+    await dragSpeedTo(0.65);
+    await expect.poll(() => text(page.getByTestId('ride-notes'))).toMatch(/no balance within the lean limit/);
+    const limit = await evalIn<number>(page, 'window.__tiltbench.pose.getState().resolved.riding.maxLeanDeg');
+    expect(await pose<number>('s.pose.leanDeg')).toBeCloseTo(-limit, 6);
+    expect(Math.abs(await readNumber(page, 'readout-rideResidual'))).toBeGreaterThan(0.5);
+  });
+
   it('editing a hardpoint changes toe, and undo restores it', async () => {
     await commitField('pose-handlebarDeg', '10');
     await expect.poll(() => readNumber(page, 'readout-handlebar')).toBe(10);
