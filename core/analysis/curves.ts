@@ -79,6 +79,14 @@ const SPEC: Record<CurveKind, { title: string; axis: Axis; contact: SweepContact
   frontLift: { title: 'Front lift with steer', axis: 'handlebar', contact: 'ground' },
 };
 
+/** The input a curve kind sweeps. */
+export function curveAxis(kind: CurveKind): 'lean' | 'handlebar' | 'travel' {
+  return SPEC[kind].axis;
+}
+
+/** Whether a curve kind sweeps lean (nothing to draw for a vehicle that does not lean). */
+export const sweepsLean = (kind: CurveKind): boolean => SPEC[kind].axis === 'lean';
+
 function defaultValues(design: ResolvedDesign, axis: Axis, kind: CurveKind): number[] {
   const e = design.envelope;
   const range = (lo: number, hi: number, n: number) => Array.from({ length: n + 1 }, (_, i) => lo + ((hi - lo) * i) / n);

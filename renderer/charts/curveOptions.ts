@@ -4,7 +4,7 @@
  * without a screen for the CLI's reports (ECharts server-side SVG).
  */
 import type { EChartsCoreOption } from 'echarts/core';
-import type { Curve, CurveKind, CurveSeries } from '../../core/analysis/curves';
+import { CURVE_KINDS, sweepsLean, type Curve, type CurveKind, type CurveSeries } from '../../core/analysis/curves';
 import type { CurveSet } from './chartData';
 import { CHART_COLOURS, axis, base, line, nowLine, toleranceLines, type Pair } from './chartStyle';
 
@@ -286,7 +286,8 @@ export const CHART_CURVES: Record<CurveChartId, CurveKind[]> = {
 };
 
 /** Core's curves swept against lean: a vehicle that does not lean has none of them. */
-export const LEAN_CURVES: ReadonlySet<CurveKind> = new Set<CurveKind>(['leanSteer', 'ratioLean', 'camberLean', 'jointsLean']);
+/** The curve kinds core sweeps along lean. */
+export const LEAN_CURVES: ReadonlySet<CurveKind> = new Set<CurveKind>(CURVE_KINDS.filter(sweepsLean));
 
 export const NO_LEAN_REASON = 'this vehicle does not lean';
 
