@@ -6,23 +6,10 @@
  */
 import type { Riding } from '../../core/design/types';
 import type { ReadoutRow, ReadoutTable } from './analysisAdapter';
+import type { RideFigures as CoreRideFigures } from '../../core/analysis/ridePose';
 
-/** What core's ride solve found, as the workbench shows it. */
-export interface RideFigures {
-  speedKmh: number;
-  /** The lean the pose was solved at (the balanced lean, or the lean limit when balance lies beyond it), deg. */
-  leanDeg: number;
-  /** The lean that balances the turn the solved pose makes, deg; null with a note. */
-  balancedLeanDeg: number | null;
-  /** leanDeg - balancedLeanDeg, deg; null with a note. */
-  balanceResidualDeg: number | null;
-  /** Lateral acceleration of the turn, g; null going straight or not reached. */
-  lateralG: number | null;
-  steps: number;
-  /** Core's words on what limits or explains the answer. */
-  notes: string[];
-  tilting: boolean;
-}
+/** What core's ride solve found (ridePose.ts), and whether the vehicle leans at all. */
+export type RideFigures = CoreRideFigures & { tilting: boolean };
 
 export const RIDE_TABLE_ID = 'ride';
 

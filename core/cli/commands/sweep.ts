@@ -3,6 +3,7 @@ import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs, rangeOption, type ParsedArgs } from '../args';
+import { studyProgressBar } from './studyArgs';
 // The analysis modules are loaded when the command runs, so other commands start faster.
 import type { SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
 import type { CellValue, Column } from '../../analysis/poseColumns';
@@ -35,25 +36,9 @@ export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --s
 /** Largest grid a sweep accepts (poses). */
 export const MAX_SWEEP_POSES = 2_000_000;
 
-/** A progress bar on stderr, drawn only on a terminal and at most every 1 %. */
+/** A progress bar on stderr, drawn only on a terminal and at most every 1 %, counting poses. */
 export function progressBar(io: CliIo, label: string): { update(done: number, total: number): void; end(): void } {
-  let last = -1;
-  let drawn = false;
-  return {
-    update(done, total) {
-      if (!io.isTty || total <= 0) return;
-      const pct = Math.floor((100 * done) / total);
-      if (pct === last) return;
-      last = pct;
-      const width = 30;
-      const filled = Math.round((width * done) / total);
-      io.err(`\r${label} [${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${String(pct).padStart(3)}% ${done}/${total} poses`);
-      drawn = true;
-    },
-    end() {
-      if (drawn) io.err('\n');
-    },
-  };
+  return studyProgressBar(io, label, 'poses');
 }
 
 export function csvValue(v: CellValue): string {
