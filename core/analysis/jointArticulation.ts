@@ -84,6 +84,33 @@ const sinusoid = (a: number, p: number, q: number, s: number): number => a + p *
 const CO = new Float64Array(3);
 const CI = new Float64Array(3);
 const CANDIDATES = new Float64Array(5);
+const IS_OPTIMUM = new Uint8Array(5);
+/** The two ends' cosine coefficients (a, p, q outer; a, p, q inner) of the rod being measured. */
+const COEF = new Float64Array(6);
+
+/** The worse end's cosine at spin s: min of the two ends' a + p cos s + q sin s. */
+function worseCosine(s: number): number {
+  const c = Math.cos(s);
+  const n = Math.sin(s);
+  return Math.min(COEF[0] + COEF[1] * c + COEF[2] * n, COEF[3] + COEF[4] * c + COEF[5] * n);
+}
+
+/** The local optimum (of the first n candidates) met first going round from 0 in direction dir. */
+function nearestOptimum(n: number, dir: 1 | -1): number {
+  let nearest = Infinity;
+  let at = 0;
+  for (let i = 0; i < n; i++) {
+    if (!IS_OPTIMUM[i]) continue;
+    // Angle travelled from 0 in the climbing direction, in (0, 2 pi].
+    let travel = (((dir * CANDIDATES[i]) % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
+    if (travel <= 1e-12) travel += 2 * Math.PI;
+    if (travel < nearest) {
+      nearest = travel;
+      at = dir * travel;
+    }
+  }
+  return at;
+}
 
 export function tieRodArticulation(t: TieRodEnds): TieRodArticulation {
   const e = t.axisNow;
@@ -106,41 +133,36 @@ export function tieRodArticulation(t: TieRodEnds): TieRodArticulation {
     CANDIDATES[n++] = phi + d;
     CANDIDATES[n++] = phi - d;
   }
-  const f = (x: number) => Math.min(sinusoid(ao, po, qo, x), sinusoid(ai, pi, qi, x));
+  // (Module-level coefficients and no closures: this runs twice per pose of every sweep.)
+  COEF[0] = ao;
+  COEF[1] = po;
+  COEF[2] = qo;
+  COEF[3] = ai;
+  COEF[4] = pi;
+  COEF[5] = qi;
   // Climb from the un-spun position (s = 0) to the first local optimum of f met on the way up;
   // where f rises both ways (s = 0 sits in a valley) the climb takes the way to the better one.
-  const f0 = f(0);
+  const f0 = worseCosine(0);
   // A probe wide enough to see the rise out of a smooth valley (quadratic there), narrow
   // enough not to step over a nearby optimum.
   const h = 1e-4;
-  const upPlus = f(h) > f0;
-  const upMinus = f(-h) > f0;
-  const nearestOptimum = (dir: 1 | -1): number => {
-    let nearest = Infinity;
-    let at = 0;
-    for (let i = 0; i < n; i++) {
-      const c = CANDIDATES[i];
-      const fc = f(c);
-      if (!(fc >= f(c - 1e-6) - 1e-12 && fc >= f(c + 1e-6) - 1e-12)) continue; // not a local optimum
-      // Angle travelled from 0 in the climbing direction, in (0, 2 pi].
-      let travel = (((dir * c) % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
-      if (travel <= 1e-12) travel += 2 * Math.PI;
-      if (travel < nearest) {
-        nearest = travel;
-        at = dir * travel;
-      }
-    }
-    return at;
-  };
+  const upPlus = worseCosine(h) > f0;
+  const upMinus = worseCosine(-h) > f0;
+  // Which candidates are local optima, found once for both directions.
+  for (let i = 0; i < n; i++) {
+    const c = CANDIDATES[i];
+    const fc = worseCosine(c);
+    IS_OPTIMUM[i] = fc >= worseCosine(c - 1e-6) - 1e-12 && fc >= worseCosine(c + 1e-6) - 1e-12 ? 1 : 0;
+  }
   let spin = 0;
   if (upPlus && upMinus) {
-    const p = nearestOptimum(1);
-    const m = nearestOptimum(-1);
-    spin = f(m) > f(p) + 1e-15 ? m : p;
-  } else if (upPlus) spin = nearestOptimum(1);
-  else if (upMinus) spin = nearestOptimum(-1);
+    const p = nearestOptimum(n, 1);
+    const m = nearestOptimum(n, -1);
+    spin = worseCosine(m) > worseCosine(p) + 1e-15 ? m : p;
+  } else if (upPlus) spin = nearestOptimum(n, 1);
+  else if (upMinus) spin = nearestOptimum(n, -1);
   // A climb never ends lower than it started (a guard against rounding at flat tops).
-  if (f(spin) < f0) spin = 0;
+  if (worseCosine(spin) < f0) spin = 0;
   spin = Math.atan2(Math.sin(spin), Math.cos(spin));
   return {
     outerRad: Math.acos(clamp(sinusoid(ao, po, qo, spin), -1, 1)),
