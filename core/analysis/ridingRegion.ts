@@ -49,44 +49,64 @@ export function balancedSpeedKmh(leanDeg: number, turn: Turn): number | null {
   return Math.sqrt(Math.tan(into * DEG) * STANDARD_GRAVITY * (turn.radiusMm / 1000)) / MS_PER_KMH;
 }
 
+/** Why a pose lies outside the operating region. */
+export type OutsideWhy = 'does-not-lean' | 'lean-limit' | 'straight-lean' | 'too-tight' | 'off-balance';
+
+/**
+ * Whether a pose lies in the operating region, as plain numbers (a sweep makes one per cell,
+ * so no strings or arrays here: regionWords says it in words when asked).
+ */
 export interface RegionVerdict {
   inside: boolean;
   /** Balanced leans over the speeds that may ride this turn (signed, lower first); null when none may. */
-  balancedDeg: [number, number] | null;
-  /** Why the pose is outside, in words. */
-  reason?: string;
+  balancedLoDeg: number | null;
+  balancedHiDeg: number | null;
+  /** Why the pose is outside; null inside. */
+  why: OutsideWhy | null;
 }
+
+const verdict = (inside: boolean, lo: number | null, hi: number | null, why: OutsideWhy | null): RegionVerdict => ({
+  inside,
+  balancedLoDeg: lo,
+  balancedHiDeg: hi,
+  why,
+});
 
 /** Whether a pose (its lean and the turn it makes) lies in the operating region. */
 export function inRidingRegion(leanDeg: number, turn: Turn, riding: Riding, tilting: boolean): RegionVerdict {
-  if (!tilting) {
-    return leanDeg === 0 ? { inside: true, balancedDeg: [0, 0] } : { inside: false, balancedDeg: [0, 0], reason: 'the vehicle does not lean' };
-  }
+  if (!tilting) return leanDeg === 0 ? verdict(true, 0, 0, null) : verdict(false, 0, 0, 'does-not-lean');
   const band = riding.transientBandDeg;
-  if (Math.abs(leanDeg) > riding.maxLeanDeg + 1e-9) {
-    return { inside: false, balancedDeg: null, reason: `past the lean limit (${riding.maxLeanDeg} deg)` };
-  }
-  if (turn.side === 'straight') {
-    const inside = Math.abs(leanDeg) <= band + 1e-9;
-    return inside ? { inside, balancedDeg: [0, 0] } : { inside, balancedDeg: [0, 0], reason: `leaning ${Math.abs(leanDeg).toFixed(1)} deg while going straight` };
-  }
+  if (Math.abs(leanDeg) > riding.maxLeanDeg + 1e-9) return verdict(false, null, null, 'lean-limit');
+  if (turn.side === 'straight') return Math.abs(leanDeg) <= band + 1e-9 ? verdict(true, 0, 0, null) : verdict(false, 0, 0, 'straight-lean');
   // Speeds that may ride this turn: the riding range, capped by grip.
   const gripCapKmh = Math.sqrt(riding.gripG * STANDARD_GRAVITY * (turn.radiusMm / 1000)) / MS_PER_KMH;
   const lo = riding.minKmh;
   const hi = Math.min(riding.maxKmh, gripCapKmh);
-  if (lo > hi) {
-    return { inside: false, balancedDeg: null, reason: `too tight to ride at ${lo} km/h within ${riding.gripG} g of grip` };
-  }
+  if (lo > hi) return verdict(false, null, null, 'too-tight');
   const a = balancedLeanDeg(lo, turn);
   const b = balancedLeanDeg(hi, turn);
-  const balanced: [number, number] = [Math.min(a, b), Math.max(a, b)];
-  const inside = leanDeg >= balanced[0] - band - 1e-9 && leanDeg <= balanced[1] + band + 1e-9;
-  if (inside) return { inside, balancedDeg: balanced };
-  return {
-    inside,
-    balancedDeg: balanced,
-    reason: `a balanced turn here leans ${balanced[0].toFixed(1)}..${balanced[1].toFixed(1)} deg (band ${band} deg)`,
-  };
+  const low = Math.min(a, b);
+  const high = Math.max(a, b);
+  const inside = leanDeg >= low - band - 1e-9 && leanDeg <= high + band + 1e-9;
+  return verdict(inside, low, high, inside ? null : 'off-balance');
+}
+
+/** Why a pose lies outside the region, in words (null inside). */
+export function regionWords(v: RegionVerdict, leanDeg: number, riding: Riding): string | null {
+  switch (v.why) {
+    case null:
+      return null;
+    case 'does-not-lean':
+      return 'the vehicle does not lean';
+    case 'lean-limit':
+      return `past the lean limit (${riding.maxLeanDeg} deg)`;
+    case 'straight-lean':
+      return `leaning ${Math.abs(leanDeg).toFixed(1)} deg while going straight`;
+    case 'too-tight':
+      return `too tight to ride at ${riding.minKmh} km/h within ${riding.gripG} g of grip`;
+    case 'off-balance':
+      return `a balanced turn here leans ${v.balancedLoDeg!.toFixed(1)}..${v.balancedHiDeg!.toFixed(1)} deg (band ${riding.transientBandDeg} deg)`;
+  }
 }
 
 /** The turn a pose makes, from its slip-balanced turn centre (slip.ts). */

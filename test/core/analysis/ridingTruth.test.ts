@@ -11,7 +11,7 @@ import { describe, it, expect } from 'vitest';
 import { zeroInputs } from '../../../core/mechanism/MechanismGraph';
 import { PoseEngine } from '../../../core/analysis/PoseEngine';
 import { solveRide } from '../../../core/analysis/ridePose';
-import { balancedLeanDeg, balancedSpeedKmh, inRidingRegion, STANDARD_GRAVITY } from '../../../core/analysis/ridingRegion';
+import { balancedLeanDeg, balancedSpeedKmh, inRidingRegion, regionWords, STANDARD_GRAVITY } from '../../../core/analysis/ridingRegion';
 import { steerLimits } from '../../../core/analysis/limits';
 import { runSweep } from '../../../core/analysis/sweep';
 import { demo, demoDoc, resolveDoc, solveAnalyse } from './helpers';
@@ -68,11 +68,12 @@ describe('the balanced turn', () => {
     expect(inRidingRegion(hi + 2.9, turn, riding, true).inside).toBe(true);
     expect(inRidingRegion(hi + 3.1, turn, riding, true).inside).toBe(false);
     expect(inRidingRegion(-lo, turn, riding, true).inside).toBe(false); // countersteer: leaning out of the turn
-    expect(inRidingRegion(31, { side: 'straight' }, riding, true).reason).toMatch(/lean limit/);
+    expect(regionWords(inRidingRegion(31, { side: 'straight' }, riding, true), 31, riding)).toMatch(/lean limit/);
     // So tight that even the lowest speed needs more than the grip: v^2 / R > 0.8 g at 10 km/h.
     const tight = { side: 'left' as const, radiusMm: 900 };
     expect((10 / 3.6) ** 2 / (9.80665 * 0.9)).toBeGreaterThan(0.8);
-    expect(inRidingRegion(-10, tight, riding, true).reason).toMatch(/too tight/);
+    expect(regionWords(inRidingRegion(-10, tight, riding, true), -10, riding)).toMatch(/too tight/);
+    expect(regionWords(inRidingRegion(-lo, turn, riding, true), -lo, riding)).toMatch(/balanced turn here leans/);
     // A vehicle that does not lean rides at lean 0 only.
     expect(inRidingRegion(0, turn, riding, false).inside).toBe(true);
   });
