@@ -2,16 +2,24 @@
  * Warnings: what a design may hold but will not behave as written. They never refuse a design;
  * `validate` prints them and still exits 0.
  *
- * The one warning so far: a wheel centre written at a height where the tyre does not touch the
- * ground. The design pose (zero lean, handlebar and travel) puts each tyre on the ground, so
- * the linkage moves to get there, and every measure at "design position" is taken in that
- * moved pose, not at the written points.
+ * - A wheel centre written at a height where the tyre does not touch the ground. The design
+ *   pose (zero lean, handlebar and travel) puts each tyre on the ground, so the linkage moves to
+ *   get there, and every measure at "design position" is taken in that moved pose, not at the
+ *   written points.
+ * - Centre-pivot members that do not form a parallelogram with the uprights in front view. Each
+ *   member is one rigid piece spanning both sides, so the two sides' four-bar loops must turn
+ *   alike: that needs the upper member's reach from its pivot to each outer joint to equal the
+ *   lower member's (in y and z). Otherwise the linkage locks at design and cannot lean (plane
+ *   kinematics of the parallelogram; common practice, no source).
  */
 import type { DesignIssue } from './designIssue';
 import { IssueList, sidePath } from './issueList';
 import { resolveDesign } from './resolveDesign';
 import { roundForMessage } from './schemaDsl';
 import { SIDES, type DesignFile } from './types';
+
+/** Centre members whose front-view reaches differ by more than this are warned about, mm. */
+export const PARALLELOGRAM_TOLERANCE_MM = 0.05;
 
 /** A wheel centre more than this from its on-the-ground height is warned about. */
 export const WHEEL_HEIGHT_TOLERANCE_MM = 1;
@@ -53,5 +61,31 @@ export function designWarnings(d: DesignFile): DesignIssue[] {
       found: `${z} mm`,
     }, side);
   }
+  parallelogramWarning(d, list);
   return list.issues;
+}
+
+/** Centre-pivot members that are not a parallelogram with the uprights (front view): the linkage locks. */
+function parallelogramWarning(d: DesignFile, list: IssueList): void {
+  const r = resolveDesign(d);
+  const fe = r.frontEnd;
+  if (fe.kind !== 'centrePivot' || !r.vehicle.tilting) return;
+  for (const side of SIDES) {
+    const u = fe.upper.outerJoint[side];
+    const l = fe.lower.outerJoint[side];
+    const dy = u.y - fe.upper.pivot.y - (l.y - fe.lower.pivot.y);
+    const dz = u.z - fe.upper.pivot.z - (l.z - fe.lower.pivot.z);
+    if (Math.hypot(dy, dz) <= PARALLELOGRAM_TOLERANCE_MM) continue;
+    const path = `${sidePath(d.frontEnd.upper.outerJoint, 'frontEnd.upper.outerJoint', side)}`;
+    list.add({
+      path,
+      message:
+        `${path}: the centre members and the ${side} upright are not a parallelogram in front view (the upper member reaches ` +
+        `${roundForMessage(u.y - fe.upper.pivot.y)}, ${roundForMessage(u.z - fe.upper.pivot.z)} mm from its pivot, the lower ` +
+        `${roundForMessage(l.y - fe.lower.pivot.y)}, ${roundForMessage(l.z - fe.lower.pivot.z)} mm in y, z); members spanning both sides ` +
+        'then lock the linkage at design: it cannot lean',
+      expected: `the same reach in y and z for both members, within ${PARALLELOGRAM_TOLERANCE_MM} mm`,
+      found: `a difference of ${roundForMessage(Math.hypot(dy, dz))} mm`,
+    }, side);
+  }
 }

@@ -139,3 +139,18 @@ describe('designWarnings', () => {
     expect(result.warnings.map((w) => w.message.slice(0, 40))).toEqual(['trike.tiltsheet: upright.wheelCentre.z: ']);
   });
 });
+
+describe('centre-pivot members that are not a parallelogram', () => {
+  it('are warned about, and the warning is true: the demo leans, the same design with an upper outer joint 0.5 mm up does not', () => {
+    const doc = JSON.parse(demoText('swift-parallelogram-trike'));
+    expect(designWarnings(design(doc))).toEqual([]);
+    const leans = (d: DesignFile) => new PoseSolver(buildMechanism(resolveDesign(d))).solve({ ...zeroInputs(), leanDeg: 5 }, false).reached;
+    expect(leans(design(doc))).toBe(true);
+    doc.frontEnd.upper.outerJoint.z += 0.5;
+    const warnings = designWarnings(design(doc));
+    expect(warnings.map((w) => w.path)).toEqual(['frontEnd.upper.outerJoint', 'frontEnd.upper.outerJoint']);
+    expect(warnings[0].message).toMatch(/not a parallelogram in front view.*cannot lean/);
+    // The mechanism agrees (negative control of the warning's claim): 5 deg of lean cannot be reached.
+    expect(leans(design(doc))).toBe(false);
+  });
+});
