@@ -77,54 +77,54 @@ function failuresNote(c: Curve): string {
   return c.failures.length ? `; ${c.failures.length} pose${c.failures.length === 1 ? '' : 's'} could not be assembled (gaps)` : '';
 }
 
-function selfSteer(set: CurveSet, kind: 'leanSteer' | 'bumpSteer', x: number | null, title: string, subtitle: string, sign: string): EChartsCoreOption {
-  const c = set.curves[kind];
-  if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
-  const tol = set.tolerances.selfSteerDeg;
-  const series: Record<string, unknown>[] = pick(c, 'selfSteer').map((s) => line(s.label, points(c, s), sideColour(s.id)));
-  series.push(toleranceSeries(tol, 'deg'));
+/** One curve's series against the ± tolerance of the measure they show. */
+interface ToleranceChart {
+  kind: 'leanSteer' | 'bumpSteer' | 'ratioLean' | 'slipSteer';
+  /** Series id prefix to draw. */
+  series: string;
+  title: string;
+  subtitle: string;
+  /** Sign note after the x unit. */
+  xSign: string;
+  yName: string;
+  tolerance: number;
+  unit: string;
+}
+
+function toleranceChart(set: CurveSet, spec: ToleranceChart, x: number | null): EChartsCoreOption {
+  const c = set.curves[spec.kind];
+  if (!c) return unavailable(spec.title, set.missing[spec.kind] ?? 'not computed');
+  // A series with no side in its id takes the left colour.
+  const series: Record<string, unknown>[] = pick(c, spec.series).map((s) => line(s.label, points(c, s), sideColour(s.id)));
+  series.push(toleranceSeries(spec.tolerance, spec.unit));
   return {
-    ...base(title, subtitle + failuresNote(c)),
-    xAxis: axis(xName(c, sign)),
-    yAxis: axis('self-steer (deg, left +)'),
+    ...base(spec.title, spec.subtitle + failuresNote(c)),
+    xAxis: axis(xName(c, spec.xSign)),
+    yAxis: axis(spec.yName),
     series: withNow(series, x),
   };
 }
 
+const SELF_STEER_AXIS = 'self-steer (deg, left +)';
+
 export function leanSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
-  return selfSteer(set, 'leanSteer', m.leanDeg, 'Lean steer', 'road-wheel angle change with lean, handlebar held at zero', ', right side down +');
+  const spec = { kind: 'leanSteer', series: 'selfSteer', title: 'Lean steer', subtitle: 'road-wheel angle change with lean, handlebar held at zero', xSign: ', right side down +' } as const;
+  return toleranceChart(set, { ...spec, yName: SELF_STEER_AXIS, tolerance: set.tolerances.selfSteerDeg, unit: 'deg' }, m.leanDeg);
 }
 
 export function bumpSteerOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
-  return selfSteer(set, 'bumpSteer', m.travelMm, 'Bump steer', 'road-wheel angle change with wheel travel (both wheels), no lean, handlebar at zero', '');
+  const spec = { kind: 'bumpSteer', series: 'selfSteer', title: 'Bump steer', subtitle: 'road-wheel angle change with wheel travel (both wheels), no lean, handlebar at zero', xSign: '' } as const;
+  return toleranceChart(set, { ...spec, yName: SELF_STEER_AXIS, tolerance: set.tolerances.selfSteerDeg, unit: 'deg' }, m.travelMm);
 }
 
 export function ratioChangeOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
-  const c = set.curves.ratioLean;
-  if (!c) return unavailable('Ratio change', set.missing.ratioLean ?? 'not computed');
-  const tol = set.tolerances.ratioChangePct;
-  const s = pick(c, 'ratioChange').map((cs) => line(cs.label, points(c, cs), CHART_COLOURS.left));
-  s.push(toleranceSeries(tol, '%'));
-  return {
-    ...base('Ratio change', 'road-wheel degrees per handlebar degree against upright, handlebar at zero' + failuresNote(c)),
-    xAxis: axis(xName(c, ', right side down +')),
-    yAxis: axis('steering-ratio change (%)'),
-    series: withNow(s, m.leanDeg),
-  };
+  const spec = { kind: 'ratioLean', series: 'ratioChange', title: 'Ratio change', subtitle: 'road-wheel degrees per handlebar degree against upright, handlebar at zero', xSign: ', right side down +' } as const;
+  return toleranceChart(set, { ...spec, yName: 'steering-ratio change (%)', tolerance: set.tolerances.ratioChangePct, unit: '%' }, m.leanDeg);
 }
 
 export function slipOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
-  const c = set.curves.slipSteer;
-  if (!c) return unavailable('Toe mismatch', set.missing.slipSteer ?? 'not computed');
-  const tol = set.tolerances.slipDeg;
-  const s = pick(c, 'slip').map((cs) => line(cs.label, points(c, cs), sideColour(cs.id)));
-  s.push(toleranceSeries(tol, 'deg'));
-  return {
-    ...base('Toe mismatch', 'front slip angles about the common turn centre against handlebar, no lean' + failuresNote(c)),
-    xAxis: axis(xName(c, ', left +')),
-    yAxis: axis('slip angle (deg, ISO 8855)'),
-    series: withNow(s, m.handlebarDeg),
-  };
+  const spec = { kind: 'slipSteer', series: 'slip', title: 'Toe mismatch', subtitle: 'front slip angles about the common turn centre against handlebar, no lean', xSign: ', left +' } as const;
+  return toleranceChart(set, { ...spec, yName: 'slip angle (deg, ISO 8855)', tolerance: set.tolerances.slipDeg, unit: 'deg' }, m.handlebarDeg);
 }
 
 export function ackermannOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
