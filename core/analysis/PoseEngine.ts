@@ -71,10 +71,6 @@ export class WarmSolver {
     return r.reached ? this.analyser.analyse(r) : null;
   }
 
-  get hasGood(): boolean {
-    return this.warm;
-  }
-
   /** Forget the warm start: the next solve starts from the design pose, by continuation. */
   reset(): void {
     this.solver.reset();
@@ -109,7 +105,9 @@ export class PoseEngine {
     if (result.reached) {
       analysis = this.main.analyser.analyse(result);
       const here = this.handlebarInputs();
-      const rel = options.relatives === false ? this.notWhilePlaying() : this.relativesAt(here);
+      // Straight ahead by the handlebar, the pose is its own straight-ahead reference.
+      const self = this.mode.steerBy === 'handlebar' ? analysis : null;
+      const rel = options.relatives === false ? this.notWhilePlaying() : this.relativesAt(here, self);
       completeMeasures(analysis, rel, this.design.tolerances, this.findings);
     }
     const m = this.main.solver.mechanism;
@@ -139,8 +137,12 @@ export class PoseEngine {
     return { neighbours: reason, straight: reason, base: reason, uprightLocalRatio: reason };
   }
 
-  /** The poses the relative measures of a pose at `here` (handlebar inputs) need. */
-  relativesAt(here: PoseInputs): PoseRelatives {
+  /**
+   * The poses the relative measures of a pose at `here` (handlebar inputs) need; `self`, the
+   * pose's own analysis when it was solved by handlebar, serves as the straight-ahead pose at
+   * handlebar 0 instead of solving it again.
+   */
+  relativesAt(here: PoseInputs, self: PoseAnalysis | null = null): PoseRelatives {
     const side = (this.sideSolver ??= this.handlebarSolver());
     const h = here.handlebarDeg;
     const lower = side.analyse({ ...here, handlebarDeg: h - LOCAL_RATIO_STEP_DEG });
@@ -148,7 +150,7 @@ export class PoseEngine {
     return {
       neighbours:
         lower && upper ? { value: { lower, upper } } : { reason: `a pose ${LOCAL_RATIO_STEP_DEG} deg of handlebar either side could not be solved` },
-      straight: this.straightAt(here),
+      straight: h === 0 && self ? { value: self } : this.straightAt(here),
       base: this.baseSteer(),
       uprightLocalRatio: this.uprightLocalRatio(h),
     };

@@ -7,7 +7,8 @@
 
 import type { ResolvedDesign } from '../design/types';
 import type { PoseMode } from '../mechanism/templates/buildMechanism';
-import { zeroInputs, type PoseInputs, type Vec3 } from '../mechanism/MechanismGraph';
+import { zeroInputs, type PoseInputs } from '../mechanism/MechanismGraph';
+import { xyz } from './vec3';
 import type { SolveResult } from '../solver/PoseSolver';
 import type { PoseSnapshot } from './poseSnapshot';
 import type { PoseAnalysis, PoseInputsReport } from './analysisTypes';
@@ -87,7 +88,6 @@ export function requestInputs(r: PoseRequest): PoseInputs {
   };
 }
 
-const xyz = (v: Vec3) => ({ x: v[0], y: v[1], z: v[2] });
 
 export function solveSinglePose(
   design: ResolvedDesign,

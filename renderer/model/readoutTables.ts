@@ -5,7 +5,6 @@
  */
 import type { ResolvedDesign, Side } from '../../core/design/types';
 import type { PoseAnalysis, WheelAlignment } from '../../core/analysis/analysisTypes';
-import { NO_LIFT_REFERENCE, NO_NEIGHBOURS } from '../../core/analysis/PoseAnalyser';
 import { NOT_WHILE_PLAYING } from '../../core/analysis/PoseEngine';
 import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from '../../core/analysis/tolerance';
 import { JOINT_WORDS, PART_WORDS } from '../../core/analysis/words';
@@ -166,7 +165,7 @@ function overallTable({ a, tol }: TableContext): ReadoutTable {
       row('frameHeave', 'Frame heave', 'mm', 1, [c(a.frameHeaveMm)]),
       row('meanWheel', 'Mean road-wheel angle', 'deg', 2, [c(st.meanWheelDeg)]),
       row('ratio', 'Overall steering ratio', 'deg/deg', 2, [c(st.overallRatio)], st.reason ? { missing: st.reason } : {}),
-      row('localRatio', 'Local steering ratio', 'deg/deg', 2, [c(st.localRatio)], { missing: playingWords(st.localRatioReason === NO_NEIGHBOURS ? NOT_WHILE_PLAYING : (st.localRatioReason ?? '—')) }),
+      row('localRatio', 'Local steering ratio', 'deg/deg', 2, [c(st.localRatio)], { missing: playingWords(st.localRatioReason ?? '—') }),
       row('ratioChange', 'Steering-ratio change from upright', '%', 1, [c(st.ratioChangePct, st.ratioChangePct === null ? undefined : judgeRatioChange(st.ratioChangePct, tol))], {
         missing: playingWords(st.ratioChangeReason ?? '—'),
         hint: `road-wheel degrees per handlebar degree here against upright at the same handlebar; tolerance ${tol.ratioChangePct} %`,
@@ -185,7 +184,7 @@ function overallTable({ a, tol }: TableContext): ReadoutTable {
       row('wallToWall', `Wall to wall${tc.wallToWallFrom ? ` (${tc.wallToWallFrom})` : ''}`, 'mm', 0, [c(tc.wallToWallMm)], tc.reason ? { missing: tc.reason } : {}),
       row('rollCentreY', 'Roll centre y', 'mm', 0, [c(sp.rollCentreMm?.y)], sp.reason ? { missing: sp.reason } : {}),
       row('rollCentreZ', 'Roll centre height', 'mm', 0, [c(sp.rollCentreMm?.z)], sp.reason ? { missing: sp.reason } : {}),
-      row('frontLift', 'Front lift with steer', 'mm', 1, [c(sp.frontLiftMm)], { missing: playingWords(sp.frontLiftReason === NO_LIFT_REFERENCE ? NOT_WHILE_PLAYING : (sp.frontLiftReason ?? '—')) }),
+      row('frontLift', 'Front lift with steer', 'mm', 1, [c(sp.frontLiftMm)], { missing: playingWords(sp.frontLiftReason ?? '—') }),
       row('dragLink', 'Drag link transmission', 'deg', 1, [c(st.dragLinkTransmissionDeg)], st.dragLinkTransmissionDeg === null ? { missing: 'no drag link' } : {}),
       row('worstSlip', 'Worst slip', 'deg', 2, [c(a.worst.slipDeg, judgeSlip(a.worst.slipDeg, tol))]),
       row('worstJoint', 'Least joint margin', 'deg', 1, [c(Number.isFinite(a.worst.jointMarginDeg) ? a.worst.jointMarginDeg : null)]),
