@@ -79,11 +79,6 @@ const SPEC: Record<CurveKind, { title: string; axis: Axis; contact: SweepContact
   frontLift: { title: 'Front lift with steer', axis: 'handlebar', contact: 'ground' },
 };
 
-/** The input a curve kind sweeps. */
-export function curveAxis(kind: CurveKind): 'lean' | 'handlebar' | 'travel' {
-  return SPEC[kind].axis;
-}
-
 /** Whether a curve kind sweeps lean (nothing to draw for a vehicle that does not lean). */
 export const sweepsLean = (kind: CurveKind): boolean => SPEC[kind].axis === 'lean';
 

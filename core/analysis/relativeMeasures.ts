@@ -38,7 +38,7 @@ export interface PoseRelatives {
   uprightLocalRatio: Relative<number>;
 }
 
-export const NOT_TURNING = 'the road wheels did not turn between the neighbouring poses';
+const NOT_TURNING = 'the road wheels did not turn between the neighbouring poses';
 
 /** The local ratio from two poses either side, or why there is none. */
 export function ratioBetween(lower: PoseAnalysis, upper: PoseAnalysis): Relative<number> {
@@ -47,7 +47,7 @@ export function ratioBetween(lower: PoseAnalysis, upper: PoseAnalysis): Relative
 }
 
 /** Whether the pose has zero lean and travel: it is then its own upright reference. */
-export function isUpright(a: PoseAnalysis): boolean {
+function isUpright(a: PoseAnalysis): boolean {
   const i = a.inputs;
   return i.leanDeg === 0 && i.heaveMm === 0 && i.travelLeftMm === 0 && i.travelRightMm === 0;
 }

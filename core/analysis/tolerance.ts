@@ -30,16 +30,6 @@ export type CheckKind = 'slip' | 'selfSteer' | 'ratioChange' | 'joint' | 'cleara
 
 export const CHECK_KINDS: readonly CheckKind[] = ['slip', 'selfSteer', 'ratioChange', 'joint', 'clearance', 'deadCentre'];
 
-/** Words for a check, as a person reads them. */
-export const CHECK_LABEL: Record<CheckKind, string> = {
-  slip: 'slip (toe mismatch)',
-  selfSteer: 'self-steer',
-  ratioChange: 'steering-ratio change',
-  joint: 'joint articulation',
-  clearance: 'clearance',
-  deadCentre: 'dead centre',
-};
-
 export function worse(a: Verdict, b: Verdict): Verdict {
   return VERDICT_ORDER.indexOf(a) >= VERDICT_ORDER.indexOf(b) ? a : b;
 }
@@ -67,11 +57,6 @@ export function judgeJoint(articulationDeg: number, ratedDeg: number, tol: Toler
   const allowed = ratedDeg - tol.jointMarginDeg;
   if (articulationDeg > allowed) return 'over';
   return articulationDeg >= WARNING_FRACTION * allowed ? 'close' : 'within';
-}
-
-/** The same rule as judgeJoint, from the margin (rated - articulation) instead of the articulation. */
-export function judgeJointMargin(marginDeg: number, ratedDeg: number, tol: Tolerances): Verdict {
-  return judgeJoint(ratedDeg - marginDeg, ratedDeg, tol);
 }
 
 export function judgeClearance(distanceMm: number, tol: Tolerances): Verdict {
