@@ -11,7 +11,7 @@ import { failedPose } from './PoseAnalyser';
 import { PoseEngine } from './PoseEngine';
 import { solveRide } from './ridePose';
 import { inRidingRegion, turnOf } from './ridingRegion';
-import type { SweepCell, SweepContact } from './sweep';
+import { checkAxisValues, SweepInputError, type SweepCell, type SweepContact } from './sweep';
 
 export interface RideAxes {
   speedKmh: number[];
@@ -37,19 +37,14 @@ export interface RideSweepSummary {
   elapsedMs: number;
 }
 
-export class RideSweepInputError extends Error {}
-
 export function runRideSweep(
   design: ResolvedDesign,
   axes: RideAxes,
   options: { contact?: SweepContact; onProgress?: (done: number, total: number) => void },
   onCell: (cell: RideCell) => void,
 ): RideSweepSummary {
-  for (const [name, values] of Object.entries(axes) as [keyof RideAxes, number[]][]) {
-    if (values.length === 0) throw new RideSweepInputError(`the ${name} axis has no values`);
-    for (const x of values) if (!Number.isFinite(x)) throw new RideSweepInputError(`the ${name} axis has a value that is not a finite number`);
-  }
-  if (axes.speedKmh.some((v) => v < 0)) throw new RideSweepInputError('speeds must be 0 km/h or more');
+  checkAxisValues({ ...axes });
+  if (axes.speedKmh.some((v) => v < 0)) throw new SweepInputError('speeds must be 0 km/h or more');
   const t0 = Date.now();
   const contact = options.contact ?? 'ground';
   const engine = new PoseEngine(design, { contact, steerBy: 'handlebar' }, { findings: false });

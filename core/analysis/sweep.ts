@@ -80,11 +80,16 @@ export interface SweepSummary {
 /** Invalid sweep input (the CLI exits 2 on it). */
 export class SweepInputError extends Error {}
 
-export function checkAxes(design: ResolvedDesign, axes: SweepAxes, contact: SweepContact): void {
-  for (const [name, values] of Object.entries(axes) as [keyof SweepAxes, number[]][]) {
+/** Every axis has values, all finite (any sweep's axes, named as the caller names them). */
+export function checkAxisValues(axes: Record<string, number[]>): void {
+  for (const [name, values] of Object.entries(axes)) {
     if (values.length === 0) throw new SweepInputError(`the ${name} axis has no values`);
     for (const x of values) if (!Number.isFinite(x)) throw new SweepInputError(`the ${name} axis has a value that is not a finite number`);
   }
+}
+
+export function checkAxes(design: ResolvedDesign, axes: SweepAxes, contact: SweepContact): void {
+  checkAxisValues({ ...axes });
   if (!design.vehicle.tilting && axes.leanDeg.some((x) => x !== 0)) {
     throw new SweepInputError('the design does not tilt (vehicle.tilting is false): lean must be 0');
   }
