@@ -25,8 +25,10 @@ import type { Vec3 } from '../mechanism/MechanismGraph';
 import type { ClearanceResult } from './analysisTypes';
 import type { PoseGeometry, SideGeometry } from './poseGeometry';
 import { segmentCircleDistance, segmentSegmentDistance } from './distance3';
+import type { ClearancePartName } from '../mechanism/drawingLayout';
 
-export type PartName = 'upperArm' | 'lowerArm' | 'upperRail' | 'lowerRail' | 'tieRod' | 'steeringArm' | 'crankArm' | 'rack' | 'tyre';
+/** The parts the clearance checks model: the names the drawing layout colours them by. */
+export type PartName = ClearancePartName;
 
 export interface ClearancePair {
   /** e.g. 'tieRod-lowerArm' */
