@@ -37,6 +37,8 @@ import type { StudyQuantity } from './studyQuantities';
 
 export const DEFAULT_TUNE_STEP_MM = 0.05;
 export const REFRESH_EVERY = 6;
+/** Starting damping as a share of the largest diagonal entry of J^T J. */
+export const INITIAL_DAMPING_SHARE = 1e-2;
 
 export type JacobianMethod = 'finite-difference' | 'secant';
 
@@ -71,6 +73,8 @@ export interface TuneStart {
   cost: number;
   iterations: number;
   evaluations: number;
+  /** How it ended: settled (best cost stopped falling), out of iterations, or stopped by the user. */
+  ended: 'settled' | 'iterations' | 'stopped';
 }
 
 export interface TuneReport {
@@ -98,6 +102,14 @@ export interface TuneReport {
 }
 
 class StopSignal extends Error {}
+/** A run whose best cost has stopped falling: its remaining iterations would change nothing a designer can see. */
+class SettledSignal extends Error {}
+
+/** A run has settled when its best cost fell by less than this share over the last SETTLE_ITERATIONS iterations. */
+export const SETTLE_SHARE = 1e-4;
+export const SETTLE_ITERATIONS = 6;
+/** Never settled before this many iterations: the library's damping adapts over the first few. */
+export const SETTLE_AFTER = 8;
 
 interface Evaluated {
   offsets: Float64Array;
@@ -186,7 +198,10 @@ function broydenUpdate(J: Float64Array, dx: Float64Array, dr: Float64Array): voi
 }
 
 interface RunResult {
+  /** Iterations (Jacobians) taken. */
   iterations: number;
+  /** Stopped because the best cost stopped falling (else: ran out of iterations). */
+  settled: boolean;
 }
 
 /** One Levenberg-Marquardt run from the given offsets. */
@@ -198,7 +213,14 @@ function runFrom(ev: Evaluator, variables: readonly ResolvedVariable[], start: F
   let J: Float64Array | null = null;
   let last: Evaluated | null = null;
   let sinceRefresh = 0;
+  let iterations = 0;
+  const bestAt: number[] = [];
   const jacobianX = (at: Evaluated): Float64Array => {
+    if (J && last === at) return J; // the first iteration asks at the start, whose Jacobian set the damping
+    iterations++;
+    bestAt.push(Math.min(at.cost, ...bestAt.slice(-1)));
+    const k = bestAt.length - 1;
+    if (k >= Math.max(SETTLE_ITERATIONS, SETTLE_AFTER) && bestAt[k - SETTLE_ITERATIONS] - bestAt[k] <= SETTLE_SHARE * bestAt[k - SETTLE_ITERATIONS]) throw new SettledSignal();
     if (method === 'finite-difference' || !J || !last || sinceRefresh >= REFRESH_EVERY) {
       J = differenceJacobian(ev, at, variables, stepMm);
       sinceRefresh = 0;
@@ -211,8 +233,22 @@ function runFrom(ev: Evaluator, variables: readonly ResolvedVariable[], start: F
     last = at;
     return J;
   };
+  const slopesAt = (u: ArrayLike<number>) => Array.from(u, (uj, j) => boundedSlope(uj, variables[j].lo, variables[j].hi));
+  // Marquardt's starting damping: a share of the largest diagonal of J^T J (Nocedal and Wright,
+  // section 10.3), so the first step is neither a blind Gauss-Newton jump nor a crawl; the
+  // library's default (1e-2 absolute) knows nothing of the residuals' scale.
+  const J0 = jacobianX(ev.evaluate(start));
+  const s0 = slopesAt(u0);
+  let maxDiag = 0;
+  for (let j = 0; j < n; j++) {
+    let d = 0;
+    for (let i = 0; i < m; i++) d += (J0[i * n + j] * s0[j]) ** 2;
+    maxDiag = Math.max(maxDiag, d);
+  }
+  const damping = Math.max(1e-6, INITIAL_DAMPING_SHARE * maxDiag);
   const data = { x: Array.from({ length: m }, (_, i) => i), y: new Array<number>(m).fill(0) };
-  const result = levenbergMarquardt(
+  try {
+    levenbergMarquardt(
     data,
     (u) => {
       const r = ev.evaluate(toOffsets(u)).residuals;
@@ -222,17 +258,21 @@ function runFrom(ev: Evaluator, variables: readonly ResolvedVariable[], start: F
       initialValues: u0,
       maxIterations: plan.maxIterations,
       errorTolerance: 1e-8,
-      damping: 1e-2,
+      damping,
       jacobianFunction: (u) => {
         const at = ev.evaluate(toOffsets(u));
         const Jx = jacobianX(at);
         // Chain rule through the bounds' transform: d r / d u_j = d r / d x_j * d x_j / d u_j.
-        const slopes = u.map((uj, j) => boundedSlope(uj, variables[j].lo, variables[j].hi));
+        const slopes = slopesAt(u);
         return (i) => slopes.map((s, j) => Jx[i * n + j] * s);
       },
     },
-  );
-  return { iterations: result.iterations };
+    );
+  } catch (e) {
+    if (!(e instanceof SettledSignal)) throw e;
+    return { iterations: iterations - 1, settled: true };
+  }
+  return { iterations, settled: false };
 }
 
 /** Worst |value - target| or least value of each report line over the poses, with where. */
@@ -326,15 +366,18 @@ export function runTune(file: DesignFile, plan: TunePlan, variables: readonly Re
     const bestBefore = ev.best;
     ev.best = null;
     let its = 0;
+    let ended: TuneStart['ended'] = 'stopped';
     try {
-      its = runFrom(ev, variables, start, plan, method, stepMm).iterations;
+      const run = runFrom(ev, variables, start, plan, method, stepMm);
+      its = run.iterations;
+      ended = run.settled ? 'settled' : 'iterations';
     } catch (e) {
       if (!(e instanceof StopSignal)) throw e;
       cancelled = true;
     }
     const reached = ev.best as Evaluated | null;
     iterations += its;
-    starts.push({ from: s === 0 ? 'design' : 'seeded', startOffsetsMm: Array.from(start), cost: reached?.cost ?? Infinity, iterations: its, evaluations: ev.count - before });
+    starts.push({ from: s === 0 ? 'design' : 'seeded', startOffsetsMm: Array.from(start), cost: reached?.cost ?? Infinity, iterations: its, evaluations: ev.count - before, ended });
     if (reached && reached.cost < bestCost) {
       bestCost = reached.cost;
       bestStart = s;
