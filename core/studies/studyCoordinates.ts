@@ -59,7 +59,8 @@ function pathWords(key: string): string {
 /** The point in words: 'right lower wishbone outer joint', 'lower wishbone outer joints (both sides)', 'bell crank pivot'. */
 export function pointWords(file: DesignFile, key: string, side: CoordinateSide): string {
   const w = tableWords(file, key);
-  const base = w ? `${w.group} ${w.label}` : pathWords(key);
+  // 'rack' + 'rack end joint' reads 'rack end joint', not 'rack rack end joint'.
+  const base = w ? (w.label.toLowerCase().startsWith(w.group) ? w.label : `${w.group} ${w.label}`) : pathWords(key);
   if (side === 'both') return `${base}s (both sides)`;
   return side ? `${side} ${base}` : base;
 }

@@ -167,7 +167,7 @@ describe('tiltbench check', () => {
   });
 
   it('runs from the installed command (spawned), exit code and caution included', () => {
-    const r = spawnSync(process.execPath, [BIN, 'check', SWIFT, '--lean-step', '17.5', '--steer-step', '15'], { encoding: 'utf8', timeout: 60000 });
+    const r = spawnSync(process.execPath, [BIN, 'check', HERON, '--lean-step', '12.5', '--steer-step', '12.5'], { encoding: 'utf8', timeout: 60000 });
     expect(r.status).toBe(1);
     expect(r.stdout).toContain('RESULT (operating region):');
     expect(r.stdout).toContain('CAUTION');
