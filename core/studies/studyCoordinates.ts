@@ -126,6 +126,11 @@ export function offsetDesignFile(file: DesignFile, coordinates: readonly StudyCo
       (value as Vec3Mm)[c.axis] += d;
       continue;
     }
+    if (c.side === 'both' && !isTwoSided(value)) {
+      // A point written once (right side, mirrored to the left) stays written once: the pair moves as mirror images.
+      (value as Vec3Mm)[c.axis] += c.axis === 'y' ? -d : d;
+      continue;
+    }
     const both = isTwoSided(value) ? value : resolveSidedVec(value);
     parent[last] = both;
     for (const side of c.side === 'both' ? (['right', 'left'] as const) : [c.side]) {

@@ -37,7 +37,7 @@ import type { StudyQuantity } from './studyQuantities';
 
 export const DEFAULT_TUNE_STEP_MM = 0.05;
 export const REFRESH_EVERY = 6;
-/** Starting damping as a share of the largest diagonal entry of J^T J. */
+/** Starting damping, on the unit diagonal of the column-scaled J^T J. */
 export const INITIAL_DAMPING_SHARE = 1e-2;
 
 export type JacobianMethod = 'finite-difference' | 'secant';
@@ -102,13 +102,11 @@ export interface TuneReport {
 }
 
 class StopSignal extends Error {}
-/** A run whose best cost has stopped falling: its remaining iterations would change nothing a designer can see. */
-class SettledSignal extends Error {}
 
 /** A run has settled when its best cost fell by less than this share over the last SETTLE_ITERATIONS iterations. */
 export const SETTLE_SHARE = 1e-4;
 export const SETTLE_ITERATIONS = 6;
-/** Never settled before this many iterations: the library's damping adapts over the first few. */
+/** Never settled before this many iterations: the damping adapts over the first few. */
 export const SETTLE_AFTER = 8;
 
 interface Evaluated {
@@ -123,6 +121,8 @@ interface Evaluated {
 class Evaluator {
   count = 0;
   best: Evaluated | null = null;
+  /** The design evaluated last (the library's trial point after a step). */
+  last: Evaluated | null = null;
   private readonly quantities: StudyQuantity[];
   private readonly cache = new Map<string, Evaluated>();
 
@@ -140,7 +140,10 @@ class Evaluator {
   evaluate(offsets: ArrayLike<number>): Evaluated {
     const key = Array.from(offsets, (x) => x.toPrecision(15)).join(',');
     const hit = this.cache.get(key);
-    if (hit) return hit;
+    if (hit) {
+      this.last = hit;
+      return hit;
+    }
     if (this.shouldStop()) throw new StopSignal();
     const n = this.poses.length * this.terms.length;
     const values = new Float64Array(n).fill(NaN);
@@ -161,6 +164,7 @@ class Evaluator {
     if (this.cache.size > 64) this.cache.clear();
     this.cache.set(key, ev);
     this.count++;
+    this.last = ev;
     if (!this.best || cost < this.best.cost) this.best = ev;
     this.progress();
     return ev;
@@ -204,75 +208,89 @@ interface RunResult {
   settled: boolean;
 }
 
-/** One Levenberg-Marquardt run from the given offsets. */
+/** Damping divided on an accepted step and multiplied on a rejected one (Nielsen-style factors). */
+export const DAMPING_DOWN = 3;
+export const DAMPING_UP = 4;
+/** Damping past which a run has nowhere left to go. */
+const DAMPING_CEILING = 1e8;
+
+/**
+ * One Levenberg-Marquardt run from the given offsets. Each step is the library's (one
+ * iteration of ml-levenberg-marquardt from the current point with our Jacobian and damping);
+ * the acceptance is ours: a step that does not lower the cost is refused and the damping
+ * raised, one that does is kept and the damping lowered (Marquardt 1963; Nocedal and Wright,
+ * Numerical Optimization, 2nd ed., section 10.3). The library alone would carry on from a
+ * worse point and only remember the best.
+ *
+ * The library damps with lambda I, blind to how strongly each variable acts, so its
+ * parameters are the bounded variables scaled by their Jacobian columns' norms at the start,
+ * v_j = c_j u_j: every column starts at unit norm (More's diagonal scaling, same section). A
+ * variable that hardly acts gets a floor scale so a tiny gradient does not fling it across its
+ * range.
+ */
 function runFrom(ev: Evaluator, variables: readonly ResolvedVariable[], start: Float64Array, plan: TunePlan, method: JacobianMethod, stepMm: number): RunResult {
   const n = variables.length;
   const toOffsets = (u: ArrayLike<number>) => Float64Array.from({ length: n }, (_, j) => boundedOffset(u[j], variables[j].lo, variables[j].hi));
-  const u0 = Array.from(start, (x, j) => unboundedOf(x, variables[j].lo, variables[j].hi));
-  const m = ev.evaluate(start).residuals.length;
-  let J: Float64Array | null = null;
-  let last: Evaluated | null = null;
-  let sinceRefresh = 0;
-  let iterations = 0;
-  const bestAt: number[] = [];
-  const jacobianX = (at: Evaluated): Float64Array => {
-    if (J && last === at) return J; // the first iteration asks at the start, whose Jacobian set the damping
-    iterations++;
-    bestAt.push(Math.min(at.cost, ...bestAt.slice(-1)));
-    const k = bestAt.length - 1;
-    if (k >= Math.max(SETTLE_ITERATIONS, SETTLE_AFTER) && bestAt[k - SETTLE_ITERATIONS] - bestAt[k] <= SETTLE_SHARE * bestAt[k - SETTLE_ITERATIONS]) throw new SettledSignal();
-    if (method === 'finite-difference' || !J || !last || sinceRefresh >= REFRESH_EVERY) {
-      J = differenceJacobian(ev, at, variables, stepMm);
-      sinceRefresh = 0;
-    } else {
-      const dx = Float64Array.from(at.offsets, (x, j) => x - last!.offsets[j]);
-      const dr = Float64Array.from(at.residuals, (r, i) => r - last!.residuals[i]);
-      broydenUpdate(J, dx, dr);
-      sinceRefresh++;
-    }
-    last = at;
-    return J;
-  };
   const slopesAt = (u: ArrayLike<number>) => Array.from(u, (uj, j) => boundedSlope(uj, variables[j].lo, variables[j].hi));
-  // Marquardt's starting damping: a share of the largest diagonal of J^T J (Nocedal and Wright,
-  // section 10.3), so the first step is neither a blind Gauss-Newton jump nor a crawl; the
-  // library's default (1e-2 absolute) knows nothing of the residuals' scale.
-  const J0 = jacobianX(ev.evaluate(start));
+  const u0 = Array.from(start, (x, j) => unboundedOf(x, variables[j].lo, variables[j].hi));
+  let cur = ev.evaluate(start);
+  const m = cur.residuals.length;
+  let J = differenceJacobian(ev, cur, variables, stepMm);
   const s0 = slopesAt(u0);
-  let maxDiag = 0;
-  for (let j = 0; j < n; j++) {
+  const norms = Array.from({ length: n }, (_, j) => {
     let d = 0;
-    for (let i = 0; i < m; i++) d += (J0[i * n + j] * s0[j]) ** 2;
-    maxDiag = Math.max(maxDiag, d);
-  }
-  const damping = Math.max(1e-6, INITIAL_DAMPING_SHARE * maxDiag);
+    for (let i = 0; i < m; i++) d += (J[i * n + j] * s0[j]) ** 2;
+    return Math.sqrt(d);
+  });
+  const floor = 1e-3 * Math.max(...norms, 1e-9);
+  const c = norms.map((x) => Math.max(x, floor));
+  const toU = (v: ArrayLike<number>) => Array.from(v, (vj, j) => vj / c[j]);
+  let v = u0.map((uj, j) => uj * c[j]);
+  let damping = INITIAL_DAMPING_SHARE;
+  let sinceRefresh = 0;
+  const costs = [cur.cost];
   const data = { x: Array.from({ length: m }, (_, i) => i), y: new Array<number>(m).fill(0) };
-  try {
-    levenbergMarquardt(
-    data,
-    (u) => {
-      const r = ev.evaluate(toOffsets(u)).residuals;
-      return (i) => r[i];
-    },
-    {
-      initialValues: u0,
-      maxIterations: plan.maxIterations,
-      errorTolerance: 1e-8,
+  const model = (p: number[]) => {
+    const r = ev.evaluate(toOffsets(toU(p))).residuals;
+    return (i: number) => r[i];
+  };
+  for (let it = 1; it <= plan.maxIterations; it++) {
+    const k = slopesAt(toU(v)).map((sl, j) => sl / c[j]);
+    const Jv = J;
+    levenbergMarquardt(data, model, {
+      initialValues: v,
+      maxIterations: 1,
       damping,
-      jacobianFunction: (u) => {
-        const at = ev.evaluate(toOffsets(u));
-        const Jx = jacobianX(at);
-        // Chain rule through the bounds' transform: d r / d u_j = d r / d x_j * d x_j / d u_j.
-        const slopes = slopesAt(u);
-        return (i) => slopes.map((s, j) => Jx[i * n + j] * s);
-      },
-    },
-    );
-  } catch (e) {
-    if (!(e instanceof SettledSignal)) throw e;
-    return { iterations: iterations - 1, settled: true };
+      errorTolerance: 0,
+      // Chain rule through the bounds' transform and the scaling: dr/dv_j = dr/dx_j * dx_j/du_j / c_j.
+      jacobianFunction: () => (i) => k.map((kj, j) => Jv[i * n + j] * kj),
+    });
+    const trial = ev.last!;
+    if (method === 'secant') {
+      // The trial is secant information whether or not it is kept.
+      broydenUpdate(J, Float64Array.from(trial.offsets, (x, j) => x - cur.offsets[j]), Float64Array.from(trial.residuals, (r, i) => r - cur.residuals[i]));
+    }
+    if (trial.cost < cur.cost) {
+      cur = trial;
+      v = Array.from(trial.offsets, (x, j) => unboundedOf(x, variables[j].lo, variables[j].hi) * c[j]);
+      damping = Math.max(damping / DAMPING_DOWN, 1e-9);
+      if (method === 'finite-difference' || ++sinceRefresh >= REFRESH_EVERY) {
+        J = differenceJacobian(ev, cur, variables, stepMm);
+        sinceRefresh = 0;
+      }
+    } else {
+      damping *= DAMPING_UP;
+      // A secant Jacobian that led nowhere is refreshed at once: Broyden's update is only good along steps that work.
+      if (method === 'secant' && sinceRefresh > 0) {
+        J = differenceJacobian(ev, cur, variables, stepMm);
+        sinceRefresh = 0;
+      }
+    }
+    costs.push(cur.cost);
+    const back = costs.length - 1 - SETTLE_ITERATIONS;
+    if (damping > DAMPING_CEILING || (it >= SETTLE_AFTER && back >= 0 && costs[back] - cur.cost <= SETTLE_SHARE * costs[back])) return { iterations: it, settled: true };
   }
-  return { iterations, settled: false };
+  return { iterations: plan.maxIterations, settled: false };
 }
 
 /** Worst |value - target| or least value of each report line over the poses, with where. */

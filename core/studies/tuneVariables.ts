@@ -13,7 +13,7 @@
  */
 
 import type { DesignFile } from '../design/types';
-import { resolveSidedVec } from '../design/resolveDesign';
+import { isTwoSided, resolveSidedVec } from '../design/resolveDesign';
 import { offsetDesignFile } from './studyCoordinates';
 import type { ResolvedVariable } from './tunePlan';
 
@@ -39,8 +39,8 @@ function lengthenTieRods(file: DesignFile, side: 'both' | 'left' | 'right', dMm:
     const k = dMm / len;
     inner[s] = { x: b.x + (b.x - a.x) * k, y: b.y + (b.y - a.y) * k, z: b.z + (b.z - a.z) * k };
   }
-  // Written for both sides (a length change on one side breaks the mirror; both sides stay exact mirrors otherwise).
-  file.steering.tieRodJoint = inner;
+  // A mirrored point stays written once when both rods change alike; one side alone breaks the mirror.
+  file.steering.tieRodJoint = side === 'both' && !isTwoSided(file.steering.tieRodJoint) ? inner.right : inner;
   return file;
 }
 
