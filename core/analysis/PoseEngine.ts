@@ -18,6 +18,7 @@ import { PoseSolver, type SolveResult } from '../solver/PoseSolver';
 import type { PoseAnalysis } from './analysisTypes';
 import { PoseAnalyser } from './PoseAnalyser';
 import { takeSnapshot, type PoseSnapshot } from './poseSnapshot';
+import type { SeedUse, SolverRole } from './solveSeeds';
 import { completeMeasures, ratioBetween, type BaseSteer, type PoseRelatives, type Relative } from './relativeMeasures';
 
 /** Half the handlebar step used for the local steering ratio, degrees. */
@@ -28,6 +29,8 @@ export const NOT_WHILE_PLAYING = 'not found while playing (the poses beside this
 export interface EngineOptions {
   /** Write findings (words) for checks outside tolerance or in the warning band (default true). */
   findings?: boolean;
+  /** Seed books to start from and to record into (studies of moved copies of a design; solveSeeds.ts). */
+  seeds?: SeedUse;
 }
 
 export interface PoseRequestOptions {
@@ -53,15 +56,38 @@ export class WarmSolver {
   readonly analyser: PoseAnalyser;
   private warm = false;
 
-  constructor(design: ResolvedDesign, graph: MechanismGraph, findings: boolean) {
+  constructor(
+    design: ResolvedDesign,
+    graph: MechanismGraph,
+    findings: boolean,
+    private readonly seeds: SeedUse = {},
+    private readonly role: SolverRole = 'main',
+  ) {
     this.solver = new PoseSolver(graph);
     this.analyser = new PoseAnalyser(design, this.solver.mechanism, { findings });
   }
 
-  /** Solve, warm from the last good pose when there is one (cold: from the design pose, by continuation). */
+  /**
+   * Solve, warm from the last good pose when there is one (cold: from the design pose, by
+   * continuation); from a seed of another design's solution of the same pose when the engine
+   * replays a seed book (solveSeeds.ts), falling back to the usual start if that fails.
+   */
   solve(inputs: PoseInputs): SolveResult {
-    const r = this.solver.solve(inputs, this.warm);
-    if (r.reached) this.warm = true;
+    let r: SolveResult | null = null;
+    const seed = this.seeds.replay?.seedFor(this.role, inputs);
+    if (seed && this.solver.seedFrom(seed)) {
+      r = this.solver.solve(inputs, true);
+      if (!r.reached) {
+        this.solver.reset();
+        this.warm = false;
+        r = null;
+      }
+    }
+    r ??= this.solver.solve(inputs, this.warm);
+    if (r.reached) {
+      this.warm = true;
+      this.seeds.record?.record(this.role, inputs, this.solver.goodPose());
+    }
     return r;
   }
 
@@ -85,6 +111,7 @@ export class PoseEngine {
   readonly graph: MechanismGraph;
   readonly main: WarmSolver;
   private readonly findings: boolean;
+  private readonly seeds: SeedUse;
   private sideSolver: WarmSolver | null = null;
   private uprightSolver: WarmSolver | null = null;
   private base: Relative<BaseSteer> | null = null;
@@ -95,7 +122,8 @@ export class PoseEngine {
     this.mode = mode;
     this.findings = options.findings ?? true;
     this.graph = buildMechanism(design, mode);
-    this.main = new WarmSolver(design, this.graph, this.findings);
+    this.seeds = options.seeds ?? {};
+    this.main = new WarmSolver(design, this.graph, this.findings, this.seeds, 'main');
   }
 
   /** Solve one pose, measure and judge it; the relative measures from extra solves unless told not to. */
@@ -127,9 +155,9 @@ export class PoseEngine {
   }
 
   /** A solver steered by the handlebar with the same contact (and hold) as the main one. */
-  private handlebarSolver(): WarmSolver {
+  private handlebarSolver(role: SolverRole): WarmSolver {
     const mode: PoseMode = { contact: this.mode.contact, steerBy: 'handlebar', ...(this.mode.hold ? { hold: this.mode.hold } : {}) };
-    return new WarmSolver(this.design, buildMechanism(this.design, mode), false);
+    return new WarmSolver(this.design, buildMechanism(this.design, mode), false, this.seeds, role);
   }
 
   private notWhilePlaying(): PoseRelatives {
@@ -143,7 +171,7 @@ export class PoseEngine {
    * handlebar 0 instead of solving it again.
    */
   relativesAt(here: PoseInputs, self: PoseAnalysis | null = null): PoseRelatives {
-    const side = (this.sideSolver ??= this.handlebarSolver());
+    const side = (this.sideSolver ??= this.handlebarSolver('side'));
     const h = here.handlebarDeg;
     const lower = side.analyse({ ...here, handlebarDeg: h - LOCAL_RATIO_STEP_DEG });
     const upper = side.analyse({ ...here, handlebarDeg: h + LOCAL_RATIO_STEP_DEG });
@@ -158,7 +186,7 @@ export class PoseEngine {
 
   /** The straight-ahead pose (handlebar 0) at the lean and travel of `here`. */
   straightAt(here: PoseInputs): Relative<PoseAnalysis> {
-    const side = (this.sideSolver ??= this.handlebarSolver());
+    const side = (this.sideSolver ??= this.handlebarSolver('side'));
     const straight = side.analyse({ ...here, handlebarDeg: 0, wheelAngleDeg: 0 });
     return straight ? { value: straight } : { reason: 'the straight-ahead pose at this lean and travel could not be solved' };
   }
@@ -188,6 +216,6 @@ export class PoseEngine {
   }
 
   private upright(): WarmSolver {
-    return (this.uprightSolver ??= this.handlebarSolver());
+    return (this.uprightSolver ??= this.handlebarSolver('upright'));
   }
 }

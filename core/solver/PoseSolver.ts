@@ -35,6 +35,13 @@ export { leastSquaresExtrapolation } from './SweepPredictor';
 
 const DEG = Math.PI / 180;
 
+/** A solved pose as plain data: joint coordinates, spherical joints' rotations, inputs (INPUT_NAMES order). */
+export interface SolverSeed {
+  coord: Float64Array;
+  sph: Float64Array;
+  inputs: Float64Array;
+}
+
 export class PoseSolver {
   readonly mechanism: CompiledMechanism;
   /** The options in force (frozen: the checks below were made on these values). */
@@ -116,6 +123,35 @@ export class PoseSolver {
   /** The inputs of the last good pose. */
   get inputs(): Readonly<PoseInputs> {
     return vectorToInputs(this.goodInputs);
+  }
+
+  /**
+   * The last good pose as plain data (a copy), to seed another solver of a mechanism built by
+   * the same layout from a slightly different design; null before any good pose.
+   */
+  goodPose(): SolverSeed | null {
+    if (!this.hasGood) return null;
+    return { coord: Float64Array.from(this.goodCoord), sph: Float64Array.from(this.goodSph), inputs: Float64Array.from(this.goodInputs) };
+  }
+
+  /**
+   * Start the next solve from a pose of another solver (goodPose): with the same inputs it is
+   * Newton's method from that pose on this mechanism's constraints, whose first step is the
+   * implicit-function tangent -C_x^-1 C(x, p) of the design change. The seed must come from a
+   * mechanism of the same shape (same layout and joints); a seed of another shape is ignored
+   * (false) and the solver keeps its own warm start.
+   */
+  seedFrom(seed: SolverSeed): boolean {
+    if (seed.coord.length !== this.goodCoord.length || seed.sph.length !== this.goodSph.length || seed.inputs.length !== N_INPUTS) return false;
+    this.goodCoord.set(seed.coord);
+    this.goodSph.set(seed.sph);
+    this.goodInputs.set(seed.inputs);
+    this.hasGood = true;
+    this.hasPrev = false;
+    this.failedAt = undefined;
+    this.predictor.clear();
+    this.lm.forgetFactorisation();
+    return true;
   }
 
   /** Forget the warm start: the next solve starts from the design pose. */

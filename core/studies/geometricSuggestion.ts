@@ -25,6 +25,7 @@
 
 import type { DesignFile, PerSide, ResolvedDesign, Side, Vec3Mm } from '../design/types';
 import { resolveDesign } from '../design/resolveDesign';
+import { SeedBook } from '../analysis/solveSeeds';
 import { measureAtPoses, regionSamplePoses } from './studyPoses';
 import { objectiveValue, studyObjectives, studyQuantities } from './studyQuantities';
 
@@ -230,10 +231,11 @@ export function proposalEffect(file: DesignFile, proposed: DesignFile): Proposal
   const objectives = studyObjectives(quantities, design.tolerances).filter((o) => !o.id.startsWith('joint.'));
   const P = sample.poses.length;
   const Q = quantities.length;
-  const before = measureAtPoses(design, sample.poses, quantities);
+  const seeds = new SeedBook();
+  const before = measureAtPoses(design, sample.poses, quantities, { record: seeds });
   let after: ReturnType<typeof measureAtPoses> | null = null;
   try {
-    after = measureAtPoses(resolveDesign(proposed), sample.poses, quantities);
+    after = measureAtPoses(resolveDesign(proposed), sample.poses, quantities, { replay: seeds });
   } catch {
     after = null;
   }

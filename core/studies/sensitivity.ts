@@ -24,6 +24,7 @@
  */
 
 import type { DesignFile } from '../design/types';
+import { SeedBook } from '../analysis/solveSeeds';
 import { resolveDesign } from '../design/resolveDesign';
 import { offsetDesignFile, studyCoordinates, type SideMode, type StudyCoordinate } from './studyCoordinates';
 import { StudyInputError, checkStudyPoses, measureAtPoses, poseWords, regionSamplePoses, type StudyPose } from './studyPoses';
@@ -130,6 +131,8 @@ export interface StudySetup {
   notAssembled: string[];
   posesFrom: 'given' | 'region sample';
   regionSample: { outside: number; notAssembled: number } | null;
+  /** The nominal design's solutions, to start the solves of every moved copy from (solveSeeds.ts). */
+  seeds: SeedBook;
 }
 
 /** Poses (given or the region sample), quantities, objectives and the nominal values; poses the nominal cannot take are dropped and named. */
@@ -147,7 +150,8 @@ export function setUpStudy(file: DesignFile, given: StudyPose[] | undefined): St
   }
   if (poses.length === 0) throw new StudyInputError('no pose of the region sample lies in the operating region: give poses with --poses');
   const quantities = studyQuantities(design);
-  const measured = measureAtPoses(design, poses, quantities);
+  const seeds = new SeedBook();
+  const measured = measureAtPoses(design, poses, quantities, { record: seeds });
   const bad = new Set(measured.failed.map((f) => f.pose));
   const Q = quantities.length;
   const keep = poses.flatMap((_, i) => (bad.has(i) ? [] : [i]));
@@ -161,6 +165,7 @@ export function setUpStudy(file: DesignFile, given: StudyPose[] | undefined): St
     notAssembled: measured.failed.map((f) => f.message),
     posesFrom: given ? 'given' : 'region sample',
     regionSample,
+    seeds,
   };
 }
 
@@ -180,7 +185,7 @@ export function centralRates(file: DesignFile, coords: readonly StudyCoordinate[
   const offsets = new Float64Array(coords.length);
   const measure = (d: number) => {
     offsets[index] = d;
-    return measureAtPoses(resolveDesign(offsetDesignFile(file, coords, offsets)), setup.poses, setup.quantities);
+    return measureAtPoses(resolveDesign(offsetDesignFile(file, coords, offsets)), setup.poses, setup.quantities, { replay: setup.seeds });
   };
   const plus = measure(stepMm);
   const minus = measure(-stepMm);

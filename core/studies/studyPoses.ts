@@ -17,6 +17,7 @@ import { zeroInputs, type PoseInputs } from '../mechanism/MechanismGraph';
 import { PoseEngine } from '../analysis/PoseEngine';
 import { inRidingRegion, turnOf } from '../analysis/ridingRegion';
 import type { PoseAnalysis } from '../analysis/analysisTypes';
+import type { SeedUse } from '../analysis/solveSeeds';
 import type { StudyQuantity } from './studyQuantities';
 
 /** A pose of a study: tyres on the ground, travel lowering the frame (heave = -travel), as sweeps do. */
@@ -96,9 +97,13 @@ export interface Measured {
   failed: { pose: number; message: string }[];
 }
 
-/** Solve the design at each pose with a fresh engine and read every quantity. */
-export function measureAtPoses(design: ResolvedDesign, poses: readonly StudyPose[], quantities: readonly StudyQuantity[]): Measured {
-  const engine = new PoseEngine(design, { contact: 'ground', steerBy: 'handlebar' }, { findings: false });
+/**
+ * Solve the design at each pose with a fresh engine and read every quantity. With seeds, the
+ * engine starts each solve from another design's solution of the same pose (replay) and/or
+ * keeps its own for later copies (record): solveSeeds.ts.
+ */
+export function measureAtPoses(design: ResolvedDesign, poses: readonly StudyPose[], quantities: readonly StudyQuantity[], seeds?: SeedUse): Measured {
+  const engine = new PoseEngine(design, { contact: 'ground', steerBy: 'handlebar' }, { findings: false, seeds });
   const Q = quantities.length;
   const values = new Float64Array(poses.length * Q).fill(NaN);
   const failed: Measured['failed'] = [];

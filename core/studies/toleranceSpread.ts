@@ -110,6 +110,12 @@ export interface ToleranceReport {
   cancelled: boolean;
   /** Poses the design as drawn cannot be assembled at (left out). */
   notAssembledNominal: string[];
+  /**
+   * Coordinates whose moved copies could not be assembled at some pose, with the first reason:
+   * their rates are missing there, so first-order values over those poses are absent (a
+   * centre-pivot parallelogram, for one, locks when one side alone is moved).
+   */
+  rateFailures: string[];
   elapsedMs: { sensitivity: number; sampling: number };
 }
 
@@ -157,8 +163,23 @@ function targets(setup: StudySetup, samples: number): Target[] {
 }
 
 /** Record one sample's values (pose-major) in every target. */
-function record(ts: Target[], s: number, values: ArrayLike<number>, P: number, Q: number): void {
-  for (const t of ts) t.values[s] = t.objective ? objectiveValue(t.objective, values, P, Q) : values[t.index];
+function record(ts: Target[], s: number, values: ArrayLike<number>, P: number, Q: number, nominal: ArrayLike<number>): void {
+  for (const t of ts) t.values[s] = t.objective ? (complete(t.objective.quantities, values, nominal, P, Q) ? objectiveValue(t.objective, values, P, Q) : NaN) : values[t.index];
+}
+
+/**
+ * Whether a sample has every entry of an objective the design itself has: a worst or least
+ * over fewer poses (a first-order sample whose rates are missing where a moved copy could not
+ * be assembled) is another, smaller objective, not this one.
+ */
+function complete(quantities: readonly number[], values: ArrayLike<number>, nominal: ArrayLike<number>, P: number, Q: number): boolean {
+  for (let p = 0; p < P; p++) {
+    for (const q of quantities) {
+      const k = p * Q + q;
+      if (!Number.isNaN(nominal[k]) && Number.isNaN(values[k])) return false;
+    }
+  }
+  return true;
 }
 
 function inside(t: Target, v: number): boolean {
@@ -217,8 +238,11 @@ export function runToleranceSpread(file: DesignFile, options: ToleranceOptions):
   // The sensitivity, each side and axis alone: the first-order estimate and drivers for both methods.
   const studied = coords.map((c) => c.coordinate);
   const rates: Float64Array[] = [];
+  const rateFailures: string[] = [];
   for (let i = 0; i < coords.length && !stop(); i++) {
-    rates.push(centralRates(file, studied, i, setup, stepMm).rates);
+    const r = centralRates(file, studied, i, setup, stepMm);
+    rates.push(r.rates);
+    if (r.failures.length > 0) rateFailures.push(`${studied[i].point}, ${studied[i].direction}: ${r.failures[0]}`);
     done += 2;
     options.onProgress?.(done, total);
   }
@@ -241,16 +265,16 @@ export function runToleranceSpread(file: DesignFile, options: ToleranceOptions):
         const r = rates[i];
         for (let k = 0; k < linear.length; k++) linear[k] += r[k] * e;
       }
-      record(ts, s, linear, P, Q);
+      record(ts, s, linear, P, Q, setup.nominal);
     } else {
       const sample = offsetDesignFile(file, studied, errors);
       const valid = validateDesign(sample);
-      const measured = valid.ok ? measureAtPoses(resolveDesign(sample), setup.poses, setup.quantities) : null;
+      const measured = valid.ok ? measureAtPoses(resolveDesign(sample), setup.poses, setup.quantities, { replay: setup.seeds }) : null;
       if (!valid.ok || measured!.failed.length > 0) {
         notAssembled++;
         if (examples.length < 5) examples.push(`sample ${s + 1}: ${valid.ok ? measured!.failed[0].message : `not a valid design: ${valid.issues[0].message}`}`);
       } else {
-        record(ts, s, measured!.values, P, Q);
+        record(ts, s, measured!.values, P, Q, setup.nominal);
       }
     }
     samplesDone++;
@@ -302,6 +326,7 @@ export function runToleranceSpread(file: DesignFile, options: ToleranceOptions):
     withinAll: measuredCount > 0 ? allWithin / measuredCount : null,
     cancelled,
     notAssembledNominal: setup.notAssembled,
+    rateFailures,
     elapsedMs: { sensitivity: t1 - t0, sampling: Date.now() - t1 },
   };
 }

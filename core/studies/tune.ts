@@ -25,6 +25,7 @@
  */
 
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
+import { SeedBook } from '../analysis/solveSeeds';
 import type { DesignFile } from '../design/types';
 import { resolveDesign } from '../design/resolveDesign';
 import { seededRandom } from './seededRandom';
@@ -45,6 +46,12 @@ export type JacobianMethod = 'finite-difference' | 'secant';
 export interface TuneOptions extends StudyProgress {
   jacobian?: JacobianMethod;
   stepMm?: number;
+  /**
+   * Start each moved design's solves from the nearest evaluated design's solutions of the same
+   * poses (the implicit-function tangent, polished by Newton: solveSeeds.ts). Default true;
+   * false solves every copy afresh from its design pose (the plain path, for comparison).
+   */
+  seeded?: boolean;
 }
 
 export interface TuneSummaryItem extends SummaryKey {
@@ -115,6 +122,8 @@ interface Evaluated {
   values: Float64Array;
   failed: Map<number, string>;
   cost: number;
+  /** Its solutions, to seed the solves of designs near it (null when not kept). */
+  seeds: SeedBook | null;
 }
 
 /** Solves moved designs at the study poses, counting and remembering the best. */
@@ -133,11 +142,16 @@ class Evaluator {
     private readonly terms: readonly ResidualTerm[],
     private readonly progress: () => void,
     private readonly shouldStop: () => boolean,
+    private readonly seeded: boolean,
   ) {
     this.quantities = termQuantities(terms);
   }
 
-  evaluate(offsets: ArrayLike<number>): Evaluated {
+  /**
+   * The design moved by these offsets, solved at every pose. `from`: a design already evaluated
+   * nearby whose solutions seed these solves (solveSeeds.ts), unless seeding is off.
+   */
+  evaluate(offsets: ArrayLike<number>, from?: Evaluated, keepSeeds = true): Evaluated {
     const key = Array.from(offsets, (x) => x.toPrecision(15)).join(',');
     const hit = this.cache.get(key);
     if (hit) {
@@ -148,9 +162,12 @@ class Evaluator {
     const n = this.poses.length * this.terms.length;
     const values = new Float64Array(n).fill(NaN);
     const failed = new Map<number, string>();
+    // A difference column is never a point the run moves to: its solutions need not be kept.
+    const seeds = this.seeded && keepSeeds ? new SeedBook() : null;
     try {
       const moved = resolveDesign(applyTuneOffsets(this.file, this.variables, offsets));
-      const m = measureAtPoses(moved, this.poses, this.quantities);
+      const replay = this.seeded ? ((from ?? this.last)?.seeds ?? undefined) : undefined;
+      const m = measureAtPoses(moved, this.poses, this.quantities, { replay, record: seeds ?? undefined });
       values.set(m.values);
       for (const f of m.failed) failed.set(f.pose, f.message);
     } catch (e) {
@@ -160,7 +177,7 @@ class Evaluator {
     const residuals = residualVector(this.terms, this.poses, values, new Set(failed.keys()), new Float64Array(n));
     let cost = 0;
     for (const r of residuals) cost += r * r;
-    const ev: Evaluated = { offsets: Float64Array.from(offsets), residuals, values, failed, cost };
+    const ev: Evaluated = { offsets: Float64Array.from(offsets), residuals, values, failed, cost, seeds };
     if (this.cache.size > 64) this.cache.clear();
     this.cache.set(key, ev);
     this.count++;
@@ -180,7 +197,7 @@ function differenceJacobian(ev: Evaluator, at: Evaluated, variables: readonly Re
     const x = Float64Array.from(at.offsets);
     const h = x[j] + stepMm <= variables[j].hi ? stepMm : -stepMm;
     x[j] += h;
-    const r = ev.evaluate(x).residuals;
+    const r = ev.evaluate(x, at, false).residuals;
     for (let i = 0; i < m; i++) J[i * n + j] = (r[i] - at.residuals[i]) / h;
   }
   return J;
@@ -251,7 +268,7 @@ function runFrom(ev: Evaluator, variables: readonly ResolvedVariable[], start: F
   const costs = [cur.cost];
   const data = { x: Array.from({ length: m }, (_, i) => i), y: new Array<number>(m).fill(0) };
   const model = (p: number[]) => {
-    const r = ev.evaluate(toOffsets(toU(p))).residuals;
+    const r = ev.evaluate(toOffsets(toU(p)), cur).residuals;
     return (i: number) => r[i];
   };
   for (let it = 1; it <= plan.maxIterations; it++) {
@@ -351,13 +368,14 @@ export function runTune(file: DesignFile, plan: TunePlan, variables: readonly Re
   const t0 = Date.now();
   const method = options.jacobian ?? 'secant';
   const stepMm = options.stepMm ?? DEFAULT_TUNE_STEP_MM;
+  const seeded = options.seeded ?? true;
   const design = resolveDesign(file);
   const terms = residualTerms(design, plan.objectives, plan.constraints);
   const planned = planPoses(file, plan);
   const n = variables.length;
   const perIteration = method === 'finite-difference' ? n + 1 : 1 + (n + 1) / REFRESH_EVERY;
   const budget = Math.ceil(plan.starts * (plan.maxIterations * perIteration + n + 2));
-  let ev = new Evaluator(file, variables, planned.poses, terms, () => options.onProgress?.(Math.min(ev.count, budget - 1), budget), () => options.shouldStop?.() ?? false);
+  let ev = new Evaluator(file, variables, planned.poses, terms, () => options.onProgress?.(Math.min(ev.count, budget - 1), budget), () => options.shouldStop?.() ?? false, seeded);
 
   // The design as it is, and the poses it cannot take (left out: the tune cannot be judged there).
   const zero = new Float64Array(n);
@@ -367,7 +385,7 @@ export function runTune(file: DesignFile, plan: TunePlan, variables: readonly Re
   if (first.failed.size > 0) {
     poses = planned.poses.filter((_, i) => !first.failed.has(i));
     if (poses.length === 0) throw new StudyInputError(`the design cannot be assembled at any study pose: ${notAssembled.slice(0, 3).join('; ')}`);
-    ev = new Evaluator(file, variables, poses, terms, () => options.onProgress?.(Math.min(ev.count, budget - 1), budget), () => options.shouldStop?.() ?? false);
+    ev = new Evaluator(file, variables, poses, terms, () => options.onProgress?.(Math.min(ev.count, budget - 1), budget), () => options.shouldStop?.() ?? false, seeded);
   }
   const before = ev.evaluate(zero);
 

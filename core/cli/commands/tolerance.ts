@@ -123,6 +123,14 @@ export function formatTolerance(r: ToleranceReport, showPoses: boolean): string 
   else lines.push('', `(the spread at each of the ${r.poses.length} poses is in --json, or printed here with --poses)`);
   if (r.notAssembledExamples.length > 0) lines.push('', 'samples that could not be assembled (first few):', ...r.notAssembledExamples.map((m) => `  ${m}`));
   if (r.notAssembledNominal.length > 0) lines.push('', 'poses the design as drawn cannot be assembled at (left out):', ...r.notAssembledNominal.map((m) => `  ${m}`));
+  if (r.rateFailures.length > 0) {
+    lines.push(
+      '',
+      `${r.rateFailures.length} coordinates moved alone give a design that cannot be assembled at some poses; their rates are missing there, so first-order values over those poses are absent:`,
+      ...r.rateFailures.slice(0, 5).map((m) => `  ${m}`),
+      ...(r.rateFailures.length > 5 ? [`  and ${r.rateFailures.length - 5} more`] : []),
+    );
+  }
   if (r.cancelled) lines.push('', `stopped before the end: ${r.samplesDone} of ${r.samplesAsked} samples`);
   lines.push('', `time: sensitivity ${(r.elapsedMs.sensitivity / 1000).toFixed(1)} s, sampling ${(r.elapsedMs.sampling / 1000).toFixed(1)} s`);
   return lines.join('\n') + '\n';

@@ -105,4 +105,14 @@ describe('tolerance spread', () => {
     expect(stopped.cancelled).toBe(true);
     expect(stopped.samplesDone).toBeLessThan(50);
   }, 60_000);
+
+  it('first-order values over poses where moved copies could not be assembled are absent, with the reason, not a spread over the rest', () => {
+    const pose: StudyPose = { leanDeg: -35, handlebarDeg: 15, travelMm: 0 };
+    const r = runToleranceSpread(demoDoc('swift-parallelogram-trike'), { samples: 200, seed: 1, bands: { defaultMm: 0.3 }, method: 'first-order', poses: [pose, { leanDeg: 0, handlebarDeg: 0, travelMm: 0 }] });
+    expect(r.rateFailures.length).toBeGreaterThan(0);
+    expect(r.rateFailures[0]).toMatch(/cannot close|short of closure/);
+    const selfSteer = r.overPoses.find((x) => x.id === 'selfSteer')!;
+    expect(selfSteer.summary).toBeNull();
+    expect(selfSteer.firstOrderSigma).toBeNull();
+  }, 60_000);
 });
