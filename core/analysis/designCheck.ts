@@ -1,7 +1,8 @@
 /**
  * Checking a design over its envelope: sweep design.envelope and keep, for each tolerance,
  * each joint and each clearance pair, the worst value and where it occurs, judged against
- * the design's tolerances (tolerance.ts). Two sections from one sweep: the operating region
+ * the design's tolerances (tolerance.ts); besides each side's pairs, the two front tyres are kept
+ * apart across the vehicle. Two sections from one sweep: the operating region
  * (the poses balanced turns within the riding block reach, ridingRegion.ts), which decides by
  * default, and the full grid, which `--region full` makes decide. Made for `tiltbench check`
  * and for CI of designs.
@@ -9,7 +10,7 @@
 
 import type { ResolvedDesign, Side } from '../design/types';
 import type { PoseAnalysis } from './analysisTypes';
-import { clearancePairs } from './clearance';
+import { clearancePairs, crownCircleOf, tyreToTyreDistance } from './clearance';
 import { envelopeAxes, runSweep, type SweepAxes, type SweepCell, type SweepContact, type SweepSummary } from './sweep';
 import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from './tolerance';
 import { JOINT_WORDS, PART_WORDS } from './words';
@@ -76,6 +77,15 @@ export interface DesignCheck {
   summary: SweepSummary;
 }
 
+/** The check item that keeps the two front tyres apart (left to right). */
+export const ACROSS_ID = 'clearance.tyre-tyre.across';
+
+/** Surface distance from the left front tyre to the right one in a solved pose, mm. */
+export function acrossClearance(a: PoseAnalysis, design: ResolvedDesign): number {
+  const tyre = design.wheels.front;
+  return tyreToTyreDistance(crownCircleOf(a.wheels.left, tyre), crownCircleOf(a.wheels.right, tyre), tyre.crownRadiusMm);
+}
+
 interface Acc {
   item: CheckItem;
   /** Compare by this (larger = worse). */
@@ -107,6 +117,7 @@ export class CheckAccumulator {
       }
     }
     for (const p of clearancePairs(design)) add(`clearance.${p.id}.${p.side}`, 'clearance', `clearance ${PART_WORDS[p.a]} to ${PART_WORDS[p.b]}, ${p.side}`, 'mm', `>= ${tol.clearanceMm} mm`);
+    add(ACROSS_ID, 'clearance', 'clearance left tyre to right tyre (across the vehicle)', 'mm', `>= ${tol.clearanceMm} mm`);
     add('deadCentre', 'linkage', 'dead-centre margin (smallest transmission angle)', 'deg', '> 0 deg');
     add('assembly', 'linkage', 'poses that cannot be assembled', 'poses', '0');
   }
@@ -138,6 +149,8 @@ export class CheckAccumulator {
     if (rc !== null) this.update('ratioChange', rc, Math.abs(rc), where);
     for (const j of a.joints) this.update(`joint.${j.joint}.${j.side}`, j.articulationDeg, j.articulationDeg, where);
     for (const c of a.clearances) this.update(`clearance.${c.pair}.${c.side}`, c.distanceMm, -c.distanceMm, where);
+    const across = acrossClearance(a, this.design);
+    this.update(ACROSS_ID, across, -across, where);
     this.update('deadCentre', a.worst.transmissionDeg, -a.worst.transmissionDeg, where);
     const tc = a.turningCircle;
     if (cell.leanDeg === 0 && cell.travelMm === 0 && tc.outerSide && tc.kerbToKerbMm !== null && tc.wallToWallMm !== null) {
@@ -212,6 +225,20 @@ export interface CheckOptions {
   /** Which section decides the verdict (default 'operating'). */
   judged?: CheckRegion;
   onProgress?: (done: number, total: number) => void;
+}
+
+/**
+ * Poses in the grid `checkDesign` sweeps (envelopeAxes's values per axis, multiplied), counted
+ * without building the axes: a caller can refuse a grid too large before allocating it.
+ */
+export function checkGridPoses(design: ResolvedDesign, steps: CheckOptions['steps'] = {}, contact: SweepContact = 'ground'): number {
+  const each = (half: number, step: number) => (half > 0 ? Math.ceil(half / step - 1e-9) : 0);
+  const e = design.envelope;
+  const lean = design.vehicle.tilting ? 2 * each(e.leanDeg, steps.leanDeg ?? 1) + 1 : 1;
+  const handlebar = 2 * each(e.handlebarDeg, steps.handlebarDeg ?? 1) + 1;
+  const travelStep = steps.travelMm ?? 10;
+  const travel = contact === 'ground' && design.frontEnd.kind === 'centrePivot' ? 1 : each(e.reboundMm, travelStep) + each(e.bumpMm, travelStep) + 1;
+  return lean * handlebar * travel;
 }
 
 export function checkDesign(design: ResolvedDesign, options: CheckOptions = {}): DesignCheck {

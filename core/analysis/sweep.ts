@@ -46,6 +46,11 @@ export interface SweepOptions {
   progressEvery?: number;
   /** Run on this engine's solvers (its mode must steer by handlebar with the sweep's contact). */
   engine?: PoseEngine;
+  /**
+   * The upright pass already run for these handlebar values (`uprightReferences`): a grid
+   * swept in slices (the CLI writes each slice as it comes) runs it once, not per slice.
+   */
+  upright?: UprightReferences;
 }
 
 /** Grid position and the inputs asked for. */
@@ -136,7 +141,7 @@ function rowNeighbours(row: (PoseAnalysis | null)[], i: number): PoseRelatives['
 const NO_ROW_NEIGHBOURS = 'the sweep has one handlebar value: no neighbouring pose for the local ratio';
 
 /** What the upright pass (zero lean and travel, every handlebar value) gives every row. */
-interface UprightReferences {
+export interface UprightReferences {
   /** Local ratio upright at each handlebar value: the reference of the ratio change. */
   ratio: Relative<number>[];
   /** The turn each handlebar value makes upright (a failed cell's region uses it). */
@@ -153,7 +158,7 @@ const turnAt = (a: PoseAnalysis | null): Turn => (a ? turnOf(a.slip.turnCentreMm
  * local ratios come from the same grid spacing as every row's, so the ratio change compares
  * like with like.
  */
-function uprightPass(engine: PoseEngine, axes: SweepAxes, contact: SweepContact): UprightReferences {
+export function uprightReferences(engine: PoseEngine, axes: Pick<SweepAxes, 'handlebarDeg'>, contact: SweepContact): UprightReferences {
   const input = zeroInputs();
   setTravel(input, contact, 0);
   const row: (PoseAnalysis | null)[] = axes.handlebarDeg.map((bar) => {
@@ -191,8 +196,8 @@ export function runSweep(design: ResolvedDesign, axes: SweepAxes, options: Sweep
   const total = nL * nS * nT;
   const every = Math.max(1, options.progressEvery ?? 500);
   const input = zeroInputs();
-  const upright = uprightPass(engine, axes, contact);
-  let solves = upright.solves;
+  const upright = options.upright ?? uprightReferences(engine, axes, contact);
+  let solves = options.upright ? 0 : upright.solves;
   const tilting = design.vehicle.tilting;
   // A cell's region from the turn it makes; a cell that failed takes the upright turn of its handlebar.
   const regionOf = (lean: number, a: PoseAnalysis | null, si: number): RegionVerdict =>

@@ -1,7 +1,9 @@
 /**
  * Rules across fields, checked on a design that passed the schema: coincident points, points
  * on a line they must stay off, the steering axis against the spin axis, crown against rolling
- * radius, a lean on a vehicle that does not tilt, the riding block against the envelope.
+ * radius, a lean on a vehicle that does not tilt, the riding block against the envelope, the
+ * wheels on their own sides of the centre line, and sizes no vehicle has (the schema bounds
+ * points to 20 m but leaves radii, widths and tolerances open above).
  * Each issue names the path a user would fix.
  */
 import { angleBetween, norm, RAD, scale, sub, tuple } from '../math/vec3';
@@ -24,6 +26,21 @@ export const CENTRE_LINE_TOLERANCE_MM = 1;
 export const MIN_STEER_TO_SPIN_AXIS_DEG = 10;
 
 /**
+ * Largest sizes accepted: several times anything a road vehicle carries (a large car tyre is
+ * about 350 mm in rolling radius and 300 mm wide; common practice, no source). Past them a
+ * value is a slip (a unit mix-up, a pasted digit), and the solver would be asked to close
+ * loops kilometres across.
+ */
+export const SIZE_LIMITS = {
+  rollingRadiusMm: 2000,
+  tyreWidthMm: 1000,
+  trackMm: 5000,
+  partRadiusMm: 500,
+  clearanceMm: 1000,
+  angleToleranceDeg: 90,
+} as const;
+
+/**
  * The wheel's spin axis at design position from static toe and camber, pointing outward
  * (the mechanism's convention, which points left on both sides, turned outward here).
  */
@@ -41,6 +58,8 @@ export function checkAcrossFields(d: DesignFile): DesignIssue[] {
   checkSteering(d, r, list);
   checkSpring(d, r, list);
   checkWheels(d, list);
+  checkWheelSides(d, r, list);
+  checkSizes(d, list);
   checkEnvelope(d, list);
   checkRiding(d, r, list);
   return list.issues;
@@ -164,6 +183,53 @@ function checkWheels(d: DesignFile, list: IssueList): void {
       const expected = `a crown radius in mm at most the rolling radius (wheels.${axle}.rollingRadiusMm = ${tyre.rollingRadiusMm})`;
       list.expected(`wheels.${axle}.crownRadiusMm`, expected, String(tyre.crownRadiusMm));
     }
+  }
+}
+
+/**
+ * Each wheel centre on its own side of the centre line (right y < 0, left y > 0), the two at
+ * least a front tyre's width apart across: a single wheel centre written at y = 0, mirrored,
+ * puts both wheels at one place, which the solver would close as a "converged" pose.
+ */
+function checkWheelSides(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  const right = r.upright.wheelCentre.right.y;
+  const left = r.upright.wheelCentre.left.y;
+  const width = r.wheels.front.tyreWidthMm;
+  const pathOf = (side: Side) => `${sidePath(d.upright.wheelCentre, 'upright.wheelCentre', side)}.y`;
+  if (!(right < 0)) {
+    list.expected(pathOf('right'), 'a y below 0 mm (the right wheel right of the centre line; a single value is mirrored to the left, so y = 0 puts both wheels in one place)', `${right} mm`, 'right');
+  }
+  if (!(left > 0)) list.expected(pathOf('left'), 'a y above 0 mm (the left wheel left of the centre line)', `${left} mm`, 'left');
+  if (right < 0 && left > 0 && left - right < width) {
+    const path = isMirrored(d) ? pathOf('right') : pathOf('left');
+    list.expected(
+      path,
+      `the wheel centres at least the tyre width (wheels.front.tyreWidthMm = ${width} mm) apart across the vehicle, or the two tyres overlap at the centre line`,
+      `${roundForMessage(left - right)} mm apart (y ${left} and ${right} mm)`,
+    );
+  }
+}
+
+const isMirrored = (d: DesignFile) => sidePath(d.upright.wheelCentre, 'upright.wheelCentre', 'right') === 'upright.wheelCentre';
+
+/** Sizes past SIZE_LIMITS, each named by its field. */
+function checkSizes(d: DesignFile, list: IssueList): void {
+  const most = (path: string, value: number | undefined, limit: number, unit: string, what: string) => {
+    if (value !== undefined && value > limit) list.expected(path, `at most ${limit} ${unit} (${what}; a larger value is taken for a slip)`, `${describeFound(value)} ${unit}`);
+  };
+  for (const axle of ['front', 'rear'] as const) {
+    const t = d.wheels[axle];
+    most(`wheels.${axle}.rollingRadiusMm`, t.rollingRadiusMm, SIZE_LIMITS.rollingRadiusMm, 'mm', 'a wheel 4 m across');
+    most(`wheels.${axle}.tyreWidthMm`, t.tyreWidthMm, SIZE_LIMITS.tyreWidthMm, 'mm', 'a tyre 1 m wide');
+  }
+  if (d.vehicle.rear.kind === 'pair') most('vehicle.rear.trackMm', d.vehicle.rear.trackMm, SIZE_LIMITS.trackMm, 'mm', 'the largest wheelbase accepted');
+  for (const part of ['wishboneTubeRadiusMm', 'tieRodRadiusMm', 'steeringArmRadiusMm'] as const) {
+    most(`parts.${part}`, d.parts?.[part], SIZE_LIMITS.partRadiusMm, 'mm', 'a part 1 m thick');
+  }
+  const t = d.tolerances;
+  most('tolerances.clearanceMm', t?.clearanceMm, SIZE_LIMITS.clearanceMm, 'mm', 'a metre between parts');
+  for (const angle of ['selfSteerDeg', 'toeErrorDeg', 'slipDeg', 'jointMarginDeg'] as const) {
+    most(`tolerances.${angle}`, t?.[angle], SIZE_LIMITS.angleToleranceDeg, 'degrees', 'a right angle');
   }
 }
 

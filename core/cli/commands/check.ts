@@ -1,7 +1,9 @@
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
-import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { EXIT_BAD_INPUT, EXIT_CODES_HELP, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
+import { MAX_GRID_POSES, requireGridSize } from '../inputLimits';
+import { clip, MAX_ECHOED_NAME, quoted } from '../safeText';
 // The analysis modules are loaded when the command runs, so other commands start faster.
 import type { CheckItem, CheckRegion, CheckSection, DesignCheck } from '../../analysis/designCheck';
 import type { LeanLimits, LimitKind } from '../../analysis/limits';
@@ -21,8 +23,10 @@ export const checkHelp = `tiltbench check <design.tiltsheet> [--region operating
   --contact ground|travel             tyres on the ground (default; travel lowers the frame), or
                                       wheel travel held relative to the frame
   --json                              machine-readable output
+  The grid holds at most ${MAX_GRID_POSES} poses (a larger one is refused before any work:
+  widen a step). Besides each side's parts, the two tyres are kept apart (left to right).
   Exit 0 when everything passes (warnings allowed), 1 when anything is violated or a pose
-  cannot be assembled, 2 for bad input.`;
+  cannot be assembled, 2 for bad input. ${EXIT_CODES_HELP}`;
 
 function positiveOption(args: ReturnType<typeof parseArgs>, name: string, unit: string, fallback: number): number {
   const v = numberOption(args, name, unit, fallback);
@@ -71,7 +75,7 @@ export function formatCheck(c: DesignCheck): string {
   const a: SweepAxes = c.axes;
   const r = c.riding;
   const header = [
-    `${c.design}: check over the envelope, ${c.contact === 'ground' ? 'tyres on the ground' : 'wheel travel relative to the frame'}`,
+    `${clip(c.design, MAX_ECHOED_NAME)}: check over the envelope, ${c.contact === 'ground' ? 'tyres on the ground' : 'wheel travel relative to the frame'}`,
     `  grid: lean ${axisText(a.leanDeg, 'deg')} x handlebar ${axisText(a.handlebarDeg, 'deg')} x travel ${axisText(a.travelMm, 'mm')}: ${summaryLine(c.summary)}`,
     `  riding: ${r.minKmh}..${r.maxKmh} km/h, lean limit ${r.maxLeanDeg} deg, transient band ${r.transientBandDeg} deg, grip ${r.gripG} g ` +
       '(balanced turn: tan(lean) = v^2 / (g R), R the rear axle centre path radius)',
@@ -125,7 +129,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     contact = parseContact(args.options.get('contact'));
     const rawRegion = args.options.get('region');
     if (rawRegion !== undefined && rawRegion !== 'operating' && rawRegion !== 'full') {
-      throw new ArgError(`option --region: expected operating or full, found ${rawRegion === true ? 'no value' : rawRegion}`);
+      throw new ArgError(`option --region: expected operating or full, found ${rawRegion === true ? 'no value' : quoted(rawRegion)}`);
     }
     region = rawRegion ?? 'operating';
   } catch (e) {
@@ -133,7 +137,12 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   }
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
-  const { checkDesign } = await import('../../analysis/designCheck');
+  const { checkDesign, checkGridPoses } = await import('../../analysis/designCheck');
+  try {
+    requireGridSize(checkGridPoses(loaded.design, steps, contact), 'the envelope grid at these steps', 'give a larger --lean-step, --steer-step or --travel-step');
+  } catch (e) {
+    return reportArgError(e, io, 'check', checkHelp);
+  }
   const { SweepInputError } = await import('../../analysis/sweep');
   const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');
   const bar = progressBar(io, 'check');

@@ -5,6 +5,7 @@ import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs } from '../args';
+import { clip, MAX_ECHOED_NAME } from '../safeText';
 import type { VariantsReport } from '../../studies/variants';
 import type { StudyPose } from '../../studies/studyPoses';
 import { POSES_HELP, parsePoses, table } from './studyArgs';
@@ -33,7 +34,7 @@ export function formatCompare(r: VariantsReport): string {
   }
   lines.push('');
   if (r.settings.length === 0) lines.push('other settings: the same in every design');
-  else lines.push('other settings:', ...table([['field', ...letters], ...r.settings.map((s) => [s.path, ...s.values.map((v) => v ?? '-')])], [0]).map((l) => '  ' + l));
+  else lines.push('other settings:', ...table([['field', ...letters], ...r.settings.map((s) => [s.path, ...s.values.map((v) => clip(v ?? '-', MAX_ECHOED_NAME))])], [0]).map((l) => '  ' + l));
   lines.push('', 'over the poses:');
   const rows = [['measure', ...letters.map((l) => `${l}`), 'allowed (A)']];
   for (const res of r.results) rows.push([`${res.label} (${res.unit})`, ...res.values.map((v) => f(v)), res.limits[0] === null ? '-' : `${res.kind === 'worst' ? 'at most' : 'at least'} ${res.limits[0]}`]);

@@ -1,7 +1,9 @@
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
-import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { EXIT_BAD_INPUT, EXIT_CODES_HELP, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, numberOption, parseArgs } from '../args';
+import { limitedOption, POSE_INPUT_LIMITS as LIMIT, POSE_LIMITS_HELP, requireWithin } from '../inputLimits';
+import { quoted } from '../safeText';
 import { PoseRequestError, solveSinglePose, type PoseRequest } from '../../analysis/solveSinglePose';
 import { parseHold } from './sweep';
 
@@ -25,7 +27,9 @@ export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed
                       contact, lean 0, travel 0; takes no --lean, --speed, --travel, --heave
                       or --on-ground
   --json              machine-readable output
-  Exit 0 when solved, 1 when the linkage cannot be assembled there, 2 for bad input.`;
+  ${POSE_LIMITS_HELP}
+  Exit 0 when solved, 1 when the linkage cannot be assembled there, 2 for bad input.
+  ${EXIT_CODES_HELP}`;
 
 export async function runPose(argv: string[], io: CliIo): Promise<number> {
   let request: PoseRequest;
@@ -42,25 +46,26 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
     json = args.options.has('json');
     const travelGiven = ['travel', 'travel-left', 'travel-right'].some((n) => args.options.has(n));
     if (travelGiven && args.options.has('on-ground')) throw new ArgError('give either --travel or --on-ground, not both');
-    const travel = numberOption(args, 'travel', 'mm', 0);
+    const travel = limitedOption(args, 'travel', LIMIT.travelMm, 0);
     const wheel = args.options.get('wheel') ?? 'left';
-    if (wheel !== 'left' && wheel !== 'right') throw new ArgError(`option --wheel: expected left or right, found "${String(wheel)}"`);
+    if (wheel !== 'left' && wheel !== 'right') throw new ArgError(`option --wheel: expected left or right, found ${wheel === true ? 'no value' : quoted(wheel)}`);
     if (args.options.has('wheel-angle') && args.options.has('steer')) throw new ArgError('give either --steer or --wheel-angle, not both');
     if (args.options.has('speed') && args.options.has('lean')) throw new ArgError('give either --lean or --speed, not both (the speed sets the lean)');
     const speed = args.options.has('speed') ? numberOption(args, 'speed', 'km/h', 0) : undefined;
     if (speed !== undefined && !(speed >= 0)) throw new ArgError(`option --speed: expected a speed of 0 km/h or more, found ${speed}`);
+    if (speed !== undefined) requireWithin(speed, LIMIT.speedKmh, 'option --speed');
     request = {
-      leanDeg: numberOption(args, 'lean', 'degrees', 0),
-      handlebarDeg: numberOption(args, 'steer', 'degrees', 0),
-      heaveMm: numberOption(args, 'heave', 'mm', 0),
+      leanDeg: limitedOption(args, 'lean', LIMIT.leanDeg, 0),
+      handlebarDeg: limitedOption(args, 'steer', LIMIT.handlebarDeg, 0),
+      heaveMm: limitedOption(args, 'heave', LIMIT.heaveMm, 0),
       // Held, no row of the mechanism reads the contact; travel (all zero) says the tyres are not asked to touch.
       contact: travelGiven || hold ? 'travel' : 'ground',
       ...(hold ? { hold } : {}),
-      travelRightMm: numberOption(args, 'travel-right', 'mm', travel),
-      travelLeftMm: numberOption(args, 'travel-left', 'mm', travel),
+      travelRightMm: limitedOption(args, 'travel-right', LIMIT.travelMm, travel),
+      travelLeftMm: limitedOption(args, 'travel-left', LIMIT.travelMm, travel),
       ...(speed !== undefined ? { speedKmh: speed } : {}),
       ...(args.options.has('wheel-angle')
-        ? { steerBy: wheel === 'left' ? 'leftWheel' : 'rightWheel', wheelAngleDeg: numberOption(args, 'wheel-angle', 'degrees', 0) }
+        ? { steerBy: wheel === 'left' ? 'leftWheel' : 'rightWheel', wheelAngleDeg: limitedOption(args, 'wheel-angle', LIMIT.wheelAngleDeg, 0) }
         : { steerBy: 'handlebar', wheelAngleDeg: 0 }),
     } as PoseRequest;
   } catch (e) {

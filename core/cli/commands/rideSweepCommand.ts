@@ -4,22 +4,29 @@
  * speed, the balance residual and the lateral acceleration before the usual pose columns (the
  * lean column holds the balanced lean found).
  */
-import { closeSync, writeSync } from 'node:fs';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
-import { ArgError, parseArgs, rangeOption } from '../args';
+import { ArgError, parseArgs } from '../args';
+import { limitedRange, POSE_INPUT_LIMITS } from '../inputLimits';
+import { checkOutputPath, type OutputTarget } from '../outputFile';
+import { quoted } from '../safeText';
 import type { RideAxes, RideCell, RideSweepSummary } from '../../analysis/rideSweep';
 import type { CellValue } from '../../analysis/poseColumns';
-import { csvValue, jsonValue, openOutput, parseContact, progressBar, sweepHelp } from './sweep';
+import { parseContact, progressBar, sweepHelp } from './sweep';
+import { formatOf, type TableFormat } from './sweepTable';
+import { writeTableFile } from './sweepFile';
 
 /** Largest ride grid (poses): each pose takes a few solves to find its balance. */
 export const MAX_RIDE_POSES = 20_000;
 
+/** Ride poses solved between two turns of the event loop (each speed's slice has its own engine). */
+const RIDE_POSES_PER_SLICE = 400;
+
 interface RideRequest {
   axes: RideAxes;
-  out: string;
-  format: 'csv' | 'json';
+  out: OutputTarget;
+  format: TableFormat;
   designPath: string;
   contact: ReturnType<typeof parseContact>;
 }
@@ -30,8 +37,8 @@ function parseRideArgs(argv: string[]): RideRequest {
   if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
   if (args.options.has('lean')) throw new ArgError('give either --lean or --speed, not both (the speed sets the lean)');
   if (args.options.has('travel')) throw new ArgError('--speed sweeps ride at design travel: leave out --travel');
-  const speed = rangeOption(args, 'speed', 'km/h');
-  const steer = rangeOption(args, 'steer', 'degrees');
+  const speed = limitedRange(args, 'speed', POSE_INPUT_LIMITS.speedKmh);
+  const steer = limitedRange(args, 'steer', POSE_INPUT_LIMITS.handlebarDeg);
   if (!speed || !steer) throw new ArgError('a ride sweep needs both --speed A:B:STEP (km/h) and --steer A:B:STEP (degrees)');
   if (speed.some((v) => v < 0)) throw new ArgError('option --speed: speeds must be 0 km/h or more');
   if (speed.length * steer.length > MAX_RIDE_POSES) {
@@ -39,11 +46,11 @@ function parseRideArgs(argv: string[]): RideRequest {
   }
   const out = args.options.get('out');
   if (typeof out !== 'string') throw new ArgError('option --out FILE.csv|FILE.json is required');
-  let format: 'csv' | 'json';
-  if (/\.csv$/i.test(out)) format = 'csv';
-  else if (/\.json$/i.test(out)) format = 'json';
-  else throw new ArgError(`option --out: expected a .csv or .json file, found "${out}"`);
-  return { axes: { speedKmh: speed, handlebarDeg: steer }, out, format, designPath: args.positionals[0], contact: parseContact(args.options.get('contact')) };
+  const format = formatOf(out);
+  if (!format) throw new ArgError(`option --out: expected a .csv or .json file, found ${quoted(out)}`);
+  const designPath = args.positionals[0];
+  const contact = parseContact(args.options.get('contact'));
+  return { axes: { speedKmh: speed, handlebarDeg: steer }, out: checkOutputPath(out, '--out', [{ path: designPath, what: 'design' }]), format, designPath, contact };
 }
 
 export async function runRideSweepCommand(argv: string[], io: CliIo): Promise<number> {
@@ -73,42 +80,47 @@ export async function runRideSweepCommand(argv: string[], io: CliIo): Promise<nu
     ...columns.map((c) => ({ name: c.name, unit: c.unit })),
   ];
   const values = (r: RideCell): CellValue[] => [r.speedKmh, r.balanceResidualDeg, r.lateralG, r.notes.join('; '), ...cellRow(columns, r.cell)];
-  const fd = openOutput(out, io);
-  if (fd === null) return EXIT_BAD_INPUT;
-  const write = (t: string) => writeSync(fd, t);
-  let first = true;
-  const emit = (r: RideCell) => {
-    if (format === 'csv') write(values(r).map(csvValue).join(',') + '\n');
-    else {
-      write((first ? '\n    ' : ',\n    ') + JSON.stringify(values(r).map(jsonValue)));
-      first = false;
-    }
-  };
-  if (format === 'csv') write(head.map((h) => csvValue(h.name)).join(',') + '\n');
-  else {
-    const text = JSON.stringify({ tiltbench: 'ride sweep', design: loaded.path, name: design.name, caution: SAFETY_CAUTION, axes, riding: design.riding, definitions: ANALYSIS_DEFINITIONS, columns: head }, null, 2);
-    write(text.slice(0, text.lastIndexOf('}')).trimEnd() + ',\n  "rows": [');
-  }
+  const jsonHead = { tiltbench: 'ride sweep', design: loaded.path, name: design.name, caution: SAFETY_CAUTION, axes, riding: design.riding, definitions: ANALYSIS_DEFINITIONS, columns: head };
   const bar = progressBar(io, 'ride sweep');
-  let summary: RideSweepSummary;
-  // Rows come serpentine along the handlebar; each speed's row is written in ascending order.
-  let row: RideCell[] = [];
+  const total = axes.speedKmh.length * axes.handlebarDeg.length;
+  let written: Awaited<ReturnType<typeof writeTableFile<RideSweepSummary>>>;
   try {
-    summary = runRideSweep(design, axes, { contact, onProgress: (d, t) => bar.update(d, t) }, (cell) => {
-      row[cell.cell.handlebarIndex] = cell;
-      if (row.filter(Boolean).length === axes.handlebarDeg.length) {
-        row.forEach(emit);
-        row = [];
+    written = await writeTableFile(io, 'sweep', out, { format, columns: head, head: jsonHead }, async (table, between) => {
+      // A few speeds at a time, a turn of the event loop between; rows come serpentine along the
+      // handlebar, and each speed's row is written in ascending order.
+      const n = axes.handlebarDeg.length;
+      const speedsPerSlice = Math.max(1, Math.floor(RIDE_POSES_PER_SLICE / n));
+      const sum: RideSweepSummary = { poses: 0, solved: 0, failed: 0, unbalanced: 0, elapsedMs: 0 };
+      for (let first = 0; first < axes.speedKmh.length; first += speedsPerSlice) {
+        let row: RideCell[] = [];
+        let filled = 0;
+        const before = sum.poses;
+        const slice = { speedKmh: axes.speedKmh.slice(first, first + speedsPerSlice), handlebarDeg: axes.handlebarDeg };
+        const s = runRideSweep(design, slice, { contact, onProgress: (d) => bar.update(before + d, total) }, (cell) => {
+          row[cell.cell.handlebarIndex] = cell;
+          if (++filled === n) {
+            for (const r of row) table.row(values(r));
+            row = [];
+            filled = 0;
+          }
+        });
+        sum.poses += s.poses;
+        sum.solved += s.solved;
+        sum.failed += s.failed;
+        sum.unbalanced += s.unbalanced;
+        sum.elapsedMs += s.elapsedMs;
+        await between();
       }
+      return sum;
     });
-    if (format === 'json') write(`\n  ],\n  "summary": ${JSON.stringify(summary)}\n}\n`);
   } finally {
     bar.end();
-    closeSync(fd);
   }
+  if ('exit' in written) return written.exit;
+  const summary = written.summary;
   io.out(
     `${design.name}: ${summary.poses} ride poses (${summary.solved} solved, ${summary.failed} not assembled, ${summary.unbalanced} without a balance inside the lean limit) ` +
-      `in ${(summary.elapsedMs / 1000).toFixed(2)} s; wrote ${summary.poses} rows to ${out}\n`,
+      `in ${(summary.elapsedMs / 1000).toFixed(2)} s; wrote ${summary.poses} rows to ${out.given}\n`,
   );
   io.out(SAFETY_CAUTION + '\n');
   return summary.failed > 0 ? EXIT_FAILED : EXIT_OK;

@@ -2,6 +2,7 @@ import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs } from '../args';
+import { clip, MAX_ECHOED_NAME } from '../safeText';
 // The study modules are loaded when the command runs, so other commands start faster.
 import type { CoordinateSensitivity, ObjectiveSummary, SensitivityReport } from '../../studies/sensitivity';
 import type { StudyPose } from '../../studies/studyPoses';
@@ -79,7 +80,7 @@ const JOINT_SHORT: Record<string, string> = { upperOuter: 'UO', lowerOuter: 'LO'
 
 export function formatSensitivity(r: SensitivityReport, top: number): string {
   const lines = [
-    `${r.design}: sensitivity of the objectives to the hardpoints`,
+    `${clip(r.design, MAX_ECHOED_NAME)}: sensitivity of the objectives to the hardpoints`,
     `  method: ${r.method}`,
     `  ${posesLine(r)}`,
     `  ${r.sides === 'together' ? 'mirrored pairs move together (both sides as mirror images)' : 'each side of a pair moves alone'}; ` +

@@ -1,5 +1,7 @@
 /** What the study commands (sensitivity, tolerance) share: their pose option, progress bar, Ctrl-C and tables. */
 import { ArgError, numberOption, type ParsedArgs } from '../args';
+import { POSE_INPUT_LIMITS, requireWithin } from '../inputLimits';
+import { quoted } from '../safeText';
 import type { CliIo } from '../io';
 import type { StudyPose } from '../../studies/studyPoses';
 
@@ -8,7 +10,8 @@ export const MAX_STUDY_POSES = 50;
 
 export const POSES_HELP = `--poses "LEAN,HANDLEBAR[,TRAVEL];..."  poses to study instead of the region sample: lean and
                                       handlebar in degrees, travel in mm (tyres on the ground,
-                                      travel lowers the frame); at most ${MAX_STUDY_POSES}`;
+                                      travel lowers the frame); at most ${MAX_STUDY_POSES}, lean within
+                                      +-${POSE_INPUT_LIMITS.leanDeg.most} deg, handlebar +-${POSE_INPUT_LIMITS.handlebarDeg.most} deg, travel +-${POSE_INPUT_LIMITS.travelMm.most} mm`;
 
 /** `--poses "20,-5;-10,5,10"`: lean, handlebar and optional travel per pose, separated by ';'. */
 export function parsePoses(args: ParsedArgs): StudyPose[] | undefined {
@@ -22,9 +25,14 @@ export function parsePoses(args: ParsedArgs): StudyPose[] | undefined {
     const parts = item.split(',').map((p) => p.trim());
     const values = parts.map(Number);
     if (parts.length < 2 || parts.length > 3 || parts.some((p) => p === '') || values.some((v) => !Number.isFinite(v))) {
-      throw new ArgError(`option --poses, pose ${k + 1} "${item}": expected LEAN,HANDLEBAR or LEAN,HANDLEBAR,TRAVEL (degrees, degrees, mm)`);
+      throw new ArgError(`option --poses, pose ${k + 1} ${quoted(item)}: expected LEAN,HANDLEBAR or LEAN,HANDLEBAR,TRAVEL (degrees, degrees, mm)`);
     }
-    return { leanDeg: values[0], handlebarDeg: values[1], travelMm: values[2] ?? 0 };
+    const where = `option --poses, pose ${k + 1}`;
+    return {
+      leanDeg: requireWithin(values[0], POSE_INPUT_LIMITS.leanDeg, `${where}, lean`),
+      handlebarDeg: requireWithin(values[1], POSE_INPUT_LIMITS.handlebarDeg, `${where}, handlebar`),
+      travelMm: requireWithin(values[2] ?? 0, POSE_INPUT_LIMITS.travelMm, `${where}, travel`),
+    };
   });
 }
 
@@ -44,7 +52,7 @@ export function countOption(args: ParsedArgs, name: string, what: string, fallba
   }
   const v = raw === true ? NaN : Number(raw);
   if (raw === true || raw.trim() === '' || !Number.isInteger(v) || v < lo || v > hi) {
-    throw new ArgError(`option --${name}: expected a whole number of ${what} from ${lo} to ${hi}, found ${raw === true ? 'no value' : `"${raw}"`}`);
+    throw new ArgError(`option --${name}: expected a whole number of ${what} from ${lo} to ${hi}, found ${raw === true ? 'no value' : quoted(raw)}`);
   }
   return v;
 }

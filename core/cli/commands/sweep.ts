@@ -1,13 +1,20 @@
-import { closeSync, openSync, writeSync } from 'node:fs';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
-import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
-import { ArgError, parseArgs, rangeOption, type ParsedArgs } from '../args';
+import { EXIT_BAD_INPUT, EXIT_CODES_HELP, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
+import { ArgError, MAX_RANGE_VALUES, parseArgs, type ParsedArgs } from '../args';
+import { limitedRange, MAX_GRID_POSES, POSE_INPUT_LIMITS, POSE_LIMITS_HELP, requireGridSize } from '../inputLimits';
+import { checkOutputPath, type OutputTarget } from '../outputFile';
 import { studyProgressBar } from './studyArgs';
+import { quoted } from '../safeText';
+import { formatOf, type TableFormat } from './sweepTable';
+import { writeTableFile } from './sweepFile';
 // The analysis modules are loaded when the command runs, so other commands start faster.
-import type { SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
-import type { CellValue, Column } from '../../analysis/poseColumns';
+import type { runSweep as RunSweep, uprightReferences as UprightReferences, SweepAxes, SweepCell, SweepContact, SweepSummary } from '../../analysis/sweep';
+import type { PoseEngine } from '../../analysis/PoseEngine';
+import type { ResolvedDesign } from '../../design/types';
 import { VERDICT_ORDER } from '../../analysis/tolerance';
+
+export { csvValue, jsonValue } from './sweepTable';
 
 export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --steer A:B:STEP [--travel A:B:STEP] [--hold suspension] --out FILE.csv|FILE.json
        tiltbench sweep <design.tiltsheet> --speed A:B:STEP --steer A:B:STEP --out FILE.csv|FILE.json
@@ -28,37 +35,25 @@ export const sweepHelp = `tiltbench sweep <design.tiltsheet> --lean A:B:STEP --s
                       position (as on a jig, to compare with bench measurements): no ground
                       contact, lean 0, travel 0; takes no --lean, --travel or --contact
   --out FILE          .csv (header row of column names with units) or .json (columns, rows,
-                      definitions and the caution)
+                      definitions and the caution); never the design itself. Written whole or
+                      not at all: rows go to a temporary file beside it, renamed over FILE at the
+                      end; on Ctrl-C, SIGTERM or a full disk the temporary file is removed and an
+                      earlier FILE is left as it was.
   A progress bar goes to stderr on a terminal; a summary line is always printed.
+  ${POSE_LIMITS_HELP}
+  A range gives at most ${MAX_RANGE_VALUES} values, a grid at most ${MAX_GRID_POSES} poses (a ride sweep ${20_000}).
   Exit 0 when every pose was solved, 1 when some could not be assembled (the file is still
-  written), 2 for bad input.`;
+  written), 2 for bad input. ${EXIT_CODES_HELP}`;
 
 /** Largest grid a sweep accepts (poses). */
-export const MAX_SWEEP_POSES = 2_000_000;
+export const MAX_SWEEP_POSES = MAX_GRID_POSES;
+
+/** Rows solved between two turns of the event loop (about a tenth of a second of work). */
+const POSES_PER_SLICE = 2000;
 
 /** A progress bar on stderr, drawn only on a terminal and at most every 1 %, counting poses. */
 export function progressBar(io: CliIo, label: string): { update(done: number, total: number): void; end(): void } {
   return studyProgressBar(io, label, 'poses');
-}
-
-export function csvValue(v: CellValue): string {
-  if (v === null) return '';
-  if (typeof v === 'number') return String(Math.round(v * 1e6) / 1e6);
-  return /[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
-}
-
-export function jsonValue(v: CellValue): CellValue {
-  return typeof v === 'number' ? Math.round(v * 1e6) / 1e6 : v;
-}
-
-/** Open a sweep's output file, or say why not (null). */
-export function openOutput(out: string, io: CliIo): number | null {
-  try {
-    return openSync(out, 'w');
-  } catch (e) {
-    io.err(`tiltbench sweep: cannot write ${out}: ${(e as Error).message}\n`);
-    return null;
-  }
 }
 
 export function summaryLine(s: SweepSummary): string {
@@ -69,7 +64,7 @@ export function summaryLine(s: SweepSummary): string {
 export function parseContact(raw: string | true | undefined): SweepContact {
   if (raw === undefined) return 'ground';
   if (raw === 'ground' || raw === 'travel') return raw;
-  throw new ArgError(`option --contact: expected ground or travel, found "${String(raw)}"`);
+  throw new ArgError(`option --contact: expected ground or travel, found ${raw === true ? 'no value' : quoted(raw)}`);
 }
 
 /**
@@ -79,7 +74,7 @@ export function parseContact(raw: string | true | undefined): SweepContact {
 export function parseHold(args: ParsedArgs, refused: readonly string[]): 'suspension' | undefined {
   const raw = args.options.get('hold');
   if (raw === undefined) return undefined;
-  if (raw !== 'suspension') throw new ArgError(`option --hold: expected suspension, found "${String(raw)}"`);
+  if (raw !== 'suspension') throw new ArgError(`option --hold: expected suspension, found ${raw === true ? 'no value' : quoted(raw)}`);
   const given = refused.filter((n) => args.options.has(n)).map((n) => `--${n}`);
   if (given.length > 0) {
     throw new ArgError(
@@ -92,8 +87,8 @@ export function parseHold(args: ParsedArgs, refused: readonly string[]): 'suspen
 
 interface SweepRequest {
   axes: SweepAxes;
-  out: string;
-  format: 'csv' | 'json';
+  out: OutputTarget;
+  format: TableFormat;
   contact: SweepContact;
   hold: 'suspension' | undefined;
   designPath: string;
@@ -105,22 +100,20 @@ function parseSweepArgs(argv: string[]): SweepRequest {
   const hold = parseHold(args, ['lean', 'travel', 'contact']);
   if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
   const axes: SweepAxes = {
-    leanDeg: rangeOption(args, 'lean', 'degrees') ?? [0],
-    handlebarDeg: rangeOption(args, 'steer', 'degrees') ?? [0],
-    travelMm: rangeOption(args, 'travel', 'mm') ?? [0],
+    leanDeg: limitedRange(args, 'lean', POSE_INPUT_LIMITS.leanDeg) ?? [0],
+    handlebarDeg: limitedRange(args, 'steer', POSE_INPUT_LIMITS.handlebarDeg) ?? [0],
+    travelMm: limitedRange(args, 'travel', POSE_INPUT_LIMITS.travelMm) ?? [0],
   };
   const out = args.options.get('out');
   if (out === undefined || out === true) throw new ArgError('option --out FILE.csv or FILE.json is required');
-  const lower = out.toLowerCase();
-  let format: 'csv' | 'json';
-  if (lower.endsWith('.csv')) format = 'csv';
-  else if (lower.endsWith('.json')) format = 'json';
-  else throw new ArgError(`option --out: the file name must end in .csv or .json, found "${out}"`);
+  const format = formatOf(out);
+  if (!format) throw new ArgError(`option --out: the file name must end in .csv or .json, found ${quoted(out)}`);
   // Held, no row of the mechanism reads the contact; travel (all zero) keeps the frame at design height.
   const contact = hold ? 'travel' : parseContact(args.options.get('contact'));
   const poses = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
-  if (poses > MAX_SWEEP_POSES) throw new ArgError(`the grid has ${poses} poses; a sweep takes at most ${MAX_SWEEP_POSES}`);
-  return { axes, out, format, contact, hold, designPath: args.positionals[0] };
+  requireGridSize(poses, 'the grid', 'widen a STEP or narrow a range');
+  const designPath = args.positionals[0];
+  return { axes, out: checkOutputPath(out, '--out', [{ path: designPath, what: 'design' }]), format, contact, hold, designPath };
 }
 
 export async function runSweepCommand(argv: string[], io: CliIo): Promise<number> {
@@ -142,7 +135,7 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
   const design = loaded.design;
-  const { runSweep, checkAxes, SweepInputError } = await import('../../analysis/sweep');
+  const { runSweep, checkAxes, uprightReferences, SweepInputError } = await import('../../analysis/sweep');
   const { cellRow, poseColumns } = await import('../../analysis/poseColumns');
   const { ANALYSIS_DEFINITIONS } = await import('../../analysis/definitions');
   const { PoseEngine } = await import('../../analysis/PoseEngine');
@@ -155,68 +148,79 @@ export async function runSweepCommand(argv: string[], io: CliIo): Promise<number
     }
     throw e;
   }
-  const fd = openOutput(out, io);
-  if (fd === null) return EXIT_BAD_INPUT;
-  const columns: Column[] = poseColumns(design);
-  const nL = axes.leanDeg.length;
-  const nS = axes.handlebarDeg.length;
-  // Cells arrive a row (one lean, all handlebar values) at a time in serpentine lean order;
-  // buffer one travel layer and write it in grid order.
-  let layer: string[] = new Array(nL * nS);
-  let layerCount = 0;
-  let firstJsonRow = true;
-  const write = (text: string) => writeSync(fd, text);
-  const rowText = (cell: SweepCell): string => {
-    const values = cellRow(columns, cell);
-    if (format === 'csv') return values.map(csvValue).join(',') + '\n';
-    return JSON.stringify(values.map(jsonValue));
+  const columns = poseColumns(design);
+  const head = {
+    tiltbench: 'sweep',
+    design: loaded.path,
+    name: design.name,
+    caution: SAFETY_CAUTION,
+    ...(hold ? { hold } : { contact }),
+    axes,
+    definitions: ANALYSIS_DEFINITIONS,
+    columns: columns.map((c) => ({ name: c.name, unit: c.unit })),
   };
-  const flushLayer = () => {
-    for (const text of layer) {
-      if (text === undefined) continue;
-      if (format === 'csv') write(text);
-      else {
-        write((firstJsonRow ? '\n    ' : ',\n    ') + text);
-        firstJsonRow = false;
-      }
-    }
-    layer = new Array(nL * nS);
-    layerCount = 0;
-  };
-  if (format === 'csv') {
-    write(columns.map((c) => csvValue(c.name)).join(',') + '\n');
-  } else {
-    const head = {
-      tiltbench: 'sweep',
-      design: loaded.path,
-      name: design.name,
-      caution: SAFETY_CAUTION,
-      ...(hold ? { hold } : { contact }),
-      axes,
-      definitions: ANALYSIS_DEFINITIONS,
-      columns: columns.map((c) => ({ name: c.name, unit: c.unit })),
-    };
-    const text = JSON.stringify(head, null, 2);
-    write(text.slice(0, text.lastIndexOf('}')).trimEnd() + ',\n  "rows": [');
-  }
   const bar = progressBar(io, 'sweep');
-  let summary: SweepSummary;
+  const engine = new PoseEngine(design, hold ? { contact, steerBy: 'handlebar', hold } : { contact, steerBy: 'handlebar' }, { findings: false });
+  let written: Awaited<ReturnType<typeof writeTableFile<SweepSummary>>>;
   try {
-    // Held, the sweep runs on an engine built in that mode (runSweep's own is free to move).
-    const engine = hold ? new PoseEngine(design, { contact, steerBy: 'handlebar', hold }, { findings: false }) : undefined;
-    summary = runSweep(design, axes, { contact, engine, onProgress: (d, t) => bar.update(d, t), progressEvery: 200 }, (cell) => {
-      layer[cell.leanIndex * nS + cell.handlebarIndex] = rowText(cell);
-      layerCount++;
-      if (layerCount === nL * nS) flushLayer();
-    });
-    if (layerCount > 0) flushLayer();
-    if (format === 'json') write(`\n  ],\n  "summary": ${JSON.stringify(summary)}\n}\n`);
+    written = await writeTableFile(io, 'sweep', out, { format, columns, head }, (table, between) =>
+      sweepInSlices({ design, axes, contact, engine, runSweep, uprightReferences }, (cell) => table.row(cellRow(columns, cell)), between, (d, t) => bar.update(d, t)),
+    );
   } finally {
     bar.end();
-    closeSync(fd);
   }
-  io.out(`${design.name}${hold ? ' (suspension held at its design position)' : ''}: ${summaryLine(summary)}; wrote ${summary.poses} rows to ${out}\n`);
+  if ('exit' in written) return written.exit;
+  const summary = written.summary;
+  io.out(`${design.name}${hold ? ' (suspension held at its design position)' : ''}: ${summaryLine(summary)}; wrote ${summary.poses} rows to ${out.given}\n`);
   if (summary.failed > 0) io.out(`${summary.failed} poses could not be assembled (status and message in their rows, no numbers)\n`);
   io.out(SAFETY_CAUTION + '\n');
   return summary.failed > 0 ? EXIT_FAILED : EXIT_OK;
+}
+
+interface SliceJob {
+  design: ResolvedDesign;
+  axes: SweepAxes;
+  contact: SweepContact;
+  engine: PoseEngine;
+  // Passed in: the analysis modules are loaded when the command runs.
+  runSweep: typeof RunSweep;
+  uprightReferences: typeof UprightReferences;
+}
+
+/**
+ * The grid a slice of rows at a time (one travel, a few leans, every handlebar value), each
+ * row handed on as it comes: rows in grid order (travel, lean, handlebar), memory for one
+ * row, and `between()` (a turn of the event loop) after each slice. One engine keeps the
+ * solver warm from slice to slice, and the upright pass every row's ratio change refers to
+ * is run once for the whole grid.
+ */
+async function sweepInSlices(job: SliceJob, onCell: (cell: SweepCell) => void, between: () => Promise<void>, progress: (done: number, total: number) => void): Promise<SweepSummary> {
+  const { design, axes, contact, engine } = job;
+  const t0 = Date.now();
+  const total = axes.leanDeg.length * axes.handlebarDeg.length * axes.travelMm.length;
+  const upright = job.uprightReferences(engine, axes, contact);
+  const leansPerSlice = Math.max(1, Math.floor(POSES_PER_SLICE / axes.handlebarDeg.length));
+  const byStatus = Object.fromEntries(VERDICT_ORDER.map((k) => [k, 0])) as SweepSummary['byStatus'];
+  const sum: SweepSummary = { poses: 0, solved: 0, failed: 0, byStatus, solves: upright.solves, inRegion: 0, uprightTurns: upright.turns, elapsedMs: 0 };
+  for (const travel of axes.travelMm) {
+    for (let first = 0; first < axes.leanDeg.length; first += leansPerSlice) {
+      const slice: SweepAxes = { leanDeg: axes.leanDeg.slice(first, first + leansPerSlice), handlebarDeg: axes.handlebarDeg, travelMm: [travel] };
+      const before = sum.poses;
+      const s = job.runSweep(design, slice, { contact, engine, upright, onProgress: (d) => progress(before + d, total), progressEvery: 200 }, onCell);
+      addSummary(sum, s);
+      await between();
+    }
+  }
+  sum.elapsedMs = Date.now() - t0;
+  return sum;
+}
+
+/** Add a slice's counts to the whole sweep's. */
+function addSummary(into: SweepSummary, s: SweepSummary): void {
+  into.poses += s.poses;
+  into.solved += s.solved;
+  into.failed += s.failed;
+  into.solves += s.solves;
+  into.inRegion += s.inRegion;
+  for (const k of VERDICT_ORDER) into.byStatus[k] += s.byStatus[k];
 }

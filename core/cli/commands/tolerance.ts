@@ -1,8 +1,9 @@
-import { readFileSync, statSync } from 'node:fs';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs, type ParsedArgs } from '../args';
+import { readInputFile } from '../readInputFile';
+import { clip, MAX_ECHOED_NAME, quoted } from '../safeText';
 // The study modules are loaded when the command runs, so other commands start faster.
 import type { Spread, SpreadMethod, ToleranceReport } from '../../studies/toleranceSpread';
 import type { Distribution, ToleranceBands } from '../../studies/toleranceBands';
@@ -48,18 +49,11 @@ function readBands(args: ParsedArgs, band: number): ToleranceBands {
   const path = args.options.get('bands');
   if (path === undefined) return { defaultMm: band };
   if (path === true) throw new ArgError('option --bands needs a file name');
-  let text: string;
-  try {
-    const size = statSync(path).size;
-    if (size > TOLERANCE_LIMITS.bandsFileBytes) throw new ArgError(`option --bands: ${path} is ${size} bytes; at most ${TOLERANCE_LIMITS.bandsFileBytes}`);
-    text = readFileSync(path, 'utf8');
-  } catch (e) {
-    if (e instanceof ArgError) throw e;
-    throw new ArgError(`option --bands: cannot read ${path}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-  }
+  const read = readInputFile(path, TOLERANCE_LIMITS.bandsFileBytes, 'bands file');
+  if (!read.ok) throw new ArgError(`option --bands: ${read.message}`);
   let points: unknown;
   try {
-    points = JSON.parse(text);
+    points = JSON.parse(read.text);
   } catch (e) {
     throw new ArgError(`option --bands: ${path} is not JSON: ${(e as Error).message}`);
   }
@@ -105,7 +99,7 @@ export function formatTolerance(r: ToleranceReport, showPoses: boolean): string 
       : `${r.poses.length} from a 5 x 5 lean x handlebar grid over the envelope at zero travel, those in the operating region`;
   const headline = r.overPoses.filter((s) => ['selfSteer', 'slip', 'jointMargin'].includes(s.id));
   const lines = [
-    `${r.design}: tolerance spread over built vehicles`,
+    `${clip(r.design, MAX_ECHOED_NAME)}: tolerance spread over built vehicles`,
     `  method: ${r.methodWords}`,
     `  errors: x, y and z of every hardpoint on each side off independently, band +-${bands.join(' / +-')} mm (${r.bands.length} coordinates), ${r.distributionWords}; seed ${r.seed}`,
     `  poses: ${poses}`,
@@ -139,7 +133,7 @@ export function formatTolerance(r: ToleranceReport, showPoses: boolean): string 
 function choice<T extends string>(args: ParsedArgs, name: string, values: readonly T[], fallback: T): T {
   const raw = args.options.get(name);
   if (raw === undefined) return fallback;
-  if (raw === true || !(values as readonly string[]).includes(raw)) throw new ArgError(`option --${name}: expected ${values.join(' or ')}, found ${raw === true ? 'no value' : `"${raw}"`}`);
+  if (raw === true || !(values as readonly string[]).includes(raw)) throw new ArgError(`option --${name}: expected ${values.join(' or ')}, found ${raw === true ? 'no value' : quoted(raw)}`);
   return raw as T;
 }
 

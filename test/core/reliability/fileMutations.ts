@@ -21,11 +21,25 @@ export type Mutation =
   | { kind: 'bytes'; at: number; bytes: number[] }
   | { kind: 'bom'; which: 'utf8' | 'utf8-twice' | 'utf8-middle' | 'utf16le' | 'utf16be' }
   | { kind: 'lineEndings'; to: '\r\n' | '\r' }
-  | { kind: 'insert'; at: number; text: string };
+  | { kind: 'insert'; at: number; text: string }
+  | { kind: 'hostileText'; pick: number; text: string };
 
 const HUGE = ['1e400', '-1e400', '1e-400', '123456789012345678901234567890', '9007199254740993', '0.00000000000000000000000000000000001', '-0', '1E+308', '2e308'];
 const STRAY = ['//c\n', '/*', ',', '}', ']', '{', '[', '"', "'", 'NaN', 'Infinity', '-', '\\u0000', '\\', '\u0000', '\t', '\u2028', '\uD800', 'true', 'null', ':', '0x10', '+1', '.5', '1.', '01'];
 const BYTES = [[0xff], [0xfe], [0xc3, 0x28], [0xe2, 0x82], [0xed, 0xa0, 0x80], [0xf4, 0x90, 0x80, 0x80], [0x00], [0xc0, 0xaf], [0x80], [0xe9]];
+/** Text a terminal would act on (ESC and C1 sequences, bidi overrides, carriage returns) and very long text. */
+export const HOSTILE_TEXT = [
+  '\u001b]0;retitled\u0007',
+  '\u001b[2J\u001b[Hscreen cleared',
+  '\u001b[31mred\u001b[0m',
+  '\u009b31mC1 red',
+  'abc\u202edcba',
+  'over\rwritten',
+  'a\u0000b',
+  '\u001b[?1049halternate screen',
+  'y'.repeat(20000),
+];
+
 const ODD_KEYS = ['__proto__', 'constructor', 'toString', 'hasOwnProperty', 'prototype', '', ' ', 'x'.repeat(5000), '\u0000', 'ünïcödé', 'Kind', 'KIND', 'kind ', '0'];
 
 const jsonValue: fc.Arbitrary<Json> = fc.oneof(
@@ -46,6 +60,7 @@ export const mutationArb: fc.Arbitrary<Mutation> = fc.oneof(
   fc.record({ kind: fc.constant('bom' as const), which: fc.constantFrom('utf8' as const, 'utf8-twice' as const, 'utf8-middle' as const, 'utf16le' as const, 'utf16be' as const) }),
   fc.record({ kind: fc.constant('lineEndings' as const), to: fc.constantFrom('\r\n' as const, '\r' as const) }),
   fc.record({ kind: fc.constant('insert' as const), at: fc.nat(), text: fc.constantFrom(...STRAY) }),
+  fc.record({ kind: fc.constant('hostileText' as const), pick: fc.nat(), text: fc.constantFrom(...HOSTILE_TEXT) }),
 );
 
 export interface FileCase {
@@ -83,12 +98,20 @@ const MARK = '\u0001MUTATION\u0001';
 export function mutateText(originalText: string, c: FileCase): string {
   const doc = JSON.parse(originalText) as Json;
   const textOps: Mutation[] = [];
-  const replacements: { mark: string; text: string }[] = [];
+  const replacements: { mark: string; text: string; inner: string }[] = [];
   const duplicates: { key: string; value: Json }[] = [];
   for (const m of c.mutations) {
     const all = paths(doc);
     const path = all.length > 0 && 'pick' in m ? all[m.pick % all.length] : undefined;
     switch (m.kind) {
+      case 'hostileText':
+        // Every third one at the design's name, which every command echoes.
+        if (m.pick % 3 === 0 && doc !== null && typeof doc === 'object' && !Array.isArray(doc)) {
+          (doc as Record<string, Json>).name = m.text;
+          break;
+        }
+        if (path) (parentOf(doc, path).parent as Record<string, Json>)[path[path.length - 1] as string] = m.text;
+        break;
       case 'deleteKey':
       case 'retype':
       case 'hugeNumber':
@@ -101,7 +124,7 @@ export function mutateText(originalText: string, c: FileCase): string {
           if (Array.isArray(parent)) parent.splice(key as number, 1);
           else delete p[key as string];
         } else if (m.kind === 'retype') {
-          p[key as string] = m.value;
+          p[key as string] = structuredClone(m.value);
         } else if (m.kind === 'hugeNumber' || m.kind === 'nest') {
           const mark = `${MARK}${replacements.length}${MARK}`;
           const inner = JSON.stringify(p[key as string] ?? null);
@@ -111,11 +134,11 @@ export function mutateText(originalText: string, c: FileCase): string {
               : m.bracket === 'array'
                 ? '['.repeat(m.depth) + inner + ']'.repeat(m.depth)
                 : '{"a":'.repeat(m.depth) + inner + '}'.repeat(m.depth);
-          replacements.push({ mark, text });
+          replacements.push({ mark, text, inner });
           p[key as string] = mark;
         } else if (!Array.isArray(parent)) {
-          // add an odd key beside this one
-          p[m.key] = p[key as string] ?? null;
+          // add an odd key beside this one (a copy: the two places are independent)
+          p[m.key] = structuredClone(p[key as string] ?? null);
         }
         break;
       }
@@ -133,7 +156,8 @@ export function mutateText(originalText: string, c: FileCase): string {
     c.indent === 'original' && replacements.length === 0 && duplicates.length === 0 && c.mutations.every((m) => textOps.includes(m))
       ? originalText
       : JSON.stringify(doc, null, c.indent === 'original' ? 2 : c.indent);
-  for (const r of replacements) text = text.replace(JSON.stringify(r.mark), r.text);
+  // The bad text in the first place holding the mark; a copy made after it holds the value from before.
+  for (const r of replacements) text = text.replace(JSON.stringify(r.mark), r.text).split(JSON.stringify(r.mark)).join(r.inner);
   for (const d of duplicates) {
     const needle = `${JSON.stringify(d.key)}:`;
     const at = text.indexOf(needle);
