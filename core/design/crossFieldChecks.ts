@@ -197,9 +197,11 @@ function checkWheelSides(d: DesignFile, r: ResolvedDesign, list: IssueList): voi
   const width = r.wheels.front.tyreWidthMm;
   const pathOf = (side: Side) => `${sidePath(d.upright.wheelCentre, 'upright.wheelCentre', side)}.y`;
   if (!(right < 0)) {
-    list.expected(pathOf('right'), 'a y below 0 mm (the right wheel right of the centre line; a single value is mirrored to the left, so y = 0 puts both wheels in one place)', `${right} mm`, 'right');
+    const why = isMirrored(d) ? '; a single value is mirrored to the left, so y = 0 puts both wheels in one place' : '';
+    list.expected(pathOf('right'), `a y below 0 mm (the right wheel right of the centre line${why})`, `${right} mm`, isMirrored(d) ? undefined : 'right');
   }
-  if (!(left > 0)) list.expected(pathOf('left'), 'a y above 0 mm (the left wheel left of the centre line)', `${left} mm`, 'left');
+  // A single value is the right side mirrored: its one y is judged once, above.
+  if (!isMirrored(d) && !(left > 0)) list.expected(pathOf('left'), 'a y above 0 mm (the left wheel left of the centre line)', `${left} mm`, 'left');
   if (right < 0 && left > 0 && left - right < width) {
     const path = isMirrored(d) ? pathOf('right') : pathOf('left');
     list.expected(

@@ -4,7 +4,7 @@
  * message and exit code for each way it can end early.
  */
 import { EXIT_CANNOT_WRITE, EXIT_INTERRUPTED, OutputError, type CliIo } from '../io';
-import { AtomicOutput, type OutputTarget } from '../outputFile';
+import { AtomicOutput, type OutputFs, type OutputTarget } from '../outputFile';
 import { nextTurn, watchInterrupts, type StopSignal } from '../interrupts';
 import { SweepTable, type TableFormat } from './sweepTable';
 
@@ -32,12 +32,13 @@ export async function writeTableFile<S>(
   target: OutputTarget,
   spec: TableSpec,
   produce: (table: SweepTable, between: () => Promise<void>) => S | Promise<S>,
+  fs?: OutputFs,
 ): Promise<{ summary: S } | { exit: number }> {
   const untouched = target.mode === undefined ? 'no file was written' : `${target.given} is as it was`;
   const watch = watchInterrupts();
   let out: AtomicOutput | undefined;
   try {
-    out = AtomicOutput.open(target);
+    out = AtomicOutput.open(target, fs);
     const table = new SweepTable(out, spec.format, spec.columns, spec.head);
     const between = async () => {
       await nextTurn();
