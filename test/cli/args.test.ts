@@ -47,3 +47,29 @@ describe('numberOption and rangeOption', () => {
     expect(rangeOption(parseArgs(['--steer', '10:0:5'], SPEC), 'steer', 'degrees')).toEqual([10, 5, 0]);
   });
 });
+
+describe('issue 14, item 9: an empty range part and a repeated option', () => {
+  it('refuses "::1" (Number("") is 0: it read as 0:0:1) and every range with an empty or blank part', () => {
+    for (const raw of ['::1', '0::1', '0:10:', ' :10:1', ':', '::']) {
+      expect(errorOf(() => rangeOption(parseArgs(['--lean', raw], SPEC), 'lean', 'degrees')), raw).toBe(`option --lean: expected A:B:STEP in degrees, found "${raw}"`);
+    }
+  });
+
+  it('refuses an option given twice, naming it, whether value or flag, spaced or with "="', () => {
+    expect(errorOf(() => parseArgs(['--lean', '5', '--lean', '10'], SPEC))).toBe('option --lean is given twice; give it once');
+    expect(errorOf(() => parseArgs(['--lean=5', '--steer', '1', '--lean=10'], SPEC))).toBe('option --lean is given twice; give it once');
+    expect(errorOf(() => parseArgs(['--json', '--json'], SPEC))).toBe('option --json is given twice; give it once');
+  });
+
+  it('through the command line: exit 2 with the option named', async () => {
+    const { main } = await import('../../core/cli/main');
+    const { HERON } = await import('./cliHarness');
+    let err = '';
+    const io = { out: () => {}, err: (t: string) => void (err += t), isTty: false };
+    expect(await main(['pose', HERON, '--lean', '5', '--lean', '-5'], io)).toBe(2);
+    expect(err).toMatch(/option --lean is given twice/);
+    err = '';
+    expect(await main(['sweep', HERON, '--lean', '::1', '--out', '/tmp/never-written.csv'], io)).toBe(2);
+    expect(err).toMatch(/option --lean: expected A:B:STEP in degrees, found "::1"/);
+  });
+});

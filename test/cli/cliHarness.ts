@@ -8,7 +8,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main } from '../../core/cli/main';
-import type { CliIo } from '../../core/cli/io';
+import { safeIo, type CliIo } from '../../core/cli/io';
 import type { DesignFile } from '../../core/design/types';
 
 export const ROOT = join(__dirname, '..', '..');
@@ -32,6 +32,19 @@ export async function run(argv: string[], isTty = false): Promise<RunResult> {
   const io: CliIo = { out: (t) => void (out += t), err: (t) => void (err += t), isTty };
   const t0 = performance.now();
   const code = await main(argv, io);
+  return { code, out, err, ms: performance.now() - t0 };
+}
+
+/**
+ * A command not (yet) in main's list, run as main runs its commands (through safeIo); main's
+ * catch is not there, so an exception fails the test.
+ */
+export async function runCommand(command: (argv: string[], io: CliIo) => Promise<number>, argv: string[]): Promise<RunResult> {
+  let out = '';
+  let err = '';
+  const io: CliIo = { out: (t) => void (out += t), err: (t) => void (err += t), isTty: false };
+  const t0 = performance.now();
+  const code = await command(argv, safeIo(io));
   return { code, out, err, ms: performance.now() - t0 };
 }
 
