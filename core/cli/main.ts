@@ -13,6 +13,8 @@ import { runSweepCommand, sweepHelp } from './commands/sweep';
 import { runCheck, checkHelp } from './commands/check';
 import { runSensitivityCommand, sensitivityHelp } from './commands/sensitivity';
 import { runToleranceCommand, toleranceHelp } from './commands/tolerance';
+import { runTuneCommand, tuneHelp } from './commands/tune';
+import { runCompareCommand, compareHelp } from './commands/compare';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -27,6 +29,8 @@ export const COMMANDS: Record<string, CliCommand> = {
   check: { run: runCheck, help: checkHelp },
   sensitivity: { run: runSensitivityCommand, help: sensitivityHelp },
   tolerance: { run: runToleranceCommand, help: toleranceHelp },
+  tune: { run: runTuneCommand, help: tuneHelp },
+  compare: { run: runCompareCommand, help: compareHelp },
 };
 
 function usage(): string {
