@@ -3,9 +3,8 @@
  * keeping joints, clearances and the linkage's transmission; or list the variables a plan may
  * name; or show the two geometric proposals and write one.
  */
-import { closeSync, constants, fsyncSync, openSync, readFileSync, realpathSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
-import { basename, dirname, join, resolve } from 'node:path';
-import { randomBytes } from 'node:crypto';
+import { readInputFile } from '../readInputFile';
+import { AtomicOutput, checkOutputPath, type OutputTarget } from '../outputFile';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
@@ -48,51 +47,22 @@ tiltbench tune <design.tiltsheet> --suggest [tie-rods|ackermann --out PROPOSED.t
 
 type Obj = Record<string, unknown>;
 
-/** Write through a fresh temporary file in the same folder, flushed, then renamed over the target. */
-export function writeFileAtomically(target: string, text: string): void {
-  const tmp = join(dirname(target), `.${basename(target)}.${randomBytes(6).toString('hex')}.tmp`);
-  const fd = openSync(tmp, constants.O_WRONLY | constants.O_CREAT | constants.O_EXCL | (constants.O_NOFOLLOW ?? 0), 0o644);
+/** Write a whole output through core/cli/outputFile.ts (temporary file, flushed, renamed). */
+function writeOutput(target: OutputTarget, text: string): void {
+  const out = AtomicOutput.open(target);
   try {
-    writeSync(fd, text);
-    fsyncSync(fd);
+    out.write(text);
+    out.commit();
   } catch (e) {
-    closeSync(fd);
-    unlinkSync(tmp);
+    out.abort();
     throw e;
   }
-  closeSync(fd);
-  try {
-    renameSync(tmp, target);
-  } catch (e) {
-    unlinkSync(tmp);
-    throw e;
-  }
-}
-
-/** The same file, after links; a path that does not exist yet is compared as written. */
-function samePath(a: string, b: string): boolean {
-  const real = (p: string) => {
-    try {
-      return realpathSync(p);
-    } catch {
-      return resolve(p);
-    }
-  };
-  return real(a) === real(b);
 }
 
 function readPlan(path: string): { ok: true; json: unknown } | { ok: false; message: string } {
-  let text: string;
-  try {
-    const st = statSync(path);
-    if (!st.isFile()) return { ok: false, message: `${path}: not a regular file` };
-    if (st.size > MAX_PLAN_BYTES) return { ok: false, message: `${path}: the file is ${st.size} bytes; a plan is at most ${MAX_PLAN_BYTES} bytes` };
-    text = readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    return { ok: false, message: `${path}: cannot read: ${code === 'ENOENT' ? 'no such file' : (e as Error).message}` };
-  }
-  const r = readJsonText(text, path);
+  const read = readInputFile(path, MAX_PLAN_BYTES, 'a plan');
+  if (!read.ok) return read;
+  const r = readJsonText(read.text, path);
   if (!r.ok) return { ok: false, message: r.issues.map((i) => formatIssue(i)).join('\n') };
   return { ok: true, json: r.json };
 }
@@ -160,6 +130,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
   let list: boolean;
   let suggest: string | undefined | true;
   let jacobian: 'secant' | 'finite-difference';
+  let target: OutputTarget | undefined;
   try {
     const args = parseArgs(argv, { flags: ['json', 'list-variables', 'suggest'], values: ['plan', 'out', 'jacobian'] });
     // --suggest takes an optional proposal name as a second positional.
@@ -177,8 +148,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
     if (typeof suggest === 'string' && suggest !== 'tie-rods' && suggest !== 'ackermann') throw new ArgError(`--suggest: expected tie-rods or ackermann, found "${suggest.slice(0, 40)}"`);
     if (typeof suggest === 'string' && !outPath) throw new ArgError(`--suggest ${suggest} writes the proposal: give --out PROPOSED.tiltsheet`);
     if (!list && suggest === undefined && (!planPath || !outPath)) throw new ArgError('give --plan PLAN.json and --out TUNED.tiltsheet (or --list-variables, or --suggest)');
-    if (outPath && samePath(outPath, designPath)) throw new ArgError(`--out ${outPath} is the design given as input; write the result to another file`);
-    if (outPath && planPath && samePath(outPath, planPath)) throw new ArgError(`--out ${outPath} is the plan; write the result to another file`);
+    if (outPath) target = checkOutputPath(outPath, '--out', [{ path: designPath, what: 'the design' }, ...(planPath ? [{ path: planPath, what: 'the plan' }] : [])]);
   } catch (e) {
     return reportArgError(e, io, 'tune', tuneHelp);
   }
@@ -203,7 +173,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
         return EXIT_FAILED;
       }
       const out = { ...p.design, notes: [p.design.notes ?? '', `Proposal applied by tiltbench tune --suggest: ${p.title}.`].filter((x) => x).join('\n') };
-      writeFileAtomically(outPath!, JSON.stringify(out, null, 2) + '\n');
+      writeOutput(target!, JSON.stringify(out, null, 2) + '\n');
     }
     if (json) {
       io.out(JSON.stringify({ tiltbench: 'tune-suggest', design: loaded.path, proposals: proposals.map(({ design, ...rest }) => ({ ...rest, applies: design !== null })), caution: SAFETY_CAUTION }, null, 2) + '\n');
@@ -241,7 +211,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
     bar.end();
     interrupt.release();
   }
-  writeFileAtomically(outPath!, JSON.stringify(report.tuned, null, 2) + '\n');
+  writeOutput(target!, JSON.stringify(report.tuned, null, 2) + '\n');
   const allKept = report.summary.every((s) => s.keptAfter !== false) && report.notAssembledAfter.length === 0;
   if (json) {
     const { design: name, tuned, ...rest } = report;
