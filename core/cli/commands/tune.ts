@@ -45,7 +45,6 @@ tiltbench tune <design.tiltsheet> --suggest [tie-rods|ackermann --out PROPOSED.t
   (the tuned design is still written) or the run was stopped (Ctrl-C: the best design so far is
   written), 2 for bad input.`;
 
-type Obj = Record<string, unknown>;
 
 /** Write a whole output through core/cli/outputFile.ts (temporary file, flushed, renamed). */
 function writeOutput(target: OutputTarget, text: string): void {
@@ -215,7 +214,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
   const allKept = report.summary.every((s) => s.keptAfter !== false) && report.notAssembledAfter.length === 0;
   if (json) {
     const { design: name, tuned, ...rest } = report;
-    io.out(JSON.stringify({ tiltbench: 'tune', design: loaded.path, name, out: outPath, ...rest, tunedName: (tuned as Obj).name, caution: SAFETY_CAUTION }, null, 2) + '\n');
+    io.out(JSON.stringify({ tiltbench: 'tune', design: loaded.path, name, out: outPath, ...rest, tunedName: tuned.name, caution: SAFETY_CAUTION }, null, 2) + '\n');
   } else {
     io.out(formatTune(report, outPath!) + '\n' + SAFETY_CAUTION + '\n');
   }
