@@ -1,4 +1,5 @@
 /** Shared steps of every command: reporting a bad argument, loading the design or saying why not. */
+import { existsSync } from 'node:fs';
 import { ArgError } from './args';
 import { EXIT_BAD_INPUT, type CliIo } from './io';
 import { loadDesignFile, type LoadedDesign } from './loadDesignFile';
@@ -27,4 +28,17 @@ export function loadDesignOrReport(path: string | undefined, io: CliIo): Extract
   }
   for (const line of formatIssues(loaded.issues)) io.err(line + '\n');
   return undefined;
+}
+
+/**
+ * For a command whose arguments were refused: load the design files among them (arguments that
+ * name an existing file ending in .tiltsheet) and print their issues; true when one could not be
+ * read, so the caller reports the file (and place) rather than only the usage.
+ */
+export function unreadableDesign(argv: readonly string[], io: CliIo): boolean {
+  for (const a of argv) {
+    if (!a.endsWith('.tiltsheet') || !existsSync(a)) continue;
+    if (!loadDesignOrReport(a, io)) return true;
+  }
+  return false;
 }

@@ -2,7 +2,7 @@
  * `tiltbench compare`: two or more designs side by side (core/studies/variants.ts).
  */
 import type { CliIo } from '../io';
-import { loadDesignOrReport, reportArgError } from '../commandSupport';
+import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs } from '../args';
 import { clip, MAX_ECHOED_NAME } from '../safeText';
@@ -67,6 +67,8 @@ export async function runCompareCommand(argv: string[], io: CliIo): Promise<numb
     check = args.options.has('check');
     json = args.options.has('json');
   } catch (e) {
+    // A design that cannot be read is the first thing to say (its file and place), before the usage.
+    if (e instanceof ArgError && unreadableDesign(argv, io)) return EXIT_BAD_INPUT;
     return reportArgError(e, io, 'compare', compareHelp);
   }
   const loaded = [];

@@ -6,7 +6,7 @@
 import { readInputFile } from '../readInputFile';
 import { AtomicOutput, checkOutputPath, type OutputTarget } from '../outputFile';
 import type { CliIo } from '../io';
-import { loadDesignOrReport, reportArgError } from '../commandSupport';
+import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
 import { ArgError, parseArgs } from '../args';
 import { formatIssue } from '../formatIssue';
@@ -149,6 +149,8 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
     if (!list && suggest === undefined && (!planPath || !outPath)) throw new ArgError('give --plan PLAN.json and --out TUNED.tiltsheet (or --list-variables, or --suggest)');
     if (outPath) target = checkOutputPath(outPath, '--out', [{ path: designPath, what: 'the design' }, ...(planPath ? [{ path: planPath, what: 'the plan' }] : [])]);
   } catch (e) {
+    // A design that cannot be read is the first thing to say (its file and place), before the usage.
+    if (e instanceof ArgError && unreadableDesign(argv, io)) return EXIT_BAD_INPUT;
     return reportArgError(e, io, 'tune', tuneHelp);
   }
   const loaded = loadDesignOrReport(designPath, io);

@@ -14,13 +14,13 @@ describe('the bundled demos pass their own check', () => {
     const c = checkDesign(demo('swift-parallelogram-trike'));
     expect(failing(c.operating)).toEqual([]);
     expect(c.passed).toBe(true);
-  });
+  }, 60_000);
 
   it('the upright rack demo passes over its whole envelope', () => {
     const c = checkDesign(demo('wren-rack-trike'), { judged: 'full' });
     expect(failing(c.full)).toEqual([]);
     expect(failing(c.operating)).toEqual([]);
-  });
+  }, 60_000);
 
   it('the teaching example fails where its notes say: joints, slip and lean steer', () => {
     const d = demo('heron-tilting-velomobile');
@@ -29,5 +29,5 @@ describe('the bundled demos pass their own check', () => {
     expect(labels).toMatch(/upper outer joint/);
     expect(labels).toMatch(/slip angle/);
     expect(d.notes).toMatch(/Fault 1/);
-  });
+  }, 60_000);
 });
