@@ -17,6 +17,7 @@ export const IPC = {
   recoveryClear: 'recovery:clear',
   appRecent: 'app:recent',
   designOpenRecent: 'design:openRecent',
+  designOpenRequest: 'design:openRequest',
 } as const;
 
 export type IpcChannel = (typeof IPC)[keyof typeof IPC];
@@ -27,25 +28,35 @@ export interface DesignFile {
   text: string;
 }
 
+/** A design named by a later launch of the app: its file, or why it could not be read. */
+export type OpenRequest = { path: string; text: string } | { path: string; problem: string };
+
 /** What the preload exposes to the renderer as `window.tiltbench`. */
 export interface TiltbenchApi {
   /** Native open dialog; null when the user cancels. Files over 5 MiB are refused. */
   openDesign(): Promise<DesignFile | null>;
   /** The design named on the command line (`--design FILE`), or null. */
   initialDesign(): Promise<DesignFile | null>;
-  /** Atomic save to a path this session opened or chose with "save as". */
-  saveDesign(path: string, text: string): Promise<void>;
+  /**
+   * Atomic save to a path the user chose since the app started (open or save dialog, command
+   * line). A path reopened from the recent list is read-only until chosen again: main shows a
+   * save dialog at that path first. Resolves to the path written, or null when that dialog
+   * was cancelled.
+   */
+  saveDesign(path: string, text: string): Promise<string | null>;
   /** Native save dialog then atomic save; resolves to the chosen path, or null on cancel. */
   saveDesignAs(text: string, suggestedName?: string): Promise<string | null>;
-  /** Writes the crash-recovery autosave (in the user-data folder). */
+  /** Writes this instance's crash-recovery autosave (in the user-data folder). */
   writeRecovery(text: string): Promise<void>;
-  /** The recovery autosave, or null when there is none. */
+  /** This instance's recovery autosave, else the newest one an ended instance left; null when none. */
   readRecovery(): Promise<string | null>;
   clearRecovery(): Promise<void>;
   /** Recently opened or saved design paths, newest first, existing files only. */
   recentDesigns(): Promise<string[]>;
-  /** Reopens a path listed by recentDesigns() (main refuses any other); null if it is gone. */
+  /** Reopens a path listed by recentDesigns() (main refuses any other), read-only; null if it is gone. */
   openRecentDesign(path: string): Promise<DesignFile | null>;
+  /** Waits for the next design a later launch of the app asks this window to open. */
+  nextOpenRequest(): Promise<OpenRequest>;
 }
 
 declare global {

@@ -139,3 +139,9 @@ export function parseRecoveryWriteArgs(channel: string, args: readonly unknown[]
   expectArgCount(channel, args, 1);
   return validateText(channel, args[0]);
 }
+
+/** `design:openRecent` takes one design path. */
+export function parseOpenRecentArgs(channel: string, args: readonly unknown[]): string {
+  expectArgCount(channel, args, 1);
+  return validateDesignPath(channel, args[0]);
+}

@@ -1,175 +1,54 @@
 /**
- * Electron main process: one window, file I/O and the narrow IPC surface of `api.ts`.
+ * Electron main process: one instance (a later launch hands its design to the first window),
+ * one window, and the narrow IPC surface of `api.ts` (handlers in `ipcHandlers.ts`).
  * Bundled by scripts/build-electron.mjs to dist-electron/main.cjs.
  *
  * Usage: electron . [--design FILE.tiltsheet]
  */
-import { app, BrowserWindow, dialog, ipcMain, session, shell } from 'electron';
-import type { IpcMainInvokeEvent, WebContents } from 'electron';
-import { existsSync } from 'node:fs';
-import { readFile, rm, stat } from 'node:fs/promises';
+import { app, BrowserWindow, session } from 'electron';
+import type { WebContents } from 'electron';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { IPC, type DesignFile } from './api';
-import { atomicWrite } from './atomicWrite';
-import {
-  DESIGN_EXTENSION,
-  MAX_FILE_BYTES,
-  parseNoArgs,
-  parseRecoveryWriteArgs,
-  parseSaveArgs,
-  parseSaveAsArgs,
-  validateDesignPath,
-  validateText,
-} from './ipcValidators';
-import {
-  CONTENT_SECURITY_POLICY,
-  isAllowedNavigation,
-  isExternalHttpUrl,
-  secureWebPreferences,
-} from './windowOptions';
+import { DesignAccess } from './designAccess';
+import { bringToFront, singleInstanceApp } from './electronExtras';
+import { openLinkAfterAsking } from './externalLinks';
+import { registerIpc } from './ipcHandlers';
+import { DESIGN_EXTENSION, MAX_FILE_BYTES, validateDesignPath } from './ipcValidators';
+import { OpenRequests } from './openRequests';
+import { newInstanceId, RecoveryStore } from './recoveryStore';
+import { CONTENT_SECURITY_POLICY, isAllowedNavigation, secureWebPreferences } from './windowOptions';
 
 const RENDERER_INDEX = path.join(__dirname, '..', 'dist', 'renderer', 'index.html');
 const PRELOAD = path.join(__dirname, 'preload.cjs');
 const APP_URL = pathToFileURL(RENDERER_INDEX).href;
-const RECENT_LIMIT = 10;
-const DESIGN_FILTERS = [{ name: 'Tiltbench design', extensions: [DESIGN_EXTENSION.slice(1)] }];
 
-/** Paths the user picked this session (open, save as, command line): the only ones `design:save` writes. */
-const grantedPaths = new Set<string>();
-
-function recoveryPath(): string {
-  return path.join(app.getPath('userData'), 'recovery.tiltsheet');
-}
-
-function recentListPath(): string {
-  return path.join(app.getPath('userData'), 'recent.json');
-}
-
-function designPathFromArgv(argv: readonly string[]): string | null {
+/** The design a command line names (`--design FILE` or a bare `FILE.tiltsheet`), resolved against `cwd`. */
+function designPathFromArgv(argv: readonly string[], cwd: string): string | null {
   const flag = argv.indexOf('--design');
-  if (flag >= 0 && flag + 1 < argv.length) return path.resolve(argv[flag + 1]);
+  if (flag >= 0 && flag + 1 < argv.length) return path.resolve(cwd, argv[flag + 1]);
   const bare = argv.slice(1).find((arg) => !arg.startsWith('-') && arg.toLowerCase().endsWith(DESIGN_EXTENSION));
-  return bare === undefined ? null : path.resolve(bare);
+  return bare === undefined ? null : path.resolve(cwd, bare);
 }
 
-async function readDesign(channel: string, filePath: string): Promise<DesignFile> {
-  const checked = validateDesignPath(channel, filePath);
-  const info = await stat(checked);
-  if (!info.isFile()) throw new Error(`${channel}: not a file: ${checked}`);
-  if (info.size > MAX_FILE_BYTES) throw new Error(`${channel}: file exceeds ${MAX_FILE_BYTES} bytes`);
-  const text = await readFile(checked, 'utf8');
-  grantedPaths.add(checked);
-  await rememberRecent(checked);
-  return { path: checked, text };
-}
-
-async function loadRecent(): Promise<string[]> {
+/**
+ * The design a later launch handed over: the path it resolved itself (sent as the lock's
+ * additional data, since Chromium may reorder the argv the first instance sees), else its argv.
+ */
+function designFromSecondLaunch(argv: string[], cwd: string, additionalData: unknown): string | null {
+  const sent = (additionalData as { designPath?: unknown } | null)?.designPath;
   try {
-    const parsed: unknown = JSON.parse(await readFile(recentListPath(), 'utf8'));
-    if (!Array.isArray(parsed)) return [];
-    return parsed.filter((p): p is string => typeof p === 'string').slice(0, RECENT_LIMIT);
+    if (typeof sent === 'string') return validateDesignPath('second launch', sent);
+    const fromArgv = designPathFromArgv(argv, cwd);
+    return fromArgv === null ? null : validateDesignPath('second launch', fromArgv);
   } catch {
-    return [];
+    return null; // not a design path: the window is still brought forward
   }
-}
-
-async function rememberRecent(filePath: string): Promise<void> {
-  const list = [filePath, ...(await loadRecent()).filter((p) => p !== filePath)].slice(0, RECENT_LIMIT);
-  await atomicWrite(recentListPath(), JSON.stringify(list, null, 2));
-}
-
-/** Registers a handler that accepts calls from the app's own page only. */
-function handle<T>(channel: string, run: (args: unknown[]) => Promise<T>): void {
-  ipcMain.handle(channel, (event: IpcMainInvokeEvent, ...args: unknown[]) => {
-    const sender = event.senderFrame?.url ?? '';
-    if (!isAllowedNavigation(sender, APP_URL)) throw new Error(`${channel}: call from an unexpected page`);
-    return run(args);
-  });
-}
-
-function registerIpc(initialDesign: string | null): void {
-  handle(IPC.designOpen, async (args) => {
-    parseNoArgs(IPC.designOpen, args);
-    const owner = BrowserWindow.getFocusedWindow();
-    const options = { properties: ['openFile' as const], filters: DESIGN_FILTERS };
-    const result = owner ? await dialog.showOpenDialog(owner, options) : await dialog.showOpenDialog(options);
-    if (result.canceled || result.filePaths.length === 0) return null;
-    return readDesign(IPC.designOpen, result.filePaths[0]);
-  });
-
-  handle(IPC.designInitial, async (args) => {
-    parseNoArgs(IPC.designInitial, args);
-    return initialDesign === null ? null : readDesign(IPC.designInitial, initialDesign);
-  });
-
-  handle(IPC.designSave, async (args) => {
-    const { path: target, text } = parseSaveArgs(IPC.designSave, args);
-    if (!grantedPaths.has(target)) {
-      throw new Error(`${IPC.designSave}: path was not opened or chosen in this session; use save as`);
-    }
-    await atomicWrite(target, text);
-    await rememberRecent(target);
-  });
-
-  handle(IPC.designSaveAs, async (args) => {
-    const { text, suggestedName } = parseSaveAsArgs(IPC.designSaveAs, args);
-    const owner = BrowserWindow.getFocusedWindow();
-    const options = {
-      filters: DESIGN_FILTERS,
-      defaultPath: path.join(app.getPath('documents'), suggestedName ?? `design${DESIGN_EXTENSION}`),
-    };
-    const result = owner ? await dialog.showSaveDialog(owner, options) : await dialog.showSaveDialog(options);
-    if (result.canceled || !result.filePath) return null;
-    const chosen = result.filePath.toLowerCase().endsWith(DESIGN_EXTENSION)
-      ? result.filePath
-      : result.filePath + DESIGN_EXTENSION;
-    const target = validateDesignPath(IPC.designSaveAs, chosen);
-    await atomicWrite(target, text);
-    grantedPaths.add(target);
-    await rememberRecent(target);
-    return target;
-  });
-
-  handle(IPC.recoveryWrite, async (args) => {
-    await atomicWrite(recoveryPath(), parseRecoveryWriteArgs(IPC.recoveryWrite, args));
-  });
-
-  handle(IPC.recoveryRead, async (args) => {
-    parseNoArgs(IPC.recoveryRead, args);
-    try {
-      const info = await stat(recoveryPath());
-      if (info.size > MAX_FILE_BYTES) return null;
-      return validateText(IPC.recoveryRead, await readFile(recoveryPath(), 'utf8'));
-    } catch {
-      return null;
-    }
-  });
-
-  handle(IPC.recoveryClear, async (args) => {
-    parseNoArgs(IPC.recoveryClear, args);
-    await rm(recoveryPath(), { force: true });
-  });
-
-  handle(IPC.appRecent, async (args) => {
-    parseNoArgs(IPC.appRecent, args);
-    return (await loadRecent()).filter((p) => existsSync(p));
-  });
-
-  handle(IPC.designOpenRecent, async (args) => {
-    if (args.length !== 1 || typeof args[0] !== 'string') throw new Error(`${IPC.designOpenRecent}: expected one path`);
-    const wanted = validateDesignPath(IPC.designOpenRecent, args[0]);
-    // Only a path this app listed as recent: the renderer cannot name arbitrary files.
-    if (!(await loadRecent()).includes(wanted)) throw new Error(`${IPC.designOpenRecent}: not a recent design`);
-    if (!existsSync(wanted)) return null;
-    return readDesign(IPC.designOpenRecent, wanted);
-  });
 }
 
 /** Applies navigation and window-opening rules to every web contents the app creates. */
 function lockDown(contents: WebContents): void {
   contents.setWindowOpenHandler(({ url }) => {
-    if (isExternalHttpUrl(url)) void shell.openExternal(url);
+    void openLinkAfterAsking(url).catch(() => undefined);
     return { action: 'deny' };
   });
   contents.on('will-navigate', (event, url) => {
@@ -195,28 +74,65 @@ function createWindow(): void {
   void win.loadFile(RENDERER_INDEX);
 }
 
-// Without a GPU, Chromium no longer falls back to SwiftShader for WebGL unless told to; the
-// viewport is designed to render on the CPU.
-app.commandLine.appendSwitch('enable-unsafe-swiftshader');
-app.enableSandbox();
-app.on('web-contents-created', (_event, contents) => lockDown(contents));
+/** Starts the one instance that owns the user-data folder (recovery copies, recent list). */
+function startPrimary(): void {
+  const openRequests = new OpenRequests();
+  const userData = app.getPath('userData');
 
-void app.whenReady().then(() => {
-  session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
-    callback({
-      responseHeaders: { ...details.responseHeaders, 'Content-Security-Policy': [CONTENT_SECURITY_POLICY] },
+  // Without a GPU, Chromium no longer falls back to SwiftShader for WebGL unless told to; the
+  // viewport is designed to render on the CPU.
+  app.commandLine.appendSwitch('enable-unsafe-swiftshader');
+  app.enableSandbox();
+  app.on('web-contents-created', (_event, contents) => lockDown(contents));
+
+  // A later launch ends at once (see below) and its design opens here, in the existing window.
+  singleInstanceApp.on('second-instance', (_event, argv, workingDirectory, additionalData) => {
+    const requested = designFromSecondLaunch(argv, workingDirectory, additionalData);
+    void app.whenReady().then(() => {
+      const win = BrowserWindow.getAllWindows()[0];
+      if (win) bringToFront(win);
+      else createWindow();
+      if (requested !== null) openRequests.push(requested);
     });
   });
-  session.defaultSession.setPermissionRequestHandler((_contents, _permission, callback) => callback(false));
-  session.defaultSession.setPermissionCheckHandler(() => false);
 
-  registerIpc(designPathFromArgv(process.argv));
-  createWindow();
-  app.on('activate', () => {
-    if (BrowserWindow.getAllWindows().length === 0) createWindow();
+  void app.whenReady().then(() => {
+    session.defaultSession.webRequest.onHeadersReceived((details, callback) => {
+      callback({
+        responseHeaders: { ...details.responseHeaders, 'Content-Security-Policy': [CONTENT_SECURITY_POLICY] },
+      });
+    });
+    session.defaultSession.setPermissionRequestHandler((_contents, _permission, callback) => callback(false));
+    session.defaultSession.setPermissionCheckHandler(() => false);
+
+    registerIpc({
+      appUrl: APP_URL,
+      initialDesign: designPathFromArgv(process.argv, process.cwd()),
+      documentsFolder: app.getPath('documents'),
+      access: new DesignAccess(path.join(userData, 'recent.json')),
+      recovery: new RecoveryStore(
+        path.join(userData, 'recovery'),
+        newInstanceId(),
+        MAX_FILE_BYTES,
+        path.join(userData, 'recovery.tiltsheet'),
+      ),
+      openRequests,
+    });
+    createWindow();
+    app.on('activate', () => {
+      if (BrowserWindow.getAllWindows().length === 0) createWindow();
+    });
   });
-});
 
-app.on('window-all-closed', () => {
-  if (process.platform !== 'darwin') app.quit();
-});
+  app.on('window-all-closed', () => {
+    if (process.platform !== 'darwin') app.quit();
+  });
+}
+
+// One instance per user-data folder, so two never share the recent list or take each other's
+// recovery copy; a second launch hands its design to the first and quits.
+if (singleInstanceApp.requestSingleInstanceLock({ designPath: designPathFromArgv(process.argv, process.cwd()) })) {
+  startPrimary();
+} else {
+  app.quit();
+}

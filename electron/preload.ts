@@ -16,6 +16,7 @@ const api: TiltbenchApi = {
   clearRecovery: () => ipcRenderer.invoke(IPC.recoveryClear),
   recentDesigns: () => ipcRenderer.invoke(IPC.appRecent),
   openRecentDesign: (path: string) => ipcRenderer.invoke(IPC.designOpenRecent, path),
+  nextOpenRequest: () => ipcRenderer.invoke(IPC.designOpenRequest),
 };
 
 contextBridge.exposeInMainWorld('tiltbench', Object.freeze(api));

@@ -9,7 +9,7 @@ import { DEMO_DESIGNS, DEFAULT_DEMO } from '../model/demoDesigns';
 import { designToText, suggestedFileName } from '../model/designText';
 import { askConfirm } from '../state/uiStore';
 import type { Workbench } from '../state/workbench';
-import type { FileService, OpenedFile, RecentEntry } from './fileService';
+import type { FileService, OpenedFile, OpenRequestResult, RecentEntry } from './fileService';
 
 /** Quiet time after the last edit before the recovery copy is written, ms. */
 export const AUTOSAVE_DELAY_MS = 700;
@@ -86,6 +86,26 @@ export class DocumentFlow {
     }
   }
 
+  /**
+   * Opens each design a later launch of the app hands to this window (Electron's single
+   * instance), asking first if there are unsaved changes. Stops if the shell refuses to answer.
+   */
+  private async followOpenRequests(next: () => Promise<OpenRequestResult>): Promise<void> {
+    for (;;) {
+      let request: OpenRequestResult;
+      try {
+        request = await next();
+      } catch {
+        return;
+      }
+      if ('problem' in request) {
+        this.notify('error', `Could not open ${request.fileName}`, [request.problem, 'Nothing was changed.']);
+      } else if (await this.mayReplace('Open another design')) {
+        this.loadText(request.file);
+      }
+    }
+  }
+
   async newDesign(starterId: string): Promise<void> {
     const starter = DEMO_DESIGNS.find((d) => d.id === starterId) ?? DEFAULT_DEMO;
     if (!(await this.mayReplace('Start a new design'))) return;
@@ -117,6 +137,8 @@ export class DocumentFlow {
    * demo; then an offer to restore unsaved work from the last session.
    */
   async start(): Promise<void> {
+    const nextOpenRequest = this.files.nextOpenRequest?.bind(this.files);
+    if (nextOpenRequest) void this.followOpenRequests(nextOpenRequest);
     try {
       const initial = await this.files.initialDesign();
       if (initial) this.loadText(initial);

@@ -21,6 +21,9 @@ export interface RecentEntry {
   id: string;
 }
 
+/** A design a later launch of the app asked this window to open (Electron), or why it could not be read. */
+export type OpenRequestResult = { file: OpenedFile } | { fileName: string; problem: string };
+
 export interface SaveResult {
   fileName: string;
   path: string | null;
@@ -40,6 +43,8 @@ export interface FileService {
   writeRecovery(text: string): Promise<void>;
   readRecovery(): Promise<string | null>;
   clearRecovery(): Promise<void>;
+  /** Electron only: waits for the next design a later launch of the app hands to this window. */
+  nextOpenRequest?(): Promise<OpenRequestResult>;
 }
 
 export function baseName(p: string): string {
@@ -61,8 +66,9 @@ export function electronFileService(api: ElectronApi): FileService {
     open: async () => opened(await api.openDesign()),
     async save(text, current) {
       if (current.path === null) return saveAs(text, current.fileName);
-      await api.saveDesign(current.path, text);
-      return current;
+      // Main may ask where to save first (a design reopened from the recent list): the answer can be another path, or none.
+      const written = await api.saveDesign(current.path, text);
+      return written === null ? null : { fileName: baseName(written), path: written };
     },
     saveAs,
     recent: async () => (await api.recentDesigns()).map((p) => ({ label: baseName(p), id: p })),
@@ -70,6 +76,11 @@ export function electronFileService(api: ElectronApi): FileService {
     writeRecovery: (text) => api.writeRecovery(text),
     readRecovery: () => api.readRecovery(),
     clearRecovery: () => api.clearRecovery(),
+    async nextOpenRequest() {
+      const request = await api.nextOpenRequest();
+      if ('problem' in request) return { fileName: baseName(request.path), problem: request.problem };
+      return { file: { fileName: baseName(request.path), path: request.path, text: request.text } };
+    },
   };
 }
 

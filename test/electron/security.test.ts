@@ -1,14 +1,11 @@
 // Security settings of the Electron shell, checked without Electron: web preferences, the
-// Content-Security-Policy, navigation rules, IPC validators, and crash-safe saving.
-import { spawn } from 'node:child_process';
-import { existsSync } from 'node:fs';
-import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
-import os from 'node:os';
+// Content-Security-Policy, navigation rules and IPC validators. Saving is in atomicWrite.test.ts,
+// the main process's handlers in mainProcess.test.ts.
+import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { IPC } from '../../electron/api';
-import { atomicWrite, tempPathFor } from '../../electron/atomicWrite';
 import {
   IpcValidationError,
   MAX_TEXT_BYTES,
@@ -125,13 +122,12 @@ describe('navigation and new windows', () => {
 describe('IPC surface', () => {
   it('preload exposes one function per channel and never ipcRenderer itself', async () => {
     const preload = await source('electron/preload.ts');
-    const main = await source('electron/main.ts');
     expect(preload.match(/exposeInMainWorld\(/g)).toHaveLength(1);
     expect(preload).not.toMatch(/exposeInMainWorld\([^)]*ipcRenderer\s*[,)]/);
     expect(preload).not.toMatch(/ipcRenderer\.(on|once|send|sendSync|postMessage)\b/);
+    // That main handles every channel is checked on the running handlers in mainProcess.test.ts.
     for (const key of Object.keys(IPC)) {
       expect(preload, `preload uses IPC.${key}`).toContain(`IPC.${key}`);
-      expect(main, `main handles IPC.${key}`).toMatch(new RegExp(`handle\\(IPC\\.${key},`));
     }
   });
 });
@@ -204,103 +200,4 @@ describe('IPC validators', () => {
       expect(utf8ByteLength(s), JSON.stringify(s)).toBe(Buffer.byteLength(s, 'utf8'));
     }
   });
-});
-
-describe('atomicWrite', () => {
-  let dir = '';
-  afterEach(async () => {
-    if (dir) await rm(dir, { recursive: true, force: true });
-    dir = '';
-  });
-
-  it('replaces a file and leaves no temp file', async () => {
-    dir = await mkdtemp(path.join(os.tmpdir(), 'tiltbench-aw-'));
-    const target = path.join(dir, 'a.tiltsheet');
-    await writeFile(target, 'old');
-    await Promise.all([atomicWrite(target, 'one'), atomicWrite(target, 'two')]);
-    expect(await readFile(target, 'utf8')).toBe('two');
-    expect(existsSync(tempPathFor(target))).toBe(false);
-    await expect(atomicWrite(path.join(dir, 'missing', 'b.tiltsheet'), 'x')).rejects.toThrow();
-  });
-
-  /** Starts a node child that atomically writes `target` in a loop, printing "writing <i>" before each. */
-  async function startWriter(target: string, payloadBytes: number, loops: number) {
-    const child = path.join(dir, 'writer.mjs');
-    await writeFile(
-      child,
-      `const { atomicWrite } = await import(${JSON.stringify(pathToFileURL(path.join(ROOT, 'electron/atomicWrite.ts')).href)});
-const [target, bytes, loops] = [process.argv[2], Number(process.argv[3]), Number(process.argv[4])];
-for (let i = 0; i < loops; i++) {
-  const head = Buffer.from(JSON.stringify({ version: i + 1, bytes }).padEnd(64, ' ') + '\\n');
-  const body = Buffer.alloc(bytes - head.length, 0x61 + (i % 26));
-  process.stdout.write('writing ' + (i + 1) + '\\n');
-  await atomicWrite(target, Buffer.concat([head, body]));
-}
-process.stdout.write('done\\n');
-`,
-    );
-    const proc = spawn(process.execPath, ['--import', 'tsx', child, target, String(payloadBytes), String(loops)], {
-      cwd: ROOT,
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    let stdout = '';
-    let stderr = '';
-    proc.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
-    proc.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
-    const exited = new Promise<NodeJS.Signals | number | null>((resolve) =>
-      proc.on('exit', (code, signal) => resolve(signal ?? code)),
-    );
-    return { proc, exited, output: () => ({ stdout, stderr }) };
-  }
-
-  /** A file written by the child: its header names its size, its body is one repeated letter. */
-  function expectWholeVersion(content: Buffer, payloadBytes: number): number {
-    expect(content.length).toBe(payloadBytes);
-    const header = JSON.parse(content.subarray(0, 64).toString()) as { version: number; bytes: number };
-    const letter = 0x61 + ((header.version - 1) % 26);
-    expect(content.subarray(65).every((b) => b === letter)).toBe(true);
-    return header.version;
-  }
-
-  it('leaves the original whole when the writer is SIGKILLed mid-write', async () => {
-    dir = await mkdtemp(path.join(os.tmpdir(), 'tiltbench-aw-'));
-    const target = path.join(dir, 'design.tiltsheet');
-    const original = `{"format":1,"name":"original"}\n${'o'.repeat(100_000)}\n`;
-    await writeFile(target, original);
-    const payload = 64 * 1024 * 1024;
-    const writer = await startWriter(target, payload, 1);
-    const temp = tempPathFor(target, writer.proc.pid);
-
-    // Kill as soon as the temp file exists, i.e. while the new content is being written.
-    const deadline = Date.now() + 60_000;
-    while (!existsSync(temp) && writer.proc.exitCode === null && Date.now() < deadline) {
-      await new Promise((resolve) => setImmediate(resolve));
-    }
-    writer.proc.kill('SIGKILL');
-    expect(await writer.exited, JSON.stringify(writer.output())).toBe('SIGKILL');
-
-    const after = await readFile(target);
-    if (existsSync(temp)) {
-      expect(after.toString()).toBe(original); // killed before the rename: untouched
-    } else {
-      expectWholeVersion(after, payload); // the rename won the race: the new file is whole
-    }
-  });
-
-  it('always leaves a whole version when killed at random moments of repeated saves', async () => {
-    dir = await mkdtemp(path.join(os.tmpdir(), 'tiltbench-aw-'));
-    const target = path.join(dir, 'design.tiltsheet');
-    const payload = 4 * 1024 * 1024;
-    for (let round = 0; round < 4; round++) {
-      const writer = await startWriter(target, payload, 1_000);
-      const deadline = Date.now() + 30_000;
-      while (!/writing 2\n/.test(writer.output().stdout) && Date.now() < deadline && writer.proc.exitCode === null) {
-        await new Promise((resolve) => setTimeout(resolve, 5));
-      }
-      await new Promise((resolve) => setTimeout(resolve, 10 + Math.random() * 120));
-      writer.proc.kill('SIGKILL');
-      expect(await writer.exited, JSON.stringify(writer.output())).toBe('SIGKILL');
-      expectWholeVersion(await readFile(target), payload);
-    }
-  }, 120_000);
 });
