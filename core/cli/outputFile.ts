@@ -101,8 +101,9 @@ export class AtomicOutput {
     private readonly fs: OutputFs,
   ) {
     const folder = dirname(target.real);
-    removeStalePartials(folder, basename(target.real), fs);
-    this.temp = join(folder, `.${basename(target.real)}.${process.pid}-${randomBytes(6).toString('hex')}.partial`);
+    const stem = partialStem(basename(target.real));
+    removeStalePartials(folder, stem, fs);
+    this.temp = join(folder, `.${stem}.${process.pid}-${randomBytes(6).toString('hex')}.partial`);
     const c = nodeFs.constants;
     try {
       this.fd = fs.openSync(this.temp, c.O_WRONLY | c.O_CREAT | c.O_EXCL | (c.O_NOFOLLOW ?? 0), 0o666);
@@ -201,6 +202,18 @@ function processAlive(pid: number): boolean {
   } catch (e) {
     return (e as NodeJS.ErrnoException).code === 'EPERM';
   }
+}
+
+/** Longest share of the target's name in a temporary name, in bytes: with the dot, process id,
+ * random part and suffix it stays under the 255-byte name limit of common file systems, so a
+ * target whose own name is near that limit can still be written. */
+const STEM_BYTES = 200;
+
+/** The target's name as its temporary files carry it (cut to STEM_BYTES at a character edge). */
+export function partialStem(name: string): string {
+  let stem = name;
+  while (Buffer.byteLength(stem) > STEM_BYTES) stem = stem.slice(0, -1);
+  return stem;
 }
 
 /** Temporary files of earlier writes to the same target whose process was killed (SIGKILL). */

@@ -64,7 +64,29 @@ export interface FigurePart {
   mostLmIterations: number;
   /** Wall time of the part's fuzzing, ms. */
   elapsedMs: number;
+  /** Command-line runs (cliFuzz): tried, and how they ended. */
+  cli?: CliRuns;
 }
+
+export interface CliRuns {
+  tried: number;
+  /** Exit 0 or 1: the job ran (1: it found a failure). */
+  ran: number;
+  /** Exit 2: refused as bad input, with a message. */
+  refused: number;
+  /** Exit 70 or an exception out of the command: a fault in Tiltbench. */
+  crashed: number;
+  /** Runs over the time limit (10 s). */
+  hung: number;
+  /** Any other exit code (74, 130, ...), by code. */
+  other: Record<string, number>;
+  slowestMs: number;
+  slowest: string;
+  byCommand: Record<string, number>;
+}
+
+/** The longest a single command-line run may take in the fuzz before it counts as hung. */
+export const HANG_MS = 10_000;
 
 export class FigureTally {
   private readonly started = performance.now();
@@ -107,6 +129,22 @@ export class FigureTally {
     }
   }
 
+  /** One command-line run: its command, exit code (null: it threw) and time. */
+  cliRun(command: string, code: number | null, ms: number, what: () => string): void {
+    const c = (this.data.cli ??= { tried: 0, ran: 0, refused: 0, crashed: 0, hung: 0, other: {}, slowestMs: 0, slowest: '', byCommand: {} });
+    c.tried++;
+    c.byCommand[command] = (c.byCommand[command] ?? 0) + 1;
+    if (code === 0 || code === 1) c.ran++;
+    else if (code === 2) c.refused++;
+    else if (code === null || code === 70) c.crashed++;
+    else c.other[String(code)] = (c.other[String(code)] ?? 0) + 1;
+    if (ms > HANG_MS) c.hung++;
+    if (ms > c.slowestMs) {
+      c.slowestMs = ms;
+      c.slowest = what();
+    }
+  }
+
   file(loaded: boolean): void {
     this.data.filesFuzzed++;
     if (loaded) this.data.filesLoaded++;
@@ -119,6 +157,7 @@ export class FigureTally {
     this.data.writtenAt = new Date().toISOString();
     const totals = mergePart(this.data);
     console.log(summaryLine(this.data));
+    if (this.data.cli) console.log(cliLine(this.data.cli));
     console.log(totalsLine(totals));
   }
 }
@@ -132,6 +171,15 @@ export function summaryLine(p: Pick<FigurePart, 'part' | 'designsFuzzed' | 'file
     `fuzz figures [${p.part}]: ${p.designsFuzzed} designs, ${p.filesFuzzed} files, ${p.posesSolved} poses checked one by one ` +
     `(converged ${p.statuses.converged ?? 0}${failures ? `; ${failures}` : ''}), ` +
     `${p.sweepPosesSolved ? `+ ${p.sweepPosesSolved} in sweeps, ` : ''}longest solve ${p.longestSolve.ms.toFixed(1)} ms, ${(p.elapsedMs / 1000).toFixed(1)} s`
+  );
+}
+
+export function cliLine(c: CliRuns): string {
+  const other = Object.entries(c.other).map(([k, v]) => `exit ${k}: ${v}`).join(', ');
+  return (
+    `fuzz figures [cli runs]: ${c.tried} tried: ${c.ran} ran (exit 0 or 1), ${c.refused} refused (exit 2), ${c.crashed} crashed, ` +
+    `${c.hung} hung (over ${HANG_MS / 1000} s)${other ? `, ${other}` : ''}; slowest ${(c.slowestMs / 1000).toFixed(2)} s (${c.slowest}); ` +
+    `by command: ${Object.entries(c.byCommand).map(([k, v]) => `${k} ${v}`).join(', ')}`
   );
 }
 
