@@ -15,6 +15,7 @@ import { runSensitivityCommand, sensitivityHelp } from './commands/sensitivity';
 import { runToleranceCommand, toleranceHelp } from './commands/tolerance';
 import { runTuneCommand, tuneHelp } from './commands/tune';
 import { runCompareCommand, compareHelp } from './commands/compare';
+import { runHardpointsCommand, hardpointsHelp } from './commands/hardpoints';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -31,6 +32,7 @@ export const COMMANDS: Record<string, CliCommand> = {
   tolerance: { run: runToleranceCommand, help: toleranceHelp },
   tune: { run: runTuneCommand, help: tuneHelp },
   compare: { run: runCompareCommand, help: compareHelp },
+  hardpoints: { run: runHardpointsCommand, help: hardpointsHelp },
 };
 
 function usage(): string {

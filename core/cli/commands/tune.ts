@@ -147,7 +147,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
     if (typeof suggest === 'string' && suggest !== 'tie-rods' && suggest !== 'ackermann') throw new ArgError(`--suggest: expected tie-rods or ackermann, found "${suggest.slice(0, 40)}"`);
     if (typeof suggest === 'string' && !outPath) throw new ArgError(`--suggest ${suggest} writes the proposal: give --out PROPOSED.tiltsheet`);
     if (!list && suggest === undefined && (!planPath || !outPath)) throw new ArgError('give --plan PLAN.json and --out TUNED.tiltsheet (or --list-variables, or --suggest)');
-    if (outPath) target = checkOutputPath(outPath, '--out', [{ path: designPath, what: 'the design' }, ...(planPath ? [{ path: planPath, what: 'the plan' }] : [])]);
+    if (outPath) target = checkOutputPath(outPath, '--out', [{ path: designPath, what: 'design' }, ...(planPath ? [{ path: planPath, what: 'plan' }] : [])]);
   } catch (e) {
     // A design that cannot be read is the first thing to say (its file and place), before the usage.
     if (e instanceof ArgError && unreadableDesign(argv, io)) return EXIT_BAD_INPUT;
