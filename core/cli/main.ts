@@ -16,6 +16,7 @@ import { runToleranceCommand, toleranceHelp } from './commands/tolerance';
 import { runTuneCommand, tuneHelp } from './commands/tune';
 import { runCompareCommand, compareHelp } from './commands/compare';
 import { runHardpointsCommand, hardpointsHelp } from './commands/hardpoints';
+import { runFitCommand, fitHelp } from './commands/fit';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -33,6 +34,7 @@ export const COMMANDS: Record<string, CliCommand> = {
   tune: { run: runTuneCommand, help: tuneHelp },
   compare: { run: runCompareCommand, help: compareHelp },
   hardpoints: { run: runHardpointsCommand, help: hardpointsHelp },
+  fit: { run: runFitCommand, help: fitHelp },
 };
 
 function usage(): string {
