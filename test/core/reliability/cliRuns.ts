@@ -83,7 +83,7 @@ export function runProblems(r: CliRun, designName?: string, before?: string): st
   }
   const out = outputOf(r.argv);
   if (out && r.argv[0] === 'sweep') p.push(...outputProblems(r, out, before));
-  if (out && r.argv[0] === 'tune') p.push(...designOutputProblems(r, out, before));
+  if (out && (r.argv[0] === 'tune' || r.argv[0] === 'fit')) p.push(...designOutputProblems(r, out, before));
   return p;
 }
 
@@ -132,7 +132,7 @@ function outputProblems(r: CliRun, out: string, before: string | undefined): str
   return p;
 }
 
-/** A design written by tune: whole (it parses as JSON) after exit 0, else the old file as it was. */
+/** A design written by tune or fit: whole (it parses as JSON) after exit 0, else the old file as it was. */
 function designOutputProblems(r: CliRun, out: string, before: string | undefined): string[] {
   if (!existsSync(dirname(out))) return [];
   const left = readdirSync(dirname(out)).filter((f) => f.startsWith(`.${basename(out)}.`));
@@ -154,7 +154,7 @@ export function prepareOutput(argv: readonly string[]): void {
   // A sweep's hostile outputs (the input, links, pipes) are left as they are; tune's written
   // proposal goes to a file of its own, reset before every run.
   // A name past the file system's limit cannot be prepared; the run must refuse it.
-  if (out && existsSync(dirname(out)) && (!existsSync(out) || argv[0] === 'tune') && Buffer.byteLength(basename(out)) <= 255) writeFileSync(out, OLD_OUTPUT);
+  if (out && existsSync(dirname(out)) && (!existsSync(out) || argv[0] === 'tune' || argv[0] === 'fit') && Buffer.byteLength(basename(out)) <= 255) writeFileSync(out, OLD_OUTPUT);
 }
 
 /** Run, tally and return the problems, each labelled. */

@@ -7,6 +7,9 @@ import fc from 'fast-check';
 import { join } from 'node:path';
 import { HOSTILE_TEXT } from './fileMutations';
 
+/** The invented measurement sheet of the Wren demo (any design can be fitted to it). */
+const MEASUREMENTS = join(__dirname, '..', '..', '..', 'assets', 'designs', 'measurements', 'wren-rack-trike.measurements.csv');
+
 export interface CommandSpec {
   /** e.g. "sweep csv". */
   mode: string;
@@ -35,6 +38,7 @@ export const COMMAND_SPECS: CommandSpec[] = [
   { mode: 'compare json', argv: (d, _dir, o) => ['compare', o, d, '--poses', '0,0', '--json'] },
   { mode: 'tune list', argv: (d) => ['tune', d, '--list-variables'] },
   { mode: 'tune suggest json', argv: (d) => ['tune', d, '--suggest', '--json'] },
+  { mode: 'fit text', argv: (d, dir) => ['fit', d, '--measurements', MEASUREMENTS, '--vary', 'steering.tieRodJoint:y', '--out', join(dir, 'fitted.tiltsheet')] },
   { mode: 'hardpoints table', argv: (d, dir) => ['hardpoints', d, '--out', join(dir, 'table.csv')] },
   { mode: 'tune suggest written', argv: (d, dir) => ['tune', d, '--suggest', 'tie-rods', '--out', join(dir, 'proposed.tiltsheet')] },
 ];
