@@ -10,6 +10,8 @@ import { issuesOfCell, issuesOfPoint } from '../model/fieldIssues';
 import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpoints';
 import type { DesignIssue } from '../../core/design/validateDesign';
 import { NumberField } from './NumberField';
+import { rateText, useSensitivity } from '../studies/useSensitivity';
+import type { SensitivityData } from '../workers/sensitivityJob';
 
 export function HardpointTable() {
   const design = useDocument((s) => s.design);
@@ -17,6 +19,9 @@ export function HardpointTable() {
   const selection = useUi((s) => s.selection);
   const actions = useActions();
   const rows = useMemo(() => hardpointRows(design), [design]);
+  const sensitivity = useSensitivity(design);
+  const [objective, setObjective] = useState('selfSteer');
+  const rates = sensitivity.state.phase === 'done' ? sensitivity.state.data : null;
   const body = useRef<HTMLTableSectionElement>(null);
   /** Cells whose text is not a number yet: "rowId:axis" -> message. */
   const [typing, setTyping] = useState<Record<string, string>>({});
@@ -41,6 +46,14 @@ export function HardpointTable() {
     <section className="panel hardpoint-panel" aria-labelledby="hp-title">
       <h2 id="hp-title">Hardpoints</h2>
       <p className="hint">mm, vehicle axes: x forward, y left, z up. A mirrored pair shares one value (y flips sign on the left).</p>
+      <SensitivityBar
+        state={sensitivity.state}
+        stale={sensitivity.stale}
+        objective={objective}
+        onObjective={setObjective}
+        onRun={sensitivity.run}
+        onCancel={sensitivity.cancel}
+      />
       <table className="hardpoint-table" data-testid="hardpoint-table">
         <TableHead />
         <tbody ref={body}>
@@ -67,6 +80,7 @@ export function HardpointTable() {
                   onLink={(keep) => actions.perform(linkPoint, { key: row.key, keep })}
                   onTyping={reportTyping}
                 />
+                {rates && row.side !== 'left' && <RateRow rowKey={row.key} rates={rates} objective={objective} />}
                 {messages.length > 0 && (
                   <tr className="issue-row">
                     <td colSpan={6} role="alert" className="field-error" data-testid={`issue-${row.id}`}>
@@ -80,6 +94,83 @@ export function HardpointTable() {
         </tbody>
       </table>
     </section>
+  );
+}
+
+const OBJECTIVE_CHOICES: { id: string; words: string }[] = [
+  { id: 'selfSteer', words: 'self-steer' },
+  { id: 'slip', words: 'toe mismatch (slip)' },
+  { id: 'ratioChange', words: 'steering-ratio change' },
+  { id: 'jointMargin', words: 'least joint margin' },
+];
+
+/** Run or cancel the sensitivity, pick the measure the column shows, and say how fresh it is. */
+function SensitivityBar(p: {
+  state: ReturnType<typeof useSensitivity>['state'];
+  stale: boolean;
+  objective: string;
+  onObjective(id: string): void;
+  onRun(): void;
+  onCancel(): void;
+}) {
+  const { state } = p;
+  return (
+    <div className="sensitivity-bar" data-testid="sensitivity-bar">
+      {state.phase === 'running' ? (
+        <>
+          <progress max={state.total} value={state.done} aria-label="sensitivity progress" />
+          <button type="button" onClick={p.onCancel}>
+            Cancel
+          </button>
+        </>
+      ) : (
+        <button type="button" onClick={p.onRun} data-testid="run-sensitivity" title="How much each measure moves per mm of each hardpoint coordinate, over the operating region (mirrored pairs moving together)">
+          {state.phase === 'done' ? 'Rates again' : 'Rates per mm'}
+        </button>
+      )}
+      <label>
+        of{' '}
+        <select value={p.objective} onChange={(e) => p.onObjective(e.target.value)} data-testid="sensitivity-objective">
+          {OBJECTIVE_CHOICES.map((o) => (
+            <option key={o.id} value={o.id}>
+              {o.words}
+            </option>
+          ))}
+        </select>
+      </label>
+      {state.phase === 'done' && (
+        <span className={`hint ${p.stale ? 'is-stale' : ''}`} data-testid="sensitivity-note">
+          {p.stale ? 'from before your last edit: run again' : `${state.data.poses} poses of the operating region, ${(state.data.elapsedMs / 1000).toFixed(1)} s; bold: the axis that matters most`}
+        </span>
+      )}
+      {state.phase === 'failed' && (
+        <span className="field-error" role="alert">
+          Rates could not be computed: {state.message}
+        </span>
+      )}
+    </div>
+  );
+}
+
+/** Under a point: its x, y, z rates of the chosen measure per mm (a mirrored pair moving together). */
+function RateRow({ rowKey, rates, objective }: { rowKey: string; rates: SensitivityData; objective: string }) {
+  const of = rates.rows.filter((r) => r.key === rowKey);
+  if (of.length === 0) return null;
+  const unit = rates.objectives.find((o) => o.id === objective)?.unit ?? '';
+  const best = of.reduce((a, b) => (b.rank < a.rank ? b : a));
+  return (
+    <tr className="rate-row">
+      <td colSpan={6} title={of.map((r) => r.sentence).join('\n')} data-testid={`rate-${rowKey}`}>
+        <div>
+          <span className="rate-lead">per 1 mm:</span>
+          {of.map((r) => (
+            <span key={r.axis} className={r === best ? 'rate is-top' : 'rate'}>
+              {r.direction} {rateText(r.perMm[objective], unit)}
+            </span>
+          ))}
+        </div>
+      </td>
+    </tr>
   );
 }
 

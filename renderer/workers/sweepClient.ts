@@ -5,6 +5,7 @@
  */
 import type { CurveSet, EnvelopeMapData } from '../charts/chartData';
 import { computeCurves, computeMap, type CurveRequest, type MapRequest } from './sweepJobs';
+import { computeSensitivity, type SensitivityData, type SensitivityRequest } from './sensitivityJob';
 import type { SweepRequest, SweepResponse } from './sweepProtocol';
 
 export class CancelledError extends Error {
@@ -46,6 +47,10 @@ export class SweepClient {
 
   map(request: MapRequest, progress?: (done: number, total: number) => void): Promise<EnvelopeMapData> {
     return this.run({ id: this.nextId++, kind: 'map', request }, progress) as Promise<EnvelopeMapData>;
+  }
+
+  sensitivity(request: SensitivityRequest, progress?: (done: number, total: number) => void): Promise<SensitivityData> {
+    return this.run({ id: this.nextId++, kind: 'sensitivity', request }, progress) as Promise<SensitivityData>;
   }
 
   /** Stops the running job; its promise rejects with CancelledError. */
@@ -108,7 +113,7 @@ export class SweepClient {
       if (this.pending !== p) return;
       const req = p.request;
       try {
-        const data = req.kind === 'curves' ? computeCurves(req.request, p.progress) : computeMap(req.request, p.progress);
+        const data = req.kind === 'curves' ? computeCurves(req.request, p.progress) : req.kind === 'map' ? computeMap(req.request, p.progress) : computeSensitivity(req.request, p.progress);
         this.pending = null;
         p.resolve(data);
       } catch (e) {
