@@ -204,6 +204,19 @@ function processAlive(pid: number): boolean {
   }
 }
 
+/** Write a whole output at once through AtomicOutput (temporary file, flushed, renamed); on any
+ * failure the temporary file is removed and the target left as it was. */
+export function writeWholeOutput(target: OutputTarget, text: string): void {
+  const out = AtomicOutput.open(target);
+  try {
+    out.write(text);
+    out.commit();
+  } catch (e) {
+    out.abort();
+    throw e;
+  }
+}
+
 /** Longest share of the target's name in a temporary name, in bytes: with the dot, process id,
  * random part and suffix it stays under the 255-byte name limit of common file systems, so a
  * target whose own name is near that limit can still be written. */

@@ -3,7 +3,7 @@
  * measurements taken on it (core/studies/fit.ts).
  */
 import { readInputFile } from '../readInputFile';
-import { AtomicOutput, checkOutputPath, type OutputTarget } from '../outputFile';
+import { checkOutputPath, writeWholeOutput, type OutputTarget } from '../outputFile';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
@@ -45,16 +45,6 @@ export function formatFit(r: FitReport, out: string): string {
   return lines.join('\n') + '\n';
 }
 
-function writeWhole(target: OutputTarget, text: string): void {
-  const out = AtomicOutput.open(target);
-  try {
-    out.write(text);
-    out.commit();
-  } catch (e) {
-    out.abort();
-    throw e;
-  }
-}
 
 export async function runFitCommand(argv: string[], io: CliIo): Promise<number> {
   let designPath: string;
@@ -116,7 +106,7 @@ export async function runFitCommand(argv: string[], io: CliIo): Promise<number> 
   } finally {
     bar.end();
   }
-  writeWhole(target, JSON.stringify({ ...report.fitted, notes: [report.fitted.notes ?? '', `Fitted by tiltbench fit to ${report.measurements.length} measurements (${csvPath.split(/[\\/]/).pop()}).`].filter((x) => x).join('\n') }, null, 2) + '\n');
+  writeWholeOutput(target, JSON.stringify({ ...report.fitted, notes: [report.fitted.notes ?? '', `Fitted by tiltbench fit to ${report.measurements.length} measurements (${csvPath.split(/[\\/]/).pop()}).`].filter((x) => x).join('\n') }, null, 2) + '\n');
   const assembled = report.measurements.every((m) => m.modelled !== null);
   if (json) {
     const { fitted, ...rest } = report;

@@ -10,7 +10,7 @@ import { ArgError, parseArgs } from '../args';
 import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { formatIssues } from '../formatIssue';
 import { readInputFile } from '../readInputFile';
-import { AtomicOutput, checkOutputPath, type OutputTarget } from '../outputFile';
+import { checkOutputPath, writeWholeOutput, type OutputTarget } from '../outputFile';
 import { exportHardpointCsv, importHardpointCsv } from '../../design/hardpointCsv';
 import { clip, MAX_ECHOED_NAME } from '../safeText';
 
@@ -29,16 +29,6 @@ tiltbench hardpoints <design.tiltsheet> --in TABLE.csv --out NEW.tiltsheet
   column, and nothing is written. A side given as an exact mirror of the other stays written once.
   Neither form writes over its inputs. Exit 0 when written, 2 for bad input.`;
 
-function writeWhole(target: OutputTarget, text: string): void {
-  const out = AtomicOutput.open(target);
-  try {
-    out.write(text);
-    out.commit();
-  } catch (e) {
-    out.abort();
-    throw e;
-  }
-}
 
 export async function runHardpointsCommand(argv: string[], io: CliIo): Promise<number> {
   let designPath: string;
@@ -64,7 +54,7 @@ export async function runHardpointsCommand(argv: string[], io: CliIo): Promise<n
 
   if (!tablePath) {
     const csv = exportHardpointCsv(loaded.file);
-    writeWhole(target, csv);
+    writeWholeOutput(target, csv);
     io.out(`${name}: wrote ${csv.trimEnd().split('\n').length - 1} hardpoints to ${target.given}\n`);
     return EXIT_OK;
   }
@@ -80,7 +70,7 @@ export async function runHardpointsCommand(argv: string[], io: CliIo): Promise<n
     io.err(`nothing was written\n`);
     return EXIT_BAD_INPUT;
   }
-  writeWhole(target, JSON.stringify(imported.design, null, 2) + '\n');
+  writeWholeOutput(target, JSON.stringify(imported.design, null, 2) + '\n');
   io.out(`${name}: wrote the design with the table's hardpoints to ${target.given}\n`);
   return EXIT_OK;
 }

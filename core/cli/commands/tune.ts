@@ -4,7 +4,7 @@
  * name; or show the two geometric proposals and write one.
  */
 import { readInputFile } from '../readInputFile';
-import { AtomicOutput, checkOutputPath, type OutputTarget } from '../outputFile';
+import { checkOutputPath, writeWholeOutput, type OutputTarget } from '../outputFile';
 import type { CliIo } from '../io';
 import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { EXIT_BAD_INPUT, EXIT_FAILED, EXIT_OK, SAFETY_CAUTION } from '../io';
@@ -46,17 +46,6 @@ tiltbench tune <design.tiltsheet> --suggest [tie-rods|ackermann --out PROPOSED.t
   written), 2 for bad input.`;
 
 
-/** Write a whole output through core/cli/outputFile.ts (temporary file, flushed, renamed). */
-function writeOutput(target: OutputTarget, text: string): void {
-  const out = AtomicOutput.open(target);
-  try {
-    out.write(text);
-    out.commit();
-  } catch (e) {
-    out.abort();
-    throw e;
-  }
-}
 
 function readPlan(path: string): { ok: true; json: unknown } | { ok: false; message: string } {
   const read = readInputFile(path, MAX_PLAN_BYTES, 'a plan');
@@ -174,7 +163,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
         return EXIT_FAILED;
       }
       const out = { ...p.design, notes: [p.design.notes ?? '', `Proposal applied by tiltbench tune --suggest: ${p.title}.`].filter((x) => x).join('\n') };
-      writeOutput(target!, JSON.stringify(out, null, 2) + '\n');
+      writeWholeOutput(target!, JSON.stringify(out, null, 2) + '\n');
     }
     if (json) {
       io.out(JSON.stringify({ tiltbench: 'tune-suggest', design: loaded.path, proposals: proposals.map(({ design, ...rest }) => ({ ...rest, applies: design !== null })), caution: SAFETY_CAUTION }, null, 2) + '\n');
@@ -212,7 +201,7 @@ export async function runTuneCommand(argv: string[], io: CliIo): Promise<number>
     bar.end();
     interrupt.release();
   }
-  writeOutput(target!, JSON.stringify(report.tuned, null, 2) + '\n');
+  writeWholeOutput(target!, JSON.stringify(report.tuned, null, 2) + '\n');
   const allKept = report.summary.every((s) => s.keptAfter !== false) && report.notAssembledAfter.length === 0;
   if (json) {
     const { design: name, tuned, ...rest } = report;
