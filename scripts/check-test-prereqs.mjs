@@ -1,7 +1,8 @@
 #!/usr/bin/env node
-// Runs before `npm test` (the "pretest" script): the suite needs two things npm cannot
-// install, Debian's Chromium (end-to-end tests, test/e2e/support/chromium.ts) and python3 with
-// SciPy and NumPy (the independent SciPy solve and the predictor's numpy.polyfit check).
+// Runs before `npm test` (the "pretest" script): the suite needs three things npm cannot
+// install, Debian's Chromium (end-to-end tests, test/e2e/support/chromium.ts, and the report's
+// PDF), python3 with SciPy and NumPy (the independent SciPy solve and the predictor's
+// numpy.polyfit check) and pdftoppm from poppler-utils (the report's PDF turned into pages).
 // Without them the run would fail test by test, minutes in; instead this stops at once with
 // the one command that installs them. On CI (CI=true) running as root with apt-get, it
 // installs them itself, as .ci/run does.
@@ -10,7 +11,8 @@ import { accessSync, constants } from 'node:fs';
 
 const CHROMIUM = process.env.TILTBENCH_CHROMIUM ?? '/usr/bin/chromium';
 const PYTHON = '/usr/bin/python3';
-const PACKAGES = ['chromium', 'python3-scipy'];
+const PDFTOPPM = '/usr/bin/pdftoppm';
+const PACKAGES = ['chromium', 'python3-scipy', 'poppler-utils'];
 
 /** What is missing, each with the Debian package that brings it. */
 function missing() {
@@ -22,6 +24,11 @@ function missing() {
   }
   const probe = spawnSync(PYTHON, ['-c', 'import scipy, numpy'], { stdio: 'ignore' });
   if (probe.error || probe.status !== 0) out.push({ what: `${PYTHON} with SciPy and NumPy (SciPy cross-check)`, pkg: 'python3-scipy' });
+  try {
+    accessSync(PDFTOPPM, constants.X_OK);
+  } catch {
+    out.push({ what: `${PDFTOPPM} (the report's PDF checked page by page)`, pkg: 'poppler-utils' });
+  }
   return out;
 }
 
