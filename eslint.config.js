@@ -18,7 +18,7 @@ const CORE_BANNED_PATTERNS = [
 
 // core's folders, lowest first: a folder may import its own and lower ones, never a higher one
 // (the design format knows nothing of mechanisms, the solver nothing of measures, ...).
-const CORE_LAYERS = ['math', 'design', 'mechanism', 'solver', 'analysis', 'studies', 'cli'];
+const CORE_LAYERS = ['math', 'design', 'mechanism', 'solver', 'analysis', 'studies', 'report', 'cli'];
 
 /** An import of a folder above layer k, by relative path (core's files import each other only that way). */
 function higherLayers(k) {

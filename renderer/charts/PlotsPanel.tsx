@@ -9,10 +9,10 @@ import { useActions, useDocument, useJobs, usePose, useUi, useWorkbenchApi } fro
 import { MAP_RESOLUTIONS, type JobProgress, type MapResolution } from '../state/jobsStore';
 import { setPlots } from '../state/uiStore';
 import type { Workbench } from '../state/workbench';
-import type { MapMetric } from './chartData';
+import type { MapMetric } from '../../core/report/charts/chartData';
 import { ChartView } from './ChartView';
-import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from './curveOptions';
-import { heatMapOption, MAP_METRICS } from './heatMapOptions';
+import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
+import { heatMapOption, MAP_METRICS } from '../../core/report/charts/heatMapOptions';
 
 /** Quiet time after an edit before the charts are recomputed, ms. */
 const RECOMPUTE_DELAY_MS = 350;

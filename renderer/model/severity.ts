@@ -1,36 +1,8 @@
 /**
- * The one place core's verdicts (core/analysis/tolerance.ts) become colours, glyphs and words
- * on screen. Colour is never the only signal: each level has a word and a glyph, and every
- * coloured thing has a readout. 'none' marks a part or value no check applies to.
+ * Colours, glyphs and words of core's verdicts: the one source is core/report/severity.ts
+ * (shared with the report); the parts' neutral colours below are the viewport's own.
  */
-import type { Verdict } from '../../core/analysis/tolerance';
-
-export type Severity = Verdict | 'none';
-
-export interface SeverityStyle {
-  word: string;
-  glyph: string;
-  colour: string;
-  /** What the level means, for the legend. */
-  meaning: string;
-  /** The level said of a whole pose ("This pose: ..."). */
-  pose: string;
-}
-
-/** Our palette: teal, amber, vermilion and plum on a neutral slate for parts with no check. */
-export const SEVERITY_STYLE: Record<Severity, SeverityStyle> = {
-  none: { word: 'not checked', glyph: '·', colour: '#7d8791', meaning: 'no tolerance applies, or the analysis has not run', pose: 'not checked' },
-  within: { word: 'within', glyph: '✓', colour: '#1f9e89', meaning: 'inside the design tolerance', pose: 'within every tolerance' },
-  close: { word: 'close', glyph: '!', colour: '#e0a526', meaning: 'inside, but within the last fifth of the tolerance', pose: 'close to a tolerance' },
-  over: { word: 'over', glyph: '✕', colour: '#d8453b', meaning: 'outside the design tolerance', pose: 'over a tolerance' },
-  broken: { word: "won't assemble", glyph: '⊘', colour: '#7b3fa0', meaning: 'the linkage cannot close in this pose', pose: 'cannot assemble' },
-};
-
-export const SEVERITY_ORDER: readonly Severity[] = ['none', 'within', 'close', 'over', 'broken'];
-
-export function worse(a: Severity, b: Severity): Severity {
-  return SEVERITY_ORDER.indexOf(a) >= SEVERITY_ORDER.indexOf(b) ? a : b;
-}
+export { SEVERITY_ORDER, SEVERITY_STYLE, worse, type Severity, type SeverityStyle } from '../../core/report/severity';
 
 /** Neutral colours of the parts (no check attached). */
 export const PART_COLOUR = {

@@ -5,7 +5,7 @@
  * cancel stops it.
  */
 import { createStore, type StoreApi } from 'zustand/vanilla';
-import type { CurveSet, EnvelopeMapData } from '../charts/chartData';
+import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from '../workers/sweepJobs';
 import { CancelledError, SweepClient } from '../workers/sweepClient';
 import type { DocumentStore } from './documentStore';

@@ -4,8 +4,8 @@
  * the plots' tab and choices, and the hover tip.
  */
 import { createStore, type StoreApi } from 'zustand/vanilla';
-import type { CurveChartId } from '../charts/curveOptions';
-import type { MapMetric } from '../charts/chartData';
+import type { CurveChartId } from '../../core/report/charts/curveOptions';
+import type { MapMetric } from '../../core/report/charts/chartData';
 import type { MapResolution } from './jobsStore';
 
 export interface Notice {

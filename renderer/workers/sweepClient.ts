@@ -3,7 +3,7 @@
  * job, or cancel(), stops the running one (the worker is terminated and replaced). Where no
  * worker can be started, the job runs on the main thread after a paint (slower, no cancel).
  */
-import type { CurveSet, EnvelopeMapData } from '../charts/chartData';
+import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import { computeCurves, computeMap, type CurveRequest, type MapRequest } from './sweepJobs';
 import { computeSensitivity, type SensitivityData, type SensitivityRequest } from './sensitivityJob';
 import type { SweepRequest, SweepResponse } from './sweepProtocol';

@@ -1,5 +1,5 @@
 /** Messages between the workbench and its sweep worker. */
-import type { CurveSet, EnvelopeMapData } from '../charts/chartData';
+import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from './sweepJobs';
 import type { SensitivityData, SensitivityRequest } from './sensitivityJob';
 

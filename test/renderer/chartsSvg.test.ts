@@ -3,11 +3,11 @@
 // the CLI's reports will use them.
 import { describe, expect, it } from 'vitest';
 import { resolveDesign } from '../../core/design/resolveDesign';
-import { renderOptionToSvg } from '../../renderer/charts/echartsSetup';
-import { CHART_COLOURS } from '../../renderer/charts/chartStyle';
-import { CURVE_CHARTS, curveOption, leanSteerOption, type CurveChartId } from '../../renderer/charts/curveOptions';
-import { heatMapOption } from '../../renderer/charts/heatMapOptions';
-import { computeCurves, computeMap } from '../../renderer/workers/sweepJobs';
+import { renderOptionToSvg } from '../../core/report/charts/renderSvg';
+import { CHART_COLOURS } from '../../core/report/charts/chartStyle';
+import { CURVE_CHARTS, curveOption, leanSteerOption, type CurveChartId } from '../../core/report/charts/curveOptions';
+import { heatMapOption } from '../../core/report/charts/heatMapOptions';
+import { computeCurves, computeMap } from '../../core/report/chartSweeps';
 import { demoDesign } from './helpers';
 
 /** The title each chart must carry, written out here (not read from the builders). */

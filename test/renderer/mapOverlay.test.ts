@@ -3,12 +3,12 @@
 // cell by cell against the cells core puts in the region) and one labelled balanced-turn line
 // per riding speed.
 import { describe, expect, it } from 'vitest';
-import { renderOptionToSvg } from '../../renderer/charts/echartsSetup';
-import { BALANCED_SERIES, heatMapOption, REGION_SERIES } from '../../renderer/charts/heatMapOptions';
-import { bandEdges, regionOutline } from '../../renderer/charts/regionOutline';
+import { renderOptionToSvg } from '../../core/report/charts/renderSvg';
+import { BALANCED_SERIES, heatMapOption, REGION_SERIES } from '../../core/report/charts/heatMapOptions';
+import { bandEdges, regionOutline } from '../../core/report/charts/regionOutline';
 import { lineSpeeds } from '../../core/analysis/envelopeMap';
 import { resolveDesign } from '../../core/design/resolveDesign';
-import { computeMap } from '../../renderer/workers/sweepJobs';
+import { computeMap } from '../../core/report/chartSweeps';
 import { demoDesign } from './helpers';
 
 type Pt = [number, number];

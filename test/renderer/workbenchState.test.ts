@@ -8,7 +8,7 @@ import { setGizmo, setPlayback } from '../../renderer/state/uiStore';
 import { Jobs } from '../../renderer/state/jobsStore';
 import { createDocumentStore } from '../../renderer/state/documentStore';
 import { CancelledError, SweepClient } from '../../renderer/workers/sweepClient';
-import type { CurveSet } from '../../renderer/charts/chartData';
+import type { CurveSet } from '../../core/report/charts/chartData';
 import { demoDesign, demoWorkbench } from './helpers';
 
 describe('document and pose stores', () => {

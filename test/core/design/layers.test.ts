@@ -1,5 +1,5 @@
 /**
- * core's folders are layers, lowest first: math < design < mechanism < solver < analysis < studies < cli.
+ * core's folders are layers, lowest first: math < design < mechanism < solver < analysis < studies < report < cli.
  * A folder imports its own and lower ones only, so the design format can be read without the
  * mechanism, the solver without the measures. ESLint's no-restricted-imports enforces it
  * (eslint.config.js); these tests show the rule refuses what it should and allows the rest, and
@@ -11,7 +11,7 @@ import { ESLint } from 'eslint';
 import { describe, expect, it } from 'vitest';
 
 const ROOT = resolve(new URL('../../..', import.meta.url).pathname);
-const LAYERS = ['math', 'design', 'mechanism', 'solver', 'analysis', 'studies', 'cli'];
+const LAYERS = ['math', 'design', 'mechanism', 'solver', 'analysis', 'studies', 'report', 'cli'];
 
 async function restrictedImports(filePath: string, code: string): Promise<string[]> {
   const eslint = new ESLint({ cwd: ROOT });
@@ -23,7 +23,7 @@ describe('the layer rule in eslint.config.js', () => {
   it('refuses an import of a higher layer, naming the order', async () => {
     const messages = await restrictedImports('core/design/probe.ts', "import { buildMechanism } from '../mechanism/templates/buildMechanism';\nexport const b = buildMechanism;\n");
     expect(messages).toHaveLength(1);
-    expect(messages[0]).toContain('math < design < mechanism < solver < analysis < studies < cli');
+    expect(messages[0]).toContain('math < design < mechanism < solver < analysis < studies < report < cli');
     expect(messages[0]).toContain('core/design may not import from core/mechanism');
   });
 

@@ -4,7 +4,7 @@
  * without a screen for the CLI's reports (ECharts server-side SVG).
  */
 import type { EChartsCoreOption } from 'echarts/core';
-import { CURVE_KINDS, sweepsLean, type Curve, type CurveKind, type CurveSeries } from '../../core/analysis/curves';
+import { CURVE_KINDS, sweepsLean, type Curve, type CurveKind, type CurveSeries } from '../../analysis/curves';
 import type { CurveSet } from './chartData';
 import { CHART_COLOURS, axis, base, line, nowLine, toleranceLines, type Pair } from './chartStyle';
 

@@ -11,7 +11,7 @@
  * and the marker land at their true lean and handlebar rather than at the nearest cell.
  */
 import type { EChartsCoreOption } from 'echarts/core';
-import { SEVERITY_STYLE, type Severity } from '../model/severity';
+import { SEVERITY_STYLE, type Severity } from '../severity';
 import type { EnvelopeMapData, MapBalancedLine, MapCell, MapMetric } from './chartData';
 import { CHART_COLOURS } from './chartStyle';
 import { bandEdges, regionOutline } from './regionOutline';

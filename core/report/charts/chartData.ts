@@ -2,10 +2,10 @@
  * What the charts draw: core's 1-D curves and the lean x handlebar envelope map. Plain data (it crosses the worker boundary); null where a
  * pose could not be assembled.
  */
-import type { Tolerances } from '../../core/design/types';
-import type { Verdict } from '../../core/analysis/tolerance';
-import type { Curve, CurveKind } from '../../core/analysis/curves';
-import type { Severity } from '../model/severity';
+import type { Tolerances } from '../../design/types';
+import type { Verdict } from '../../analysis/tolerance';
+import type { Curve, CurveKind } from '../../analysis/curves';
+import type { Severity } from '../severity';
 
 /** Core's 1-D curves of one design (core/analysis/curves.ts), with what the charts mark on them. */
 export interface CurveSet {

@@ -1,6 +1,6 @@
 /** The charts' own palette and shared option pieces (pure data). */
 import type { EChartsCoreOption } from 'echarts/core';
-import { SEVERITY_STYLE } from '../model/severity';
+import { SEVERITY_STYLE } from '../severity';
 
 export const CHART_COLOURS = {
   left: '#17707c',
