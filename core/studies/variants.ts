@@ -11,7 +11,7 @@
 
 import type { DesignFile } from '../design/types';
 import { resolveDesign } from '../design/resolveDesign';
-import { exportHardpointCsv } from '../design/hardpointCsv';
+import { hardpointTable } from '../design/hardpointCsv';
 import { checkDesign } from '../analysis/designCheck';
 import { checkStudyPoses, measureAtPoses, poseWords, regionSamplePoses, type StudyPose } from './studyPoses';
 import { activeEntry, studyObjectives, studyQuantities } from './studyQuantities';
@@ -74,14 +74,9 @@ export interface VariantsOptions {
   check?: boolean;
 }
 
-/** Hardpoint id -> point, from the hardpoint table (the same ids the CSV writes). */
+/** Hardpoint id -> point, from the hardpoint table (the rows the CSV writes, point and side). */
 function pointsOf(file: DesignFile): Map<string, { x: number; y: number; z: number }> {
-  const out = new Map<string, { x: number; y: number; z: number }>();
-  for (const line of exportHardpointCsv(file).trim().split('\n').slice(1)) {
-    const [id, x, y, z] = line.split(',');
-    out.set(id, { x: Number(x), y: Number(y), z: Number(z) });
-  }
-  return out;
+  return new Map(hardpointTable(file).map((row) => [row.id, row.at]));
 }
 
 function hardpointRows(variants: readonly Variant[], all: boolean): HardpointRow[] {

@@ -40,15 +40,16 @@ describe('tiltbench hardpoints', () => {
     const csv = join(dir, 'table.csv');
     expect((await run(['hardpoints', SWIFT, '--out', csv])).code).toBe(0);
     const rows = pythonRows(csv);
-    expect(rows[0]).toEqual(['point', 'x_mm', 'y_mm', 'z_mm']);
+    expect(rows[0]).toEqual(['point', 'side', 'x_mm', 'y_mm', 'z_mm']);
     const ours = readFileSync(csv, 'utf8').trimEnd().split('\n').slice(1);
     expect(rows.length - 1).toBe(ours.length);
     for (const [i, row] of rows.slice(1).entries()) {
-      expect(row).toHaveLength(4);
-      const [point, ...xyz] = ours[i].split(',');
-      expect(row[0]).toBe(point);
-      expect(row.slice(1).map(Number)).toEqual(xyz.map(Number));
-      expect(row.slice(1).every((v) => Number.isFinite(Number(v)))).toBe(true);
+      expect(row).toHaveLength(5);
+      const [point, side, ...xyz] = ours[i].split(',');
+      expect(row.slice(0, 2)).toEqual([point, side]);
+      expect(['right', 'left', 'centre']).toContain(row[1]);
+      expect(row.slice(2).map(Number)).toEqual(xyz.map(Number));
+      expect(row.slice(2).every((v) => Number.isFinite(Number(v)))).toBe(true);
     }
   });
 
@@ -58,14 +59,14 @@ describe('tiltbench hardpoints', () => {
     const edited = join(dir, 'edited.tiltsheet');
     await run(['hardpoints', WREN, '--out', csv]);
     const lines = readFileSync(csv, 'utf8').trimEnd().split('\n');
-    const [point, x, y, z] = lines[1].split(',');
-    lines[1] = [point, String(Number(x) + 5), y, z].join(',');
+    const [point, side, x, y, z] = lines[1].split(',');
+    lines[1] = [point, side, String(Number(x) + 5), y, z].join(',');
     writeFileSync(csv, lines.join('\r\n') + '\r\n');
     const r = await run(['hardpoints', WREN, '--in', csv, '--out', edited]);
     expect(r.code, r.err).toBe(0);
     await run(['hardpoints', edited, '--out', join(dir, 'again.csv')]);
     const again = readFileSync(join(dir, 'again.csv'), 'utf8').trimEnd().split('\n');
-    expect(again[1]).toBe([point, String(Number(x) + 5), y, z].join(','));
+    expect(again[1]).toBe([point, side, String(Number(x) + 5), y, z].join(','));
     // Negative control: every other row is unchanged, so the check above would see a wrong row.
     expect(again.slice(2)).toEqual(lines.slice(2));
   });
@@ -78,7 +79,7 @@ describe('tiltbench hardpoints', () => {
     const lines = readFileSync(csv, 'utf8').trimEnd().split('\n');
     const cases: [string[], RegExp][] = [
       [[lines[0], lines[1].replace(/,[^,]*$/, ',12mm'), ...lines.slice(2)], /table\.csv:2:\d+: /],
-      [[lines[0], 'no.such.point,1,2,3', ...lines.slice(1)], /table\.csv:2:1: /],
+      [[lines[0], 'no.such.point,centre,1,2,3', ...lines.slice(1)], /table\.csv:2:1: /],
       [[lines[0], ...lines.slice(2)], /table\.csv/],
       [[lines[0], lines[1], lines[1], ...lines.slice(2)], /table\.csv:3:\d+: /],
     ];

@@ -20,13 +20,16 @@ export const MAX_TABLE_BYTES = 1024 * 1024;
 export const hardpointsHelp = `tiltbench hardpoints <design.tiltsheet> --out TABLE.csv
 tiltbench hardpoints <design.tiltsheet> --in TABLE.csv --out NEW.tiltsheet
   The first form writes the design's hardpoint table as CSV (RFC 4180): a header
-  "point,x_mm,y_mm,z_mm", then one row per hardpoint in the order of the file format; a
-  point written once for both sides gets a ".right" and a ".left" row. Millimetres, ISO 8855
-  axes (x forward, y left, z up). Numbers read back to the same value.
+  "point,side,x_mm,y_mm,z_mm", then one row per hardpoint in the order of the file format;
+  side is right or left for a point of each side (a point written once for both sides gets
+  both rows) and centre for a single point. Millimetres, ISO 8855 axes (x forward, y left,
+  z up). Numbers read back to the same value.
   The second form reads such a table (edited in a spreadsheet, for instance) for the same
-  design and writes the design with those hardpoints. Every hardpoint must be listed exactly
-  once; unknown points, repeated points and bad numbers are refused with their line and
-  column, and nothing is written. A side given as an exact mirror of the other stays written once.
+  design and writes the design with those hardpoints. Columns are found by name in any
+  order; a "note" column is allowed and ignored; the older "point,x_mm,y_mm,z_mm" table
+  (".right"/".left" on the point) is still read. Every hardpoint must be listed exactly
+  once; unknown points or columns, wrong sides, repeated points and bad numbers are refused
+  with their line and column, and nothing is written. A side given as an exact mirror of the other stays written once.
   Neither form writes over its inputs. Exit 0 when written, 2 for bad input.`;
 
 

@@ -9,6 +9,7 @@
  * value is the right side, mirrored y -> -y).
  */
 import { readFileSync } from 'node:fs';
+import { parse } from 'csv-parse/sync';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { exportHardpointCsv, hardpointIds, importHardpointCsv } from '../../../core/design/hardpointCsv';
@@ -63,14 +64,20 @@ function enumerate(d: DesignFile): [string, number, number, number][] {
 /** Exact JSON, telling -0 from 0. */
 const exact = (v: unknown) => JSON.stringify(v, (_, x) => (Object.is(x, -0) ? '-0' : x));
 
+/** The rows of a table as [id, x, y, z], the id being point and side as enumerate() writes it. */
 function rowsOf(csv: string): string[][] {
-  return csv.trimEnd().split('\n').slice(1).map((l) => l.split(','));
+  return csv
+    .trimEnd()
+    .split('\n')
+    .slice(1)
+    .map((l) => l.split(','))
+    .map(([point, side, ...xyz]) => [side === 'centre' ? point : `${point}.${side}`, ...xyz]);
 }
 
 describe('exportHardpointCsv', () => {
   it('writes the header and one row per hardpoint, both sides of a mirrored point', () => {
     const csv = exportHardpointCsv(heron);
-    expect(csv.split('\n')[0]).toBe('point,x_mm,y_mm,z_mm');
+    expect(csv.split('\n')[0]).toBe('point,side,x_mm,y_mm,z_mm');
     expect(csv.endsWith('\n')).toBe(true);
     const rows = rowsOf(csv).map(([id, x, y, z]) => [id, Number(x), Number(y), Number(z)]);
     const expected = enumerate(heron);
@@ -120,7 +127,7 @@ describe('importHardpointCsv: round trip and edits', () => {
   });
 
   it('changes only the edited point; a one-sided edit writes both sides out', () => {
-    const csv = exportHardpointCsv(heron).replace('upright.wheelCentre.left,0,400,245', 'upright.wheelCentre.left,1.5,401,244');
+    const csv = exportHardpointCsv(heron).replace('upright.wheelCentre,left,0,400,245', 'upright.wheelCentre,left,1.5,401,244');
     const r = importHardpointCsv(heron, csv, 'table.csv');
     expect(r.ok).toBe(true);
     if (!r.ok) return;
@@ -131,8 +138,8 @@ describe('importHardpointCsv: round trip and edits', () => {
 
   it('keeps a mirrored point mirrored when both sides move alike', () => {
     const csv = exportHardpointCsv(heron)
-      .replace('upright.wheelCentre.right,0,-400,245', 'upright.wheelCentre.right,2,-405,250')
-      .replace('upright.wheelCentre.left,0,400,245', 'upright.wheelCentre.left,2,405,250');
+      .replace('upright.wheelCentre,right,0,-400,245', 'upright.wheelCentre,right,2,-405,250')
+      .replace('upright.wheelCentre,left,0,400,245', 'upright.wheelCentre,left,2,405,250');
     const r = importHardpointCsv(heron, csv, 'table.csv');
     expect(r.ok && r.design.upright.wheelCentre).toEqual({ x: 2, y: -405, z: 250 });
   });
@@ -164,42 +171,60 @@ describe('importHardpointCsv: refusals name line and column', () => {
     expect(r.ok).toBe(false);
     return r.ok ? [] : r.issues;
   };
+  const PIVOT = 'steering.pivot,centre,-75,0,107';
 
-  it('a wrong header, at the column that is wrong', () => {
-    const [issue] = refuse(good.replace('point,x_mm,y_mm,z_mm', 'point,x,y_mm,z_mm'));
-    expect(issue).toMatchObject({ line: 1, column: 7 });
-    expect(issue.message).toBe('table.csv:1:7: expected the header point,x_mm,y_mm,z_mm; column 2 should be x_mm, found "x"');
+  it('a header with an unknown column, at that column; a header missing one, at its end', () => {
+    const [unknown] = refuse(good.replace('point,side,x_mm,y_mm,z_mm', 'point,side,x,y_mm,z_mm'));
+    expect(unknown).toMatchObject({ line: 1, column: 12 });
+    expect(unknown.message).toBe('table.csv:1:12: column 3 of the header is "x", not a column of the hardpoint table; expected point,side,x_mm,y_mm,z_mm (and optionally note)');
+    const [missing] = refuse(good.replace('point,side,x_mm,y_mm,z_mm', 'point,side,x_mm,y_mm'));
+    expect(missing).toMatchObject({ line: 1, column: 21 });
+    expect(missing.message).toMatch(/the header has no z_mm column/);
+    const [twice] = refuse(good.replace('point,side,x_mm,y_mm,z_mm', 'point,side,x_mm,y_mm,z_mm,X_MM'));
+    expect(twice.message).toBe('table.csv:1:27: the header names x_mm twice (columns 3 and 6)');
   });
 
   it('a row with too few or too many fields (a decimal comma splits a number)', () => {
-    const n = lineOf('steering.pivot');
-    const [few] = refuse(good.replace('steering.pivot,-75,0,107', 'steering.pivot,-75,0'));
-    expect(few).toMatchObject({ line: n, column: 21 });
-    const [many] = refuse(good.replace('steering.pivot,-75,0,107', 'steering.pivot,-75,0,107,5'));
-    expect(many.message).toBe(`table.csv:${n}:25: expected 4 fields (point, x_mm, y_mm, z_mm), found 5`);
+    const n = lineOf('steering.pivot,');
+    const [few] = refuse(good.replace(PIVOT, 'steering.pivot,centre,-75,0'));
+    expect(few).toMatchObject({ line: n, column: 28 });
+    const [many] = refuse(good.replace(PIVOT, `${PIVOT},5`));
+    expect(many.message).toBe(`table.csv:${n}:32: expected 5 fields (as in the header), found 6`);
   });
 
-  it('a number that is not one, naming the point and the axis', () => {
-    const n = lineOf('steering.pivot');
+  it('a number that is not one, naming the point, the side and the axis', () => {
+    const n = lineOf('steering.pivot,');
     for (const bad of ['abc', '', 'NaN', 'Infinity', '0x10', '1e400', '12mm', '1,5']) {
-      const issues = refuse(good.replace('steering.pivot,-75,0,107', `steering.pivot,-75,"${bad}",107`));
+      const issues = refuse(good.replace(PIVOT, `steering.pivot,centre,-75,"${bad}",107`));
       expect(issues[0].line).toBe(n);
-      if (bad === '1,5') continue; // quoted, so one field: still not a number
-      expect(issues[0].message).toBe(`table.csv:${n}:20: steering.pivot y_mm: expected a number in mm, found ${bad === '' ? 'nothing' : JSON.stringify(bad)}`);
+      expect(issues[0].message).toBe(`table.csv:${n}:27: steering.pivot (centre) y_mm: expected a number in mm, found ${bad === '' ? 'nothing' : JSON.stringify(bad)}`);
     }
   });
 
-  it('an unknown point id, suggesting the sided names', () => {
-    const n = lineOf('upright.wheelCentre.right');
-    const [issue] = refuse(good.replace('upright.wheelCentre.right', 'upright.wheelCentre'));
-    expect(issue).toMatchObject({ line: n, column: 1 });
-    expect(issue.message).toContain('upright.wheelCentre.right, upright.wheelCentre.left');
+  it('an unknown point, and a point given with its old side suffix, named with the fix', () => {
+    const n = lineOf('upright.wheelCentre,right');
+    const [unknown] = refuse(good.replace('upright.wheelCentre,right', 'upright.wheelCenter,right'));
+    expect(unknown).toMatchObject({ line: n, column: 1 });
+    expect(unknown.message).toBe(`table.csv:${n}:1: "upright.wheelCenter" is not a hardpoint of this design`);
+    const [suffixed] = refuse(good.replace('upright.wheelCentre,right', 'upright.wheelCentre.right,right'));
+    expect(suffixed.message).toContain('give the point as upright.wheelCentre and the side as right');
+  });
+
+  it('a wrong side: centre for a point of each side, a side for a single point, a word that is no side', () => {
+    const n = lineOf('upright.wheelCentre,right');
+    const [centre] = refuse(good.replace('upright.wheelCentre,right', 'upright.wheelCentre,centre'));
+    expect(centre).toMatchObject({ line: n, column: 21 });
+    expect(centre.message).toBe(`table.csv:${n}:21: upright.wheelCentre side: expected right or left (this point is on each side), found "centre"`);
+    const [single] = refuse(good.replace(PIVOT, 'steering.pivot,left,-75,0,107'));
+    expect(single.message).toMatch(/steering\.pivot side: expected centre \(this point is a single one on the centre line\), found "left"/);
+    const [word] = refuse(good.replace('upright.wheelCentre,right', 'upright.wheelCentre,starboard'));
+    expect(word.message).toMatch(/found "starboard"$/);
   });
 
   it('a point listed twice, with the first line', () => {
-    const n = lineOf('steering.pivot');
-    const issues = refuse(`${good}steering.pivot,-75,0,107\n`);
-    expect(issues.map((i) => i.message)).toEqual([`table.csv:${lines.length}:1: steering.pivot is listed twice (first on line ${n})`]);
+    const n = lineOf('steering.pivot,');
+    const issues = refuse(`${good}${PIVOT}\n`);
+    expect(issues.map((i) => i.message)).toEqual([`table.csv:${lines.length}:1: steering.pivot (centre) is listed twice (first on line ${n})`]);
   });
 
   it('a table cut short: every missing point named, nothing applied', () => {
@@ -210,9 +235,9 @@ describe('importHardpointCsv: refusals name line and column', () => {
   });
 
   it('an unclosed quote and a stray quote, at their column', () => {
-    const n = lineOf('steering.pivot');
-    expect(refuse(good.replace('steering.pivot,-75,0,107', 'steering.pivot,"-75,0,107'))[0]).toMatchObject({ line: n, column: 16 });
-    expect(refuse(good.replace('steering.pivot,-75,0,107', 'steering.pivot,-7"5,0,107'))[0]).toMatchObject({ line: n, column: 18 });
+    const n = lineOf('steering.pivot,');
+    expect(refuse(good.replace(PIVOT, 'steering.pivot,centre,"-75,0,107'))[0]).toMatchObject({ line: n, column: 23 });
+    expect(refuse(good.replace(PIVOT, 'steering.pivot,centre,-7"5,0,107'))[0]).toMatchObject({ line: n, column: 25 });
   });
 
   it('an empty table', () => {
@@ -220,15 +245,76 @@ describe('importHardpointCsv: refusals name line and column', () => {
   });
 
   it('values that make the design invalid: the row to fix and the field', () => {
-    const n = lineOf('frontEnd.upper.rearPivot.right');
+    const n = lineOf('frontEnd.upper.rearPivot,right');
     const coincident = good
-      .replace('frontEnd.upper.rearPivot.right,-100,-60,310', 'frontEnd.upper.rearPivot.right,110,-60,310')
-      .replace('frontEnd.upper.rearPivot.left,-100,60,310', 'frontEnd.upper.rearPivot.left,110,60,310');
+      .replace('frontEnd.upper.rearPivot,right,-100,-60,310', 'frontEnd.upper.rearPivot,right,110,-60,310')
+      .replace('frontEnd.upper.rearPivot,left,-100,60,310', 'frontEnd.upper.rearPivot,left,110,60,310');
     const [issue] = refuse(coincident);
     expect(issue.path).toBe('frontEnd.upper.rearPivot');
     expect(issue.message).toMatch(new RegExp(`^table\\.csv:${n}:1: frontEnd\\.upper\\.rearPivot: is 0 mm from frontEnd\\.upper\\.frontPivot`));
-    const far = good.replace('steering.pivot,-75,0,107', 'steering.pivot,-75,0,10000000');
+    const far = good.replace(PIVOT, 'steering.pivot,centre,-75,0,10000000');
     const [tooFar] = refuse(far);
-    expect(tooFar).toMatchObject({ path: 'steering.pivot.z', line: lineOf('steering.pivot') });
+    expect(tooFar).toMatchObject({ path: 'steering.pivot.z', line: lineOf('steering.pivot,') });
+  });
+});
+
+describe('the older four-column table (side as a suffix of the point)', () => {
+  it('the stored four-column table of the frozen sample still imports to the identical design', () => {
+    const old = readFileSync(new URL('../../fixtures/fuzz-format-1.hardpoints-4col.csv', import.meta.url), 'utf8');
+    expect(old.split('\n')[0]).toBe('point,x_mm,y_mm,z_mm');
+    const r = importHardpointCsv(frozen, old, 'old.csv');
+    expect(r.ok, r.ok ? '' : r.issues.map((i) => i.message).join('\n')).toBe(true);
+    if (r.ok) expect(exact(r.design)).toBe(exact(frozen));
+    // Negative control: the same table with one number changed gives another design.
+    const moved = importHardpointCsv(frozen, old.replace('steering.pivot,-75,0,107', 'steering.pivot,-76,0,107'), 'old.csv');
+    expect(moved.ok && exact(moved.design) !== exact(frozen)).toBe(true);
+  });
+
+  it('refuses an old-form row without its side suffix, naming the sided ids', () => {
+    const old = readFileSync(new URL('../../fixtures/fuzz-format-1.hardpoints-4col.csv', import.meta.url), 'utf8');
+    const r = importHardpointCsv(frozen, old.replace('upright.wheelCentre.right,', 'upright.wheelCentre,'), 'old.csv');
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.issues[0].message).toContain('(this design has upright.wheelCentre.right, upright.wheelCentre.left)');
+  });
+});
+
+describe('an outside reader and odd tables', () => {
+  // csv-parse (npm, csv-parse/sync), a general-purpose RFC 4180 parser, reads our export.
+  it('csv-parse reads every demo table to the same points, sides and values as the design', () => {
+    for (const d of [...demos.map((x) => x.design), frozen]) {
+      const records = parse(exportHardpointCsv(d), { columns: true, skip_empty_lines: true }) as Record<string, string>[];
+      const expected = enumerate(d);
+      expect(records).toHaveLength(expected.length);
+      const got = new Map(records.map((r) => [r.side === 'centre' ? r.point : `${r.point}.${r.side}`, [Number(r.x_mm), Number(r.y_mm), Number(r.z_mm)]]));
+      expect(got).toEqual(new Map(expected.map(([id, x, y, z]) => [id, [x, y, z]])));
+      expect(records.every((r) => ['right', 'left', 'centre'].includes(r.side))).toBe(true);
+    }
+    expect(parse(exportHardpointCsv(frozen), { columns: true }).some((r: Record<string, string>) => r.side === 'centre')).toBe(true);
+  });
+
+  it('a table edited by hand: columns reordered, odd case, a note column with commas, quotes and a line break', () => {
+    const records = parse(exportHardpointCsv(heron), { columns: true }) as Record<string, string>[];
+    const note = (i: number) => (i % 4 === 0 ? '"checked, on the jig ""A"""' : i % 4 === 1 ? '"two\nlines"' : i % 4 === 2 ? '' : 'plain');
+    const body = records.map((r, i) => [r.z_mm, `"${r.point}"`, r.side.toUpperCase(), note(i), r.x_mm, r.y_mm].join(','));
+    const csv = ['Z_mm,Point,SIDE,Note,x_MM,y_mm', ...body].join('\r\n') + '\r\n';
+    // The outside reader agrees that this is one record per hardpoint with six fields.
+    const again = parse(csv, { columns: true }) as Record<string, string>[];
+    expect(again).toHaveLength(records.length);
+    expect(again[0].Note).toBe('checked, on the jig "A"');
+    expect(again[1].Note).toBe('two\nlines');
+    const r = importHardpointCsv(heron, csv, 'table.csv');
+    expect(r.ok, r.ok ? '' : r.issues.map((i) => i.message).join('\n')).toBe(true);
+    if (r.ok) expect(exact(r.design)).toBe(exact(heron));
+  });
+
+  it('after a quoted line break, errors still give the right line', () => {
+    const csv = exportHardpointCsv(heron).replace('point,side,x_mm,y_mm,z_mm', 'point,side,x_mm,y_mm,z_mm,note');
+    const rows = csv.trimEnd().split('\n');
+    const withNotes = [rows[0], ...rows.slice(1).map((l, i) => `${l},${i === 0 ? '"a\nb\nc"' : ''}`)];
+    // Row 3 of the table (after the three-line note) has a bad number.
+    withNotes[3] = withNotes[3].replace(/,([^,]*),$/, ',12mm,');
+    const r = importHardpointCsv(heron, withNotes.join('\n') + '\n', 'table.csv');
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.issues[0]).toMatchObject({ line: 6 });
   });
 });
