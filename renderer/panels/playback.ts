@@ -21,6 +21,18 @@ function phaseOf(x: number): number {
   return Math.max(-1, Math.min(1, x));
 }
 
+/**
+ * The pose inputs at wave position x in [-1, 1] for the amplitudes of a mode. When both move,
+ * the lean goes into the turn as in a balanced turn: positive handlebar turns left (ISO 8855
+ * yaw) and positive lean lowers the right side, so the lean takes the handlebar's opposite sign.
+ */
+export function playbackInputs(x: number, a: { lean: number; steer: number }): { leanDeg?: number; handlebarDeg?: number } {
+  const out: { leanDeg?: number; handlebarDeg?: number } = {};
+  if (a.lean > 0) out.leanDeg = round((a.steer > 0 ? -x : x) * a.lean);
+  if (a.steer > 0) out.handlebarDeg = round(x * a.steer);
+  return out;
+}
+
 export class PlaybackController {
   private raf = 0;
   private last = 0;
@@ -50,7 +62,7 @@ export class PlaybackController {
     const a = this.amplitudes(this.settings.mode);
     const pose = this.wb.pose.getState().pose;
     // Start from where the pose is, so the picture does not jump.
-    this.phase = a.lean > 0 ? phaseOf(pose.leanDeg / a.lean) : phaseOf(pose.handlebarDeg / Math.max(1, a.steer));
+    this.phase = a.lean > 0 ? phaseOf(((a.steer > 0 ? -1 : 1) * pose.leanDeg) / a.lean) : phaseOf(pose.handlebarDeg / Math.max(1, a.steer));
     setPlayback(this.wb.ui, { playing: true });
     this.last = performance.now();
     this.raf = requestAnimationFrame(this.tick);
@@ -79,7 +91,7 @@ export class PlaybackController {
     this.phase += (dt * st.speedDegPerS) / lead;
     const x = triangle(this.phase);
     motion.emit();
-    this.wb.actions.setPose({ ...(a.lean > 0 ? { leanDeg: round(x * a.lean) } : {}), ...(a.steer > 0 ? { handlebarDeg: round(x * a.steer) } : {}) }, true);
+    this.wb.actions.setPose(playbackInputs(x, a), true);
     this.raf = requestAnimationFrame(this.tick);
   };
 }

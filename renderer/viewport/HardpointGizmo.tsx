@@ -13,6 +13,8 @@ import { useDocument, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { hardpointRows } from '../model/hardpoints';
 import { bodyIndexOf, bodyPose } from './scenePlacement';
 import { motion } from './viewSignals';
+import { snapDrag } from './precision';
+import type { Vec3Mm } from '../../core/design/types';
 
 const m4 = new Matrix4();
 
@@ -32,6 +34,8 @@ export function HardpointGizmo() {
   const frame = useRef<Group>(null);
   const target = useMemo(() => new Object3D(), []);
   const dragging = useRef(false);
+  /** The point's design value when the drag began: axes the drag does not move keep it exactly. */
+  const dragStart = useRef<Vec3Mm | null>(null);
 
   useLayoutEffect(() => {
     if (!selection) return;
@@ -76,17 +80,19 @@ export function HardpointGizmo() {
         translationSnap={snap > 0 ? snap : null}
         onMouseDown={() => {
           dragging.current = true;
+          dragStart.current = hardpointRows(wb.document.getState().design).find((r) => r.id === selection)?.value ?? null;
           wb.actions.beginDrag();
         }}
         onObjectChange={() => {
           if (!dragging.current || !selection) return;
           motion.emit();
           const p = target.position;
-          const r = (v: number) => Math.round(v * 10) / 10;
-          wb.actions.dragPoint(selection, { x: r(p.x), y: r(p.y), z: r(p.z) });
+          const proposed = { x: p.x, y: p.y, z: p.z };
+          wb.actions.dragPoint(selection, snapDrag(dragStart.current ?? proposed, proposed, snap));
         }}
         onMouseUp={() => {
           dragging.current = false;
+          dragStart.current = null;
           wb.actions.endDrag();
         }}
       />

@@ -11,6 +11,9 @@ import { ViewportBoundary } from './ViewportBoundary';
 import { viewRequests, type ViewName } from './viewSignals';
 import { setGizmo, type GizmoConstraint } from '../state/uiStore';
 import { rowName, hardpointRows } from '../model/hardpoints';
+import { useEffect } from 'react';
+import { SNAP_STEPS_MM } from './precision';
+import { handleNudgeKey } from './nudgeKeys';
 
 const FULL_DPR = Math.min(2, typeof window === 'undefined' ? 1 : window.devicePixelRatio || 1);
 
@@ -25,6 +28,12 @@ const VIEWS: { view: ViewName; label: string; title: string }[] = [
 export function Viewport() {
   const { ui } = useWorkbenchApi();
   const wheelbase = useDocument((s) => s.design.vehicle.wheelbaseMm);
+  const wb = useWorkbenchApi();
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => void handleNudgeKey(wb, e);
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [wb]);
   return (
     <div className="viewport" data-testid="viewport">
       <ViewportBoundary>
@@ -165,13 +174,14 @@ function GizmoBar() {
           {c.label}
         </button>
       ))}
-      <label title="snap step while dragging">
+      <label title="snap step while dragging; arrow keys nudge 1 mm, with Shift 0.1 mm (↑↓ x, ←→ y, PgUp/PgDn z)">
         snap{' '}
         <select value={g.snapMm} onChange={(e) => setGizmo(ui, { snapMm: Number(e.target.value) })}>
-          <option value={0}>off</option>
-          <option value={0.5}>0.5 mm</option>
-          <option value={1}>1 mm</option>
-          <option value={5}>5 mm</option>
+          {SNAP_STEPS_MM.map((step) => (
+            <option key={step} value={step}>
+              {step === 0 ? 'off' : `${step} mm`}
+            </option>
+          ))}
         </select>
       </label>
       <button type="button" title="deselect (Esc)" onClick={() => actions.select(null)}>
