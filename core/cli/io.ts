@@ -111,8 +111,5 @@ export function safeIo(io: CliIo): CliIo {
   };
 }
 
-/** The plain caution every report carries. */
-export const SAFETY_CAUTION =
-  'CAUTION: Tiltbench is a design aid. Steering and suspension are safety-critical: confirm every result by ' +
-  'measurement and testing, have welded and bolted parts properly engineered, and follow local vehicle ' +
-  'regulations and licensed engineering practice first.';
+/** The plain caution every report carries (one wording, in core/report/caution.ts). */
+export { SAFETY_CAUTION } from '../report/caution';

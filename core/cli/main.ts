@@ -17,6 +17,7 @@ import { runTuneCommand, tuneHelp } from './commands/tune';
 import { runCompareCommand, compareHelp } from './commands/compare';
 import { runHardpointsCommand, hardpointsHelp } from './commands/hardpoints';
 import { runFitCommand, fitHelp } from './commands/fit';
+import { runReportCommand, reportHelp } from './commands/report';
 
 export interface CliCommand {
   run(argv: string[], io: CliIo): Promise<number>;
@@ -35,6 +36,7 @@ export const COMMANDS: Record<string, CliCommand> = {
   compare: { run: runCompareCommand, help: compareHelp },
   hardpoints: { run: runHardpointsCommand, help: hardpointsHelp },
   fit: { run: runFitCommand, help: fitHelp },
+  report: { run: runReportCommand, help: reportHelp },
 };
 
 function usage(): string {

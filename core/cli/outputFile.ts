@@ -92,7 +92,7 @@ export function checkOutputPath(given: string, option: string, inputs: readonly 
 export class AtomicOutput {
   private fd: number | null;
   private readonly temp: string;
-  private pending: string[] = [];
+  private pending: (string | Uint8Array)[] = [];
   private pendingChars = 0;
   private done = false;
 
@@ -117,8 +117,8 @@ export class AtomicOutput {
     return new AtomicOutput(target, fs);
   }
 
-  /** Queue text; written in blocks of about 64 kB. Throws OutputError (the caller aborts). */
-  write(text: string): void {
+  /** Queue text (UTF-8) or bytes; written in blocks of about 64 kB. Throws OutputError (the caller aborts). */
+  write(text: string | Uint8Array): void {
     this.pending.push(text);
     this.pendingChars += text.length;
     if (this.pendingChars >= 65536) this.flush();
@@ -126,7 +126,7 @@ export class AtomicOutput {
 
   private flush(): void {
     if (this.fd === null || this.pendingChars === 0) return;
-    const bytes = Buffer.from(this.pending.join(''), 'utf8');
+    const bytes = Buffer.concat(this.pending.map((p) => (typeof p === 'string' ? Buffer.from(p, 'utf8') : p)));
     this.pending = [];
     this.pendingChars = 0;
     let at = 0;
@@ -206,7 +206,7 @@ function processAlive(pid: number): boolean {
 
 /** Write a whole output at once through AtomicOutput (temporary file, flushed, renamed); on any
  * failure the temporary file is removed and the target left as it was. */
-export function writeWholeOutput(target: OutputTarget, text: string): void {
+export function writeWholeOutput(target: OutputTarget, text: string | Uint8Array): void {
   const out = AtomicOutput.open(target);
   try {
     out.write(text);
