@@ -2,6 +2,7 @@
 import { lazy, Suspense, useEffect } from 'react';
 import { DesignSheet } from '../panels/DesignSheet';
 import { HardpointTable } from '../panels/HardpointTable';
+import { StudiesPanel } from '../studies/StudiesPanel';
 import { AlertsPanel, ReadoutPanel } from '../panels/ReadoutPanel';
 import { PosePanel } from '../panels/PosePanel';
 import { PlaybackPanel } from '../panels/PlaybackPanel';
@@ -62,6 +63,7 @@ export function App({ playback }: { playback: PlaybackController }) {
       </main>
       <aside className="side right-side" aria-label="Design">
         <HardpointTable />
+        <StudiesPanel />
         <DesignSheet />
       </aside>
       <SafetyCaution />

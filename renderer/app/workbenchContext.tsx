@@ -4,6 +4,7 @@ import { useStore } from 'zustand';
 import type { DocumentState } from '../state/documentStore';
 import type { JobsState } from '../state/jobsStore';
 import type { PoseState } from '../state/poseStore';
+import type { StudyState } from '../state/studyStore';
 import type { UiState } from '../state/uiStore';
 import type { Workbench, WorkbenchActions } from '../state/workbench';
 
@@ -35,6 +36,10 @@ export function useUi<U>(selector: (s: UiState) => U): U {
 
 export function useJobs<U>(selector: (s: JobsState) => U): U {
   return useStore(useWorkbenchApi().jobs.store, selector);
+}
+
+export function useStudies<U>(selector: (s: StudyState) => U): U {
+  return useStore(useWorkbenchApi().studies, selector);
 }
 
 export function useActions(): WorkbenchActions {

@@ -6,7 +6,7 @@
 import { isTwoSided, mirrorY } from '../../core/design/resolveDesign';
 import type { DesignFile, Sided, Vec3Mm } from '../../core/design/types';
 import { formatPath, getAt, parsePath, setAt, type DesignPath } from './designPath';
-import { changeAt, type Delta } from './history';
+import { changeAt, differingPaths, type Delta } from './history';
 import { coordinateTarget, hardpointRows, pointTarget, rowName, splitRowId, type Axis } from './hardpoints';
 
 export interface ActionResult {
@@ -108,5 +108,18 @@ export const setFields: DesignAction<{ values: { path: string; value: unknown }[
       paths.push(p);
     }
     return commit(design, next, paths, label);
+  },
+};
+
+/**
+ * A whole new design made elsewhere (an applied tune, an accepted proposal, an imported
+ * table), as one undo step holding only the values that differ.
+ */
+export const adoptDesign: DesignAction<{ design: DesignFile; label: string }> = {
+  name: 'adoptDesign',
+  perform(before, { design, label }) {
+    const changes = differingPaths(before, design).map((p) => changeAt(before, design, p)).filter((c) => c !== null);
+    if (changes.length === 0) return { design: before, delta: null };
+    return { design, delta: { label, changes } };
   },
 };

@@ -34,6 +34,27 @@ export function changeAt(before: unknown, after: unknown, path: DesignPath): Cha
   return { path, before: cloneJson(b), after: cloneJson(a) };
 }
 
+const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/**
+ * The paths at which two documents differ, as deep as both sides are objects (a moved point
+ * is one path, not the whole design), so a whole-design edit (an applied tune or proposal, an
+ * imported table) is recorded as the few values it changed.
+ */
+export function differingPaths(before: unknown, after: unknown, path: DesignPath = []): DesignPath[] {
+  if (jsonEqual(before, after)) return [];
+  // Objects of other keys (a mirrored point that became two sides) change as a whole, so undo
+  // gives back the object as it was, keys in their order.
+  if (!isPlainObject(before) || !isPlainObject(after) || !sameKeys(before, after)) return [path];
+  return Object.keys(before).flatMap((k) => differingPaths(before[k], after[k], [...path, k]));
+}
+
+function sameKeys(a: Record<string, unknown>, b: Record<string, unknown>): boolean {
+  const ka = Object.keys(a);
+  const kb = Object.keys(b);
+  return ka.length === kb.length && ka.every((k, i) => k === kb[i]);
+}
+
 /** Most undo steps kept; the oldest are dropped beyond it. */
 export const HISTORY_LIMIT = 500;
 

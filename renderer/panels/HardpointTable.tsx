@@ -4,7 +4,7 @@
  * with the viewport.
  */
 import { Fragment, useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { useActions, useDocument, usePose, useUi } from '../app/workbenchContext';
+import { useActions, useDocument, usePose, useStudies, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { linkPoint, setCoordinate, unlinkPoint } from '../model/designActions';
 import { issuesOfCell, issuesOfPoint } from '../model/fieldIssues';
 import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpoints';
@@ -12,6 +12,10 @@ import type { DesignIssue } from '../../core/design/validateDesign';
 import { NumberField } from './NumberField';
 import { rateText, useSensitivity } from '../studies/useSensitivity';
 import type { SensitivityData } from '../workers/sensitivityJob';
+import { pickedAxes, togglePoint } from '../model/tunePicks';
+import { acceptProposal, dismissProposal, previewProposal } from '../studies/ProposalsPanel';
+import type { Proposal } from '../../core/studies/geometricSuggestion';
+import { fmt } from '../model/format';
 
 export function HardpointTable() {
   const design = useDocument((s) => s.design);
@@ -22,6 +26,11 @@ export function HardpointTable() {
   const sensitivity = useSensitivity(design);
   const [objective, setObjective] = useState('selfSteer');
   const rates = sensitivity.state.phase === 'done' ? sensitivity.state.data : null;
+  const studies = useWorkbenchApi().studies;
+  const picks = useStudies((s) => s.picks);
+  const proposalSet = useStudies((s) => s.proposals);
+  // Proposals found for this very design, not dismissed, shown under the points they move.
+  const proposals = proposalSet && proposalSet.forDesign === design ? proposalSet.list.filter((p) => p.design !== null && !proposalSet.dismissed.includes(p.id)) : [];
   const body = useRef<HTMLTableSectionElement>(null);
   /** Cells whose text is not a number yet: "rowId:axis" -> message. */
   const [typing, setTyping] = useState<Record<string, string>>({});
@@ -79,8 +88,14 @@ export function HardpointTable() {
                   onUnlink={() => actions.perform(unlinkPoint, { key: row.key })}
                   onLink={(keep) => actions.perform(linkPoint, { key: row.key, keep })}
                   onTyping={reportTyping}
+                  vary={row.side === 'left' && row.linked ? null : { picked: pickedAxes(picks, row).length, onToggle: () => studies.setState({ picks: togglePoint(studies.getState().picks, row) }) }}
                 />
                 {rates && row.side !== 'left' && <RateRow rowKey={row.key} rates={rates} objective={objective} />}
+                {proposals
+                  .filter((p) => p.moves.some((m) => m.key === row.key && m.side === row.side))
+                  .map((p) => (
+                    <ProposalRow key={p.id} proposal={p} row={row} onPreview={() => previewProposal(studies, p)} onAccept={() => acceptProposal(actions, studies, design, p)} onDismiss={() => dismissProposal(studies, p.id)} />
+                  ))}
                 {messages.length > 0 && (
                   <tr className="issue-row">
                     <td colSpan={6} role="alert" className="field-error" data-testid={`issue-${row.id}`}>
@@ -174,6 +189,30 @@ function RateRow({ rowKey, rates, objective }: { rowKey: string; rates: Sensitiv
   );
 }
 
+/** Under a point a proposal moves: where to, by how much, and the proposal's buttons. */
+function ProposalRow(p: { proposal: Proposal; row: HardpointRow; onPreview(): void; onAccept(): void; onDismiss(): void }) {
+  const move = p.proposal.moves.find((m) => m.key === p.row.key && m.side === p.row.side)!;
+  const d = Math.hypot(move.toMm.x - move.fromMm.x, move.toMm.y - move.fromMm.y, move.toMm.z - move.fromMm.z);
+  return (
+    <tr className="proposal-row">
+      <td colSpan={6} data-testid={`proposal-at-${p.row.id}-${p.proposal.id}`} title={p.proposal.rule}>
+        <div>
+          <span className="rate-lead">proposal, {p.proposal.title}:</span> to {fmt(move.toMm.x, 1)}, {fmt(move.toMm.y, 1)}, {fmt(move.toMm.z, 1)} ({fmt(d, 1)} mm)
+          <button type="button" className="link-button" onClick={p.onPreview}>
+            preview
+          </button>
+          <button type="button" className="link-button" onClick={p.onAccept}>
+            accept
+          </button>
+          <button type="button" className="link-button" onClick={p.onDismiss}>
+            dismiss
+          </button>
+        </div>
+      </td>
+    </tr>
+  );
+}
+
 function TableHead() {
   return (
     <thead>
@@ -207,9 +246,11 @@ interface RowProps {
   onUnlink(): void;
   onLink(keep: 'right' | 'left'): void;
   onTyping(cell: string, message: string | null): void;
+  /** The tune's "vary" tick: how many of the point's axes are picked; null on a mirrored left row. */
+  vary: { picked: number; onToggle(): void } | null;
 }
 
-function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnlink, onLink, onTyping }: RowProps) {
+function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnlink, onLink, onTyping, vary }: RowProps) {
   const name = rowName(row);
   return (
     <tr
@@ -244,6 +285,20 @@ function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnl
           <button type="button" className="link-toggle" title={`Mirror the left ${row.label} onto the right.`} onClick={() => onLink('left')} data-testid={`link-left-${row.key}`}>
             ↥ mirror
           </button>
+        )}
+        {vary && (
+          <label className="vary-toggle" title={`Let the tune move the ${name}${row.linked ? ' (both sides together)' : ''}; set its range in Studies, Tune`}>
+            <input
+              type="checkbox"
+              checked={vary.picked === 3}
+              ref={(el) => {
+                if (el) el.indeterminate = vary.picked > 0 && vary.picked < 3;
+              }}
+              onChange={vary.onToggle}
+              data-testid={`vary-${row.id}`}
+            />{' '}
+            vary
+          </label>
         )}
       </td>
     </tr>

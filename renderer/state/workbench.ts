@@ -7,6 +7,7 @@
  * - pose: the pose asked for and everything solved from the design there (poseStore.ts)
  * - ui: selection, dialogs, gizmo, playback, plots, hover (uiStore.ts)
  * - jobs: the plots' curves and envelope map in the sweep worker (jobsStore.ts)
+ * - studies: the coordinates picked for tuning and the reference design compared with (studyStore.ts)
  */
 import type { DesignFile, Vec3Mm } from '../../core/design/types';
 import { describeRow, movePoint, type DesignAction } from '../model/designActions';
@@ -17,6 +18,7 @@ import type { SweepClient } from '../workers/sweepClient';
 import { createDocumentStore, DocumentEditor, type DocInfo, type DocumentStore } from './documentStore';
 import { Jobs } from './jobsStore';
 import { PoseView, type PoseStore, type RideUi } from './poseStore';
+import { createStudyStore, type StudyStore } from './studyStore';
 import { createUiStore, type Notice, type RecoveryOffer, type UiStore } from './uiStore';
 
 export interface WorkbenchActions {
@@ -46,6 +48,7 @@ export interface Workbench {
   pose: PoseStore;
   ui: UiStore;
   jobs: Jobs;
+  studies: StudyStore;
   actions: WorkbenchActions;
 }
 
@@ -61,7 +64,7 @@ export function createWorkbench(design: DesignFile, doc: DocInfo, options: Workb
   const ui = createUiStore();
   const jobs = new Jobs(document, options.sweepClient);
   const actions = workbenchActions(editor, view, ui);
-  return { document, pose: view.store, ui, jobs, actions };
+  return { document, pose: view.store, ui, jobs, studies: createStudyStore(), actions };
 }
 
 function workbenchActions(editor: DocumentEditor, view: PoseView, ui: UiStore): WorkbenchActions {

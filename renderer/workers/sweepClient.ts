@@ -4,9 +4,10 @@
  * worker can be started, the job runs on the main thread after a paint (slower, no cancel).
  */
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
-import { computeCurves, computeMap, type CurveRequest, type MapRequest } from './sweepJobs';
-import { computeSensitivity, type SensitivityData, type SensitivityRequest } from './sensitivityJob';
-import type { SweepRequest, SweepResponse } from './sweepProtocol';
+import type { CurveRequest, MapRequest } from './sweepJobs';
+import type { SensitivityData, SensitivityRequest } from './sensitivityJob';
+import { runJob } from './runJob';
+import type { JobKind, JobKinds, SweepRequest, SweepResponse } from './sweepProtocol';
 
 export class CancelledError extends Error {
   constructor() {
@@ -41,16 +42,21 @@ export class SweepClient {
     return this.factory !== null && !this.workerBroken;
   }
 
+  /** Any job of the protocol's table (sweepProtocol.ts). */
+  job<K extends JobKind>(kind: K, request: JobKinds[K]['request'], progress?: (done: number, total: number) => void): Promise<JobKinds[K]['data']> {
+    return this.run({ id: this.nextId++, kind, request } as SweepRequest, progress) as Promise<JobKinds[K]['data']>;
+  }
+
   curves(request: CurveRequest, progress?: (done: number, total: number) => void): Promise<CurveSet> {
-    return this.run({ id: this.nextId++, kind: 'curves', request }, progress) as Promise<CurveSet>;
+    return this.job('curves', request, progress);
   }
 
   map(request: MapRequest, progress?: (done: number, total: number) => void): Promise<EnvelopeMapData> {
-    return this.run({ id: this.nextId++, kind: 'map', request }, progress) as Promise<EnvelopeMapData>;
+    return this.job('map', request, progress);
   }
 
   sensitivity(request: SensitivityRequest, progress?: (done: number, total: number) => void): Promise<SensitivityData> {
-    return this.run({ id: this.nextId++, kind: 'sensitivity', request }, progress) as Promise<SensitivityData>;
+    return this.job('sensitivity', request, progress);
   }
 
   /** Stops the running job; its promise rejects with CancelledError. */
@@ -111,9 +117,8 @@ export class SweepClient {
   private runHere(p: Pending): void {
     setTimeout(() => {
       if (this.pending !== p) return;
-      const req = p.request;
       try {
-        const data = req.kind === 'curves' ? computeCurves(req.request, p.progress) : req.kind === 'map' ? computeMap(req.request, p.progress) : computeSensitivity(req.request, p.progress);
+        const data = runJob(p.request, p.progress);
         this.pending = null;
         p.resolve(data);
       } catch (e) {

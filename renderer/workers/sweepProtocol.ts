@@ -1,16 +1,28 @@
-/** Messages between the workbench and its sweep worker. */
+/** Messages between the workbench and its sweep worker: one table of job kinds, their requests and results. */
+import type { Proposal } from '../../core/studies/geometricSuggestion';
+import type { ToleranceReport } from '../../core/studies/toleranceSpread';
+import type { TuneReport } from '../../core/studies/tune';
+import type { VariantsReport } from '../../core/studies/variants';
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from './sweepJobs';
 import type { SensitivityData, SensitivityRequest } from './sensitivityJob';
+import type { ProposalsRequest, ToleranceRequest, TuneRequest, VariantsRequest } from './studyJobs';
 
-export type SweepRequest =
-  | { id: number; kind: 'curves'; request: CurveRequest }
-  | { id: number; kind: 'map'; request: MapRequest }
-  | { id: number; kind: 'sensitivity'; request: SensitivityRequest };
+export interface JobKinds {
+  curves: { request: CurveRequest; data: CurveSet };
+  map: { request: MapRequest; data: EnvelopeMapData };
+  sensitivity: { request: SensitivityRequest; data: SensitivityData };
+  tune: { request: TuneRequest; data: TuneReport };
+  tolerance: { request: ToleranceRequest; data: ToleranceReport };
+  proposals: { request: ProposalsRequest; data: Proposal[] };
+  variants: { request: VariantsRequest; data: VariantsReport };
+}
+
+export type JobKind = keyof JobKinds;
+
+export type SweepRequest = { [K in JobKind]: { id: number; kind: K; request: JobKinds[K]['request'] } }[JobKind];
 
 export type SweepResponse =
   | { id: number; type: 'progress'; done: number; total: number }
-  | { id: number; type: 'curves'; data: CurveSet }
-  | { id: number; type: 'map'; data: EnvelopeMapData }
-  | { id: number; type: 'sensitivity'; data: SensitivityData }
+  | { id: number; type: 'done'; data: JobKinds[JobKind]['data'] }
   | { id: number; type: 'error'; message: string };

@@ -1,0 +1,54 @@
+/**
+ * The design studies the workbench runs in the sweep worker: tune, tolerance spread, the
+ * geometric proposals and the comparison of two designs. Each is core's study as the CLI runs
+ * it (core/studies), with plain data in and out; no maths here.
+ */
+import type { DesignFile } from '../../core/design/types';
+import { geometricProposals, type Proposal } from '../../core/studies/geometricSuggestion';
+import { runToleranceSpread, type ToleranceOptions, type ToleranceReport } from '../../core/studies/toleranceSpread';
+import { runTune, type TuneReport } from '../../core/studies/tune';
+import { checkVariables, type TunePlan } from '../../core/studies/tunePlan';
+import { compareVariants, type Variant, type VariantsReport } from '../../core/studies/variants';
+import type { Progress } from './sweepJobs';
+
+export interface TuneRequest {
+  design: DesignFile;
+  plan: TunePlan;
+}
+
+/** Core's tune; the plan's variables are checked against the design first (a TunePlanError names the one at fault). */
+export function computeTune(req: TuneRequest, progress?: Progress): TuneReport {
+  const variables = checkVariables(req.design, req.plan);
+  return runTune(req.design, req.plan, variables, { onProgress: progress });
+}
+
+export interface ToleranceRequest {
+  design: DesignFile;
+  options: Omit<ToleranceOptions, 'onProgress' | 'shouldStop'>;
+}
+
+export function computeTolerance(req: ToleranceRequest, progress?: Progress): ToleranceReport {
+  return runToleranceSpread(req.design, { ...req.options, onProgress: progress });
+}
+
+export interface ProposalsRequest {
+  design: DesignFile;
+}
+
+export function computeProposals(req: ProposalsRequest, progress?: Progress): Proposal[] {
+  progress?.(0, 1);
+  const out = geometricProposals(req.design, true);
+  progress?.(1, 1);
+  return out;
+}
+
+export interface VariantsRequest {
+  variants: Variant[];
+}
+
+export function computeVariants(req: VariantsRequest, progress?: Progress): VariantsReport {
+  progress?.(0, 1);
+  const out = compareVariants(req.variants, { check: true });
+  progress?.(1, 1);
+  return out;
+}
