@@ -1,0 +1,213 @@
+/**
+ * `tiltbench report`: the numbers on the report are the analysis numbers they come from, read
+ * back out of the HTML with a general-purpose HTML parser (jsdom) and compared with what the
+ * other commands print: the hardpoint table with `tiltbench hardpoints`'s CSV as csv-parse
+ * (npm) reads it, the alignment with `tiltbench pose --json`, the limits with
+ * `tiltbench check --json`, the file hash with Python's hashlib. The PDF is printed by
+ * headless Chromium and turned into pages by pdftoppm (Debian poppler-utils): one non-blank
+ * page per sheet of the HTML.
+ */
+import { execFileSync } from 'node:child_process';
+import { copyFileSync, existsSync, linkSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { JSDOM } from 'jsdom';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { run, WREN } from './cliHarness';
+import { SAFETY_CAUTION } from '../../core/cli/io';
+import { ANALYSIS_DEFINITIONS } from '../../core/analysis/definitions';
+import { findChromium } from '../../core/cli/commands/report';
+import { CURVE_CHARTS } from '../../core/report/charts/curveOptions';
+
+const folder = () => mkdtempSync(join(tmpdir(), 'tiltbench-report-'));
+
+/** The number a cell shows (its unit, if any, follows a space). */
+const shown = (cell: Element | null | undefined) => Number((cell?.textContent ?? '').trim().split(/\s/)[0]);
+
+describe('tiltbench report (HTML), read back', () => {
+  let doc: Document;
+  let html: string;
+  let pose: { analysis: Record<string, any> };
+  let check: { items: { id: string; worst: number | null; verdict: string; unit: string; where: { leanDeg: number; handlebarDeg: number; travelMm: number } | null }[]; passed: boolean };
+  let csvRows: string[][];
+
+  beforeAll(async () => {
+    const dir = folder();
+    const out = join(dir, 'wren.html');
+    const r = await run(['report', WREN, '--out', out]);
+    expect(r.code, r.err).toBe(0);
+    expect(r.out).toContain('wrote the report');
+    html = readFileSync(out, 'utf8');
+    doc = new JSDOM(html).window.document;
+    const p = await run(['pose', WREN, '--json']);
+    expect(p.code, p.err).toBe(0);
+    pose = JSON.parse(p.out);
+    const c = await run(['check', WREN, '--json']);
+    check = JSON.parse(c.out);
+    const h = await run(['hardpoints', WREN, '--out', join(dir, 'table.csv')]);
+    expect(h.code, h.err).toBe(0);
+    csvRows = parse(readFileSync(join(dir, 'table.csv'), 'utf8'), { skipEmptyLines: true }) as string[][];
+  }, 120_000);
+
+  it('is one self-contained document: no script, nothing fetched', () => {
+    expect(html.startsWith('<!DOCTYPE html>')).toBe(true);
+    expect(html).not.toMatch(/<script/i);
+    expect(html).not.toMatch(/(src|href)\s*=\s*"(https?:)?\/\//i);
+    expect(html).not.toMatch(/@import|url\((?!#)/i); // url(#id): a clip path inside the same SVG
+  });
+
+  it('names the design, its file hash (as Python hashlib finds it), the date, units, sign conventions, notes and the caution', () => {
+    const design = JSON.parse(readFileSync(WREN, 'utf8'));
+    expect(doc.querySelector('h1')?.textContent).toBe(`Workshop report: ${design.name}`);
+    const sha = execFileSync('python3', ['-c', 'import hashlib,sys;print(hashlib.sha256(open(sys.argv[1],"rb").read()).hexdigest())', WREN], { encoding: 'utf8' }).trim();
+    expect(doc.getElementById('sha256')?.textContent).toBe(sha);
+    const made = Date.parse(doc.getElementById('made-at')!.textContent!);
+    expect(Math.abs(Date.now() - made)).toBeLessThan(10 * 60_000);
+    expect(doc.body.textContent).toContain('millimetres and degrees');
+    expect(doc.body.textContent).toContain(ANALYSIS_DEFINITIONS.axes);
+    expect(doc.body.textContent).toContain(ANALYSIS_DEFINITIONS.toe);
+    expect(doc.getElementById('notes')?.textContent).toBe(design.notes);
+    expect(doc.getElementById('caution')?.textContent).toBe(SAFETY_CAUTION);
+  });
+
+  it('the hardpoint table holds what `tiltbench hardpoints` writes (csv-parse reads it), row for row', () => {
+    const [head, ...rows] = csvRows;
+    expect(head).toEqual(['point', 'side', 'x_mm', 'y_mm', 'z_mm']);
+    const trs = [...doc.querySelectorAll('#hardpoints tbody tr')];
+    expect(trs).toHaveLength(rows.length);
+    rows.forEach((row, i) => {
+      const cell = (f: string) => trs[i].querySelector(`[data-field="${f}"]`)?.textContent;
+      expect([cell('point'), cell('side'), Number(cell('x')), Number(cell('y')), Number(cell('z'))]).toEqual([row[0], row[1], Number(row[2]), Number(row[3]), Number(row[4])]);
+    });
+  });
+
+  it('the alignment at design is `tiltbench pose --json` at lean 0, handlebar 0, to the digits shown', () => {
+    const cells = [...doc.querySelectorAll('#alignment td[data-field]')];
+    expect(cells.length).toBeGreaterThan(20);
+    let compared = 0;
+    for (const c of cells) {
+      const path = c.getAttribute('data-field')!.split('.');
+      const [side, field] = path.length === 2 && (path[0] === 'left' || path[0] === 'right') ? path : [null, null];
+      const want = side ? pose.analysis.wheels[side][field!] : path.reduce((o: any, k) => o?.[k], pose.analysis);
+      if (want === null || want === undefined) {
+        expect(c.textContent, path.join('.')).toBe('\u2013');
+        continue;
+      }
+      const digits = (c.textContent!.split('.')[1] ?? '').length;
+      expect(Math.abs(shown(c) - want), `${path.join('.')}: ${c.textContent} vs ${want}`).toBeLessThanOrEqual(0.5 * 10 ** -digits + 1e-12);
+      expect(Number(c.getAttribute('data-value'))).toBe(want);
+      compared++;
+    }
+    expect(compared).toBeGreaterThan(20);
+    // Two read by name, so a shuffled table cannot pass: toe and KPI of the left wheel.
+    expect(shown(doc.querySelector('#alignment [data-field="left.toeDeg"]'))).toBe(Number(pose.analysis.wheels.left.toeDeg.toFixed(2)));
+    expect(shown(doc.querySelector('#alignment [data-field="left.kpiDeg"]'))).toBe(Number(pose.analysis.wheels.left.kpiDeg.toFixed(2)));
+  });
+
+  it('the drawings dimension the track from the design pose\u2019s contact patches', () => {
+    const w = pose.analysis.wheels;
+    const track = Math.abs(w.left.contactPatchMm.y - w.right.contactPatchMm.y);
+    expect(doc.querySelector('svg[data-view="front"] [data-dim="track"] text')?.textContent).toBe(`track ${track.toFixed(1)} mm (contact patch centres)`);
+    expect(doc.querySelector('svg[data-view="front"] [data-dim="kpi"]')?.textContent).toContain(`KPI ${w.left.kpiDeg.toFixed(2)}`);
+  });
+
+  it('every limits row is the judged section of `tiltbench check --json`: worst, where, verdict', () => {
+    const trs = [...doc.querySelectorAll('#limits tbody tr')];
+    expect(trs).toHaveLength(check.items.length);
+    for (const item of check.items) {
+      const tr = doc.querySelector(`#limits tr[data-id="${item.id}"]`);
+      expect(tr, item.id).not.toBeNull();
+      const worst = tr!.querySelector('[data-field="worst"]');
+      if (item.worst === null) expect(worst?.textContent).toBe('\u2013');
+      else {
+        const digits = item.unit === 'poses' ? 0 : item.unit === 'mm' ? 1 : 2;
+        expect(shown(worst), item.id).toBe(Number(item.worst.toFixed(digits)));
+      }
+      expect(tr!.querySelector('[data-verdict]')?.getAttribute('data-verdict'), item.id).toBe(item.verdict);
+      const where = tr!.querySelector('[data-field="where"]')?.textContent;
+      if (item.where) expect(where).toBe([item.where.leanDeg, item.where.handlebarDeg, item.where.travelMm].map((x) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1)).join(', '));
+    }
+    expect(doc.getElementById('check-result')?.textContent).toBe(check.passed ? 'PASS' : 'FAIL');
+  });
+
+  it('draws every workbench curve chart and the envelope map as inline SVG', () => {
+    for (const c of CURVE_CHARTS) expect(doc.querySelector(`[data-chart="${c.id}"] svg`), c.id).not.toBeNull();
+    const map = doc.querySelector('[data-chart="map"] svg');
+    expect(map?.textContent).toContain('operating region');
+    expect(doc.querySelectorAll('svg.drawing')).toHaveLength(3);
+  });
+});
+
+/** Gray pixels of a binary PGM (P5, 8-bit), as pdftoppm -gray writes them. */
+function pgmPixels(bytes: Buffer): { width: number; height: number; data: Buffer } {
+  const header = bytes.subarray(0, 64).toString('latin1');
+  const m = /^P5\s+(\d+)\s+(\d+)\s+(\d+)\s/.exec(header);
+  if (!m || m[3] !== '255') throw new Error('not an 8-bit binary PGM');
+  const width = Number(m[1]);
+  const height = Number(m[2]);
+  return { width, height, data: bytes.subarray(m[0].length, m[0].length + width * height) };
+}
+
+/** Share of pixels darker than light grey. */
+function inkShare(p: { data: Buffer }): number {
+  let dark = 0;
+  for (const v of p.data) if (v < 200) dark++;
+  return dark / p.data.length;
+}
+
+describe('tiltbench report (PDF)', () => {
+  it('headless Chromium prints one non-blank A4 page per sheet (pdftoppm pages, counted in gray)', async () => {
+    const dir = folder();
+    const pdf = join(dir, 'wren.pdf');
+    const htmlOut = join(dir, 'wren.html');
+    const r = await run(['report', WREN, '--out', pdf, '--chromium', '/usr/bin/chromium']);
+    expect(r.code, r.err).toBe(0);
+    expect(readFileSync(pdf).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    expect((await run(['report', WREN, '--out', htmlOut])).code).toBe(0);
+    const sheets = new JSDOM(readFileSync(htmlOut, 'utf8')).window.document.querySelectorAll('section.sheet').length;
+    expect(sheets).toBe(7);
+    execFileSync('pdftoppm', ['-r', '24', '-gray', pdf, join(dir, 'page')]);
+    const pages = readdirSync(dir).filter((f) => /^page-\d+\.pgm$/.test(f)).sort();
+    expect(pages).toHaveLength(sheets);
+    for (const f of pages) {
+      const p = pgmPixels(readFileSync(join(dir, f)));
+      // A4 at 24 dpi: 198 x 281 pixels (portrait).
+      expect(p.width, f).toBeLessThan(p.height);
+      expect(inkShare(p), f).toBeGreaterThan(0.01);
+    }
+    // Negative control: a white page has no ink by the same count.
+    expect(inkShare({ data: Buffer.alloc(1000, 255) })).toBe(0);
+  }, 180_000);
+
+  it('no Chromium: a clear message naming where it looked, exit 2, nothing written', async () => {
+    const dir = folder();
+    const pdf = join(dir, 'never.pdf');
+    const r = await run(['report', WREN, '--out', pdf, '--chromium', join(dir, 'no-such-chromium')]);
+    expect(r.code).toBe(2);
+    expect(r.err).toContain('no Chromium to print the PDF with');
+    expect(r.err).toContain('no-such-chromium');
+    expect(r.err).toContain('Nothing was written');
+    expect(existsSync(pdf)).toBe(false);
+    expect(readdirSync(dir)).toEqual([]);
+    expect(findChromium(undefined, { PATH: dir })).toEqual({ path: null, tried: 'chromium, chromium-browser, google-chrome, google-chrome-stable on the PATH' });
+    expect(findChromium(undefined, { PATH: '/usr/bin' })).toEqual({ path: '/usr/bin/chromium' });
+    expect(findChromium(undefined, { PATH: '/usr/bin', TILTBENCH_CHROMIUM: join(dir, 'x') }).path).toBeNull();
+  });
+
+  it('refuses an output that is the design (a second name for it), an unknown extension and a missing --out', async () => {
+    const dir = folder();
+    const design = join(dir, 'design.tiltsheet');
+    copyFileSync(WREN, design);
+    const alias = join(dir, 'design.html');
+    linkSync(design, alias);
+    const same = await run(['report', design, '--out', alias]);
+    expect(same.code).toBe(2);
+    expect(same.err).toContain('is the design given as input');
+    expect(readFileSync(alias, 'utf8')).toBe(readFileSync(WREN, 'utf8'));
+    const ext = await run(['report', WREN, '--out', join(dir, 'r.docx')]);
+    expect(ext.code).toBe(2);
+    expect(ext.err).toContain('.html or .pdf');
+    expect((await run(['report', WREN])).err).toContain('give --out');
+  });
+});
