@@ -28,6 +28,7 @@ const shown = (cell: Element | null | undefined) => Number((cell?.textContent ??
 describe('tiltbench report (HTML), read back', () => {
   let doc: Document;
   let html: string;
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- JSON read back, walked by field path
   let pose: { analysis: Record<string, any> };
   let check: { items: { id: string; worst: number | null; verdict: string; unit: string; where: { leanDeg: number; handlebarDeg: number; travelMm: number } | null }[]; passed: boolean };
   let csvRows: string[][];
@@ -89,7 +90,7 @@ describe('tiltbench report (HTML), read back', () => {
     for (const c of cells) {
       const path = c.getAttribute('data-field')!.split('.');
       const [side, field] = path.length === 2 && (path[0] === 'left' || path[0] === 'right') ? path : [null, null];
-      const want = side ? pose.analysis.wheels[side][field!] : path.reduce((o: any, k) => o?.[k], pose.analysis);
+      const want = side ? pose.analysis.wheels[side][field!] : path.reduce<Record<string, unknown> | undefined>((o, k) => o?.[k] as Record<string, unknown> | undefined, pose.analysis) as unknown as number | null | undefined;
       if (want === null || want === undefined) {
         expect(c.textContent, path.join('.')).toBe('\u2013');
         continue;
