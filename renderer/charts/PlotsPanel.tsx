@@ -13,6 +13,8 @@ import type { MapMetric } from '../../core/report/charts/chartData';
 import { ChartView } from './ChartView';
 import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
 import { heatMapOption, MAP_METRICS } from '../../core/report/charts/heatMapOptions';
+import { withReference } from '../../core/report/charts/referenceOverlay';
+import { useReferenceCurves } from '../studies/useReferenceCurves';
 
 /** Quiet time after an edit before the charts are recomputed, ms. */
 const RECOMPUTE_DELAY_MS = 350;
@@ -176,11 +178,14 @@ function PlotBody({ running }: { running: boolean }) {
   const curves = useJobs((s) => s.curves.result);
   const map = useJobs((s) => s.map.result);
   const marker = useSettledMarker();
+  const reference = useReferenceCurves();
 
   const option = useMemo(() => {
     if (tab === 'map') return map ? heatMapOption(map, metric, marker.leanDeg !== null && marker.handlebarDeg !== null ? { leanDeg: marker.leanDeg, handlebarDeg: marker.handlebarDeg } : null) : null;
-    return curves ? curveOption(tab, curves, marker) : null;
-  }, [tab, curves, map, metric, marker]);
+    if (!curves) return null;
+    const own = curveOption(tab, curves, marker);
+    return reference ? withReference(own, curveOption(tab, reference.curves), reference.label) : own;
+  }, [tab, curves, map, metric, marker, reference]);
   const stale = slot.result !== null && slot.resultRevision !== revision;
 
   return (
@@ -188,6 +193,11 @@ function PlotBody({ running }: { running: boolean }) {
       {slot.error && <p className="field-error">The sweep failed: {slot.error}</p>}
       {!valid && <p className="hint">The design has errors; the plots wait until it is valid.</p>}
       {stale && !running && <p className="hint stale">The design changed; these plots are from before the change.</p>}
+      {reference && tab !== 'map' && (
+        <p className="hint reference-note" data-testid="reference-note">
+          Dotted: {reference.label}
+        </p>
+      )}
       {option ? (
         <ChartView
           option={option}
