@@ -289,7 +289,7 @@ describe('an outside reader and odd tables', () => {
       expect(got).toEqual(new Map(expected.map(([id, x, y, z]) => [id, [x, y, z]])));
       expect(records.every((r) => ['right', 'left', 'centre'].includes(r.side))).toBe(true);
     }
-    expect(parse(exportHardpointCsv(frozen), { columns: true }).some((r: Record<string, string>) => r.side === 'centre')).toBe(true);
+    expect((parse(exportHardpointCsv(frozen), { columns: true }) as Record<string, string>[]).some((r) => r.side === 'centre')).toBe(true);
   });
 
   it('a table edited by hand: columns reordered, odd case, a note column with commas, quotes and a line break', () => {
