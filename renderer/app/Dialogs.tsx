@@ -7,7 +7,7 @@ import { useActions, useUi, useWorkbenchApi } from './workbenchContext';
 
 const VERSION = '0.1.0';
 
-function Modal({ title, children, onClose, testId, kind = 'info' }: { title: string; children: ReactNode; onClose?: () => void; testId: string; kind?: 'info' | 'error' }) {
+export function Modal({ title, children, onClose, testId, kind = 'info' }: { title: string; children: ReactNode; onClose?: () => void; testId: string; kind?: 'info' | 'error' }) {
   const box = useRef<HTMLDivElement>(null);
   useEffect(() => {
     box.current?.querySelector<HTMLElement>('[data-autofocus]')?.focus();

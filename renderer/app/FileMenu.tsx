@@ -1,13 +1,32 @@
-/** File commands: New, Open, Save, Save as, Recent. */
-import { useEffect, useState } from 'react';
+/** File commands: New, Open, Save, Save as, Recent, and the exchange commands (hardpoint CSV, 3D export). */
+import { useEffect, useMemo, useState } from 'react';
 import type { RecentEntry } from '../files/fileService';
+import { pageExchangeFiles, type ExchangeFiles } from '../files/exchangeFiles';
+import { exportHardpointTable, exportPoseGlb, exportSweepGlb, readHardpointTable } from '../export/exchangeCommands';
+import type { ImportPlan } from '../export/hardpointImport';
+import { HardpointImportDialog } from './HardpointImportDialog';
 import { useFlow } from './flowContext';
 import { useWorkbenchApi } from './workbenchContext';
 
-export function FileMenu() {
+/** `exchange`: where tables are read from and exports offered (the page's file input and downloads unless given). */
+export function FileMenu({ exchange }: { exchange?: ExchangeFiles } = {}) {
   const flow = useFlow();
-  const { ui } = useWorkbenchApi();
+  const wb = useWorkbenchApi();
+  const { ui } = wb;
   const [recent, setRecent] = useState<RecentEntry[] | null>(null);
+  const [exchangeOpen, setExchangeOpen] = useState(false);
+  const [plan, setPlan] = useState<ImportPlan | null>(null);
+  const files = useMemo(() => exchange ?? pageExchangeFiles(), [exchange]);
+  const run = (command: () => unknown) => {
+    setExchangeOpen(false);
+    void command();
+  };
+  const exchangeItems: [string, string, string, () => unknown][] = [
+    ['Export hardpoints (CSV)…', 'The hardpoint table: point, side, x, y, z in mm', 'file-export-hardpoints', () => exportHardpointTable(wb, files)],
+    ['Import hardpoints (CSV)…', 'Read a hardpoint table; shows what moves before applying', 'file-import-hardpoints', async () => setPlan(await readHardpointTable(wb, files))],
+    ['Export 3D at this pose (.glb)', 'The mechanism at the pose on screen, glTF 2.0 binary, metres', 'file-export-pose-glb', () => exportPoseGlb(wb, files)],
+    ['Export lean sweep animation (.glb)', 'A sweep of lean across the envelope (handlebar if the vehicle does not lean), animated', 'file-export-sweep-glb', () => exportSweepGlb(wb, files)],
+  ];
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
@@ -72,6 +91,23 @@ export function FileMenu() {
           </ul>
         )}
       </span>
+      <span className="recent-wrap">
+        <button type="button" aria-expanded={exchangeOpen} onClick={() => setExchangeOpen(!exchangeOpen)} data-testid="file-exchange">
+          Import/Export ▾
+        </button>
+        {exchangeOpen && (
+          <ul className="recent-list" role="menu">
+            {exchangeItems.map(([label, title, testId, command]) => (
+              <li key={testId} role="none">
+                <button type="button" role="menuitem" title={title} data-testid={testId} onClick={() => run(command)}>
+                  {label}
+                </button>
+              </li>
+            ))}
+          </ul>
+        )}
+      </span>
+      {plan && <HardpointImportDialog plan={plan} onClose={() => setPlan(null)} />}
     </nav>
   );
 }
