@@ -174,10 +174,12 @@ export function drawView(view: ViewSpec, graph: MechanismGraph & { drawing: Draw
   // Ground line.
   const ground = view.id !== 'plan';
 
-  const size = () => Math.max(box.u1 - box.u0, box.v1 - box.v0);
   // Hardpoints, numbered.
   for (const p of points) grow(box, P(p.at));
-  const font = Math.max(9, size() / 34);
+  // Text about 2.8 mm high on the printed sheet: the view fills a box of about 180 x 68 mm
+  // (the report's drawing box), so the scale follows from the geometry's extent.
+  const scale = Math.min(180 / ((box.u1 - box.u0) * 1.12), 68 / ((box.v1 - box.v0) * 1.35));
+  const font = 2.8 / scale;
   // One label per place on the page: points that project onto one spot (a mirrored pair seen
   // from the side, a front and a rear pivot seen from ahead) share it, "1, 2".
   const spots = new Map<string, { u: number; v: number; keys: number[] }>();

@@ -62,6 +62,9 @@ table.limits td:first-child { white-space: nowrap; }
 table.limits td[data-field="where"] { white-space: nowrap; }
 `;
 
+/** A file-format identifier in words: 'bellCrank' -> 'bell crank'. */
+const words = (id: string) => id.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
+
 function verdictCell(v: keyof typeof SEVERITY_STYLE): string {
   const s = SEVERITY_STYLE[v];
   return `<td class="verdict" data-verdict="${v}" style="color:${s.colour}">${escapeHtml(`${s.glyph} ${s.word}`)}</td>`;
@@ -90,7 +93,7 @@ function coverSheet(r: ReportData): string {
     ['SHA-256 of the file', `<span class="hash" id="sha256">${escapeHtml(s.sha256)}</span>`],
     ['made', `<span id="made-at">${escapeHtml(s.madeAt)}</span>`],
     ['units', 'millimetres and degrees throughout'],
-    ['vehicle', escapeHtml(`${r.design.vehicle.tilting ? 'tilting' : 'not tilting'}, wheelbase ${mm1(r.design.vehicle.wheelbaseMm)} mm, front end ${r.design.frontEnd.kind === 'splitWishbones' ? 'split wishbones' : 'centre pivot'}, steering ${r.design.steering.kind}`)],
+    ['vehicle', escapeHtml(`${r.design.vehicle.tilting ? 'tilting' : 'not tilting'}, wheelbase ${mm1(r.design.vehicle.wheelbaseMm)} mm, front end ${words(r.design.frontEnd.kind)}, steering ${words(r.design.steering.kind)}`)],
     [
       'check',
       `<span class="${r.check.passed ? 'pass' : 'fail'}" id="check-result">${r.check.passed ? 'PASS' : 'FAIL'}</span> ` +
@@ -153,7 +156,7 @@ function hardpointSheet(r: ReportData): string {
       .filter((j) => j.side === 'left')
       .map((j) => {
         const right = a.joints.find((k) => k.joint === j.joint && k.side === 'right');
-        return [td(`${JOINT_WORDS[j.joint] ?? j.joint} (${j.kind})`), num(j.articulationDeg, 2, `joint.${j.joint}.left`), num(right?.articulationDeg ?? null, 2, `joint.${j.joint}.right`), num(j.ratedDeg, 1)];
+        return [td(`${JOINT_WORDS[j.joint] ?? j.joint} (${words(j.kind)})`), num(j.articulationDeg, 2, `joint.${j.joint}.left`), num(right?.articulationDeg ?? null, 2, `joint.${j.joint}.right`), num(j.ratedDeg, 1)];
       });
     alignment += `<h3>Joint articulation at design</h3>` + htmlTable(['joint', 'left deg', 'right deg', 'rated deg'], jointRows, 'grid joints-at-design');
   }
@@ -251,7 +254,8 @@ function turningSheet(r: ReportData): string {
   return `<h3>Turning circles (SAE J695)</h3>${table}${info ? `<p class="small">From the check, the tightest inside the steering limit:</p><ul class="small">${info}</ul>` : ''}`;
 }
 
-function studySection(r: ReportData): string {
+/** One sheet per study run (sensitivity, tolerance spread); none when no study was asked for. */
+function studySheets(r: ReportData): string[] {
   const parts: string[] = [];
   if (r.sensitivity) {
     const s = r.sensitivity;
@@ -260,9 +264,10 @@ function studySection(r: ReportData): string {
       .map((o) => [td(o.label), num(o.value, 3), td(o.unit), td(o.tolerance === null ? '\u2013' : `${o.kind === 'worst' ? 'at most' : 'at least'} ${o.tolerance} ${o.unit}`), td(o.where ?? '\u2013')]);
     const top = s.coordinates.slice(0, 10).map((c, k) => `<li>${k + 1}. ${escapeHtml(c.sentence)}</li>`).join('');
     parts.push(
-      `<h3 id="sensitivity">Sensitivity (${escapeHtml(s.method)}; step ${s.stepMm} mm; ${s.poses.length} poses)</h3>` +
+      sheet('sensitivity-sheet', 'Study: sensitivity to each hardpoint coordinate',
+      `<p id="sensitivity">${escapeHtml(s.method)}; step ${s.stepMm} mm; ${s.poses.length} poses.</p>` +
         htmlTable(['measure over the poses', 'value', 'unit', 'allowed', 'where'], objRows, 'grid') +
-        `<p class="small">Largest effects per mm, largest first:</p><ol class="small" style="list-style:none;padding-left:0">${top}</ol>`,
+        `<p class="small">Largest effects per mm, largest first:</p><ol class="small" style="list-style:none;padding-left:0">${top}</ol>`),
     );
   }
   if (r.tolerance) {
@@ -278,23 +283,27 @@ function studySection(r: ReportData): string {
       num(sp.withinTolerance === null ? null : sp.withinTolerance * 100, 1),
     ]);
     parts.push(
-      `<h3 id="tolerance">Tolerance spread (${escapeHtml(t.methodWords)}; ${escapeHtml(t.distributionWords)}; seed ${t.seed}; ${t.samplesMeasured} of ${t.samplesAsked} samples measured)</h3>` +
+      sheet('tolerance-sheet', 'Study: tolerance spread over built vehicles',
+      `<p id="tolerance">${escapeHtml(t.methodWords)}; ${escapeHtml(t.distributionWords)}; seed ${t.seed}; ${t.samplesMeasured} of ${t.samplesAsked} samples measured.</p>` +
         htmlTable(['over the poses', 'as drawn', 'mean', 'std', 'p5', 'p95', 'unit', 'within %'], rows, 'grid') +
-        `<p class="small">Within every tolerance: ${t.withinAll === null ? '\u2013' : fixed(t.withinAll * 100, 1) + ' %'} of the samples measured.</p>`,
+        `<p class="small">Within every tolerance: ${t.withinAll === null ? '\u2013' : fixed(t.withinAll * 100, 1) + ' %'} of the samples measured.</p>`),
     );
   }
-  return parts.join('');
+  return parts;
 }
 
 /** The whole report, one HTML document. */
 export function reportHtml(r: ReportData): string {
-  const studies = studySection(r);
+  const studies = studySheets(r);
   const last = sheet(
     'turning-sheet',
-    studies ? 'Turning circles, steering limits and studies' : 'Turning circles and steering limits',
-    turningSheet(r) + steeringLimits(r) + (studies || `<p class="small">No studies were run for this report (tiltbench report --with-sensitivity, --with-tolerance N).</p>`) + `<p class="caution">${escapeHtml(SAFETY_CAUTION)}</p>`,
+    'Turning circles and steering limits',
+    turningSheet(r) +
+      steeringLimits(r) +
+      (studies.length ? '' : `<p class="small">No studies were run for this report (tiltbench report --with-sensitivity, --with-tolerance N).</p>`) +
+      `<p class="caution">${escapeHtml(SAFETY_CAUTION)}</p>`,
   );
-  const sheets = [coverSheet(r), hardpointSheet(r), drawingSheet(r), ...curveSheets(r), limitsSheet(r), last];
+  const sheets = [coverSheet(r), hardpointSheet(r), drawingSheet(r), ...curveSheets(r), limitsSheet(r), last, ...studies];
   return (
     `<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><meta name="generator" content="Tiltbench report">` +
     `<meta name="viewport" content="width=device-width, initial-scale=1">` +

@@ -16,16 +16,20 @@ import { loadDesignOrReport, reportArgError, unreadableDesign } from '../command
 import { checkOutputPath, writeWholeOutput, type OutputTarget } from '../outputFile';
 import { MAX_DESIGN_BYTES } from '../loadDesignFile';
 import { clip, MAX_ECHOED_NAME, quoted } from '../safeText';
-import { countOption } from './studyArgs';
+import { boundedOption, countOption } from './studyArgs';
+import { requireGridSize } from '../inputLimits';
+import { DEFAULT_MAP_STEP_DEG } from '../../report/gatherReport';
 
 /** Chromium gets this long to print the report. */
 export const PDF_TIMEOUT_MS = 120_000;
 /** The most Monte Carlo samples a report's tolerance study takes (the study's own command allows more). */
 export const MAX_REPORT_SAMPLES = 2000;
+/** Coarsest envelope map a report draws, deg. */
+export const MAX_MAP_STEP_DEG = 30;
 /** Names tried on the PATH when neither --chromium nor TILTBENCH_CHROMIUM names a browser. */
 export const CHROMIUM_NAMES = ['chromium', 'chromium-browser', 'google-chrome', 'google-chrome-stable'];
 
-export const reportHelp = `tiltbench report <design.tiltsheet> --out REPORT.html|REPORT.pdf [--chromium PATH] [--with-sensitivity] [--with-tolerance N [--seed S]]
+export const reportHelp = `tiltbench report <design.tiltsheet> --out REPORT.html|REPORT.pdf [--chromium PATH] [--with-sensitivity] [--with-tolerance N [--seed S]] [--lean-step DEG] [--steer-step DEG] [--travel-step MM] [--map-step DEG]
   The workshop report of the design, one document: name, SHA-256 of the design file, date,
   units, axes and sign conventions; the hardpoint table; alignment at design position; the
   curves and the envelope map with the operating region (the workbench's charts, as SVG); the
@@ -39,6 +43,9 @@ export const reportHelp = `tiltbench report <design.tiltsheet> --out REPORT.html
   --with-sensitivity    add the sensitivity study (as 'tiltbench sensitivity' by default)
   --with-tolerance N    add the tolerance spread of N Monte Carlo samples (+-0.5 mm on every
                         coordinate, normal; at most ${MAX_REPORT_SAMPLES}); --seed S (default 1)
+  --lean-step DEG, --steer-step DEG, --travel-step MM
+                        grid of the limits table, as 'tiltbench check' (default 1, 1, 10)
+  --map-step DEG        cell size of the envelope map (default ${DEFAULT_MAP_STEP_DEG}, at most ${MAX_MAP_STEP_DEG})
   Never writes over the design. Exit 0 when the report is written (a design that fails its
   check still gets its report: the result is on it), 2 for bad input or when no Chromium is
   found for a PDF (nothing is written), 74 when Chromium fails to print it. ${EXIT_CODES_HELP}`;
@@ -101,8 +108,10 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
   let chromiumFlag: string | undefined;
   let sensitivity: boolean;
   let tolerance: { samples: number; seed: number } | undefined;
+  let checkSteps: { leanDeg: number; handlebarDeg: number; travelMm: number };
+  let mapStepDeg: number;
   try {
-    const args = parseArgs(argv, { flags: ['with-sensitivity'], values: ['out', 'chromium', 'with-tolerance', 'seed'] });
+    const args = parseArgs(argv, { flags: ['with-sensitivity'], values: ['out', 'chromium', 'with-tolerance', 'seed', 'lean-step', 'steer-step', 'travel-step', 'map-step'] });
     if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
     const outPath = args.options.get('out');
@@ -118,6 +127,12 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
     if (args.options.has('with-tolerance')) {
       tolerance = { samples: countOption(args, 'with-tolerance', 'samples', undefined, 1, MAX_REPORT_SAMPLES), seed: countOption(args, 'seed', 'seed', 1, 0, 0xffffffff) };
     } else if (args.options.has('seed')) throw new ArgError('option --seed is for --with-tolerance N');
+    checkSteps = {
+      leanDeg: boundedOption(args, 'lean-step', 'degrees', 1, 0, 90),
+      handlebarDeg: boundedOption(args, 'steer-step', 'degrees', 1, 0, 90),
+      travelMm: boundedOption(args, 'travel-step', 'mm', 10, 0, 1000),
+    };
+    mapStepDeg = boundedOption(args, 'map-step', 'degrees', DEFAULT_MAP_STEP_DEG, 0.1, MAX_MAP_STEP_DEG);
     target = checkOutputPath(outPath, '--out', [{ path: designPath, what: 'design' }]);
   } catch (e) {
     if (e instanceof ArgError && unreadableDesign(argv, io)) return EXIT_BAD_INPUT;
@@ -125,6 +140,14 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
   }
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
+  const { checkGridPoses } = await import('../../analysis/designCheck');
+  try {
+    requireGridSize(checkGridPoses(loaded.design, checkSteps, 'ground'), 'the envelope grid at these steps', 'give a larger --lean-step, --steer-step or --travel-step');
+    const mapCells = (n: number) => 2 * Math.ceil(n / mapStepDeg - 1e-9) + 1;
+    requireGridSize(mapCells(loaded.design.envelope.leanDeg) * mapCells(loaded.design.envelope.handlebarDeg), 'the envelope map at this --map-step', 'give a larger --map-step');
+  } catch (e) {
+    return reportArgError(e, io, 'report', reportHelp);
+  }
   // Before any work: a PDF needs a browser.
   let chromium: string | null = null;
   if (pdf) {
@@ -147,7 +170,7 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
   const name = clip(loaded.file.name, MAX_ECHOED_NAME);
   const data = gatherReport(
     { file: loaded.file, design: loaded.design, fileName: designPath, sha256, madeAt: new Date().toISOString().replace(/\.\d{3}Z$/, 'Z') },
-    { sensitivity, tolerance, onStage: (s) => io.isTty && io.err(`\rreport: ${s}...`.padEnd(40)) },
+    { sensitivity, tolerance, checkSteps, mapStepDeg, onStage: (s) => io.isTty && io.err(`\rreport: ${s}...`.padEnd(40)) },
   );
   if (io.isTty) io.err('\r' + ' '.repeat(40) + '\r');
   const html = reportHtml(data);
