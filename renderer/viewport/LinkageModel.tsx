@@ -6,30 +6,18 @@
  */
 import { useLayoutEffect, useMemo, useRef, type RefObject } from 'react';
 import { useThree, type ThreeEvent } from '@react-three/fiber';
-import {
-  BufferAttribute,
-  BufferGeometry,
-  CircleGeometry,
-  CylinderGeometry,
-  DynamicDrawUsage,
-  IcosahedronGeometry,
-  type InstancedMesh,
-  type LineSegments,
-  type Mesh,
-  MeshLambertMaterial,
-  TorusGeometry,
-} from 'three';
-import type { DrawingLayout } from '../../core/mechanism/drawingLayout';
+import { BufferAttribute, BufferGeometry, CylinderGeometry, DynamicDrawUsage, IcosahedronGeometry, type InstancedMesh, type LineSegments, PlaneGeometry } from 'three';
+import type { DrawingLayout, DrawnFrontWheel } from '../../core/mechanism/drawingLayout';
 import { usePose, useWorkbenchApi } from '../app/workbenchContext';
 import { hardpointRows } from '../model/hardpoints';
-import { PART_COLOUR } from '../model/severity';
-import { JOINT_CAPACITY, LINE_CAPACITY, TUBE_CAPACITY, updateScene } from './sceneUpdate';
-import { renderStats } from './viewSignals';
+import { JOINT_CAPACITY, LINE_CAPACITY, TUBE_CAPACITY, updateScene, type SceneObjects } from './sceneUpdate';
+import { renderStats, shownView, viewShown } from './viewSignals';
 import { describeJoint, describeTube, describeTyre, type HoverSource } from './hoverText';
-
-/** Tyre materials: the front wheels first, then the rear ones. */
-const TYRE_SLOTS = 4;
-const FRONT_SLOTS = 2;
+import { FRONT_SLOTS, type WheelSlot } from './wheelsUpdate';
+import { createWheelSlots } from './wheelSlots';
+import { blobTexture, markGeometries } from './markGeometry';
+import { VIEW_COLOUR } from './palette';
+import { TextLabel } from './textLabel';
 
 function useGeometries() {
   return useMemo(() => {
@@ -44,21 +32,16 @@ function useGeometries() {
       tube: new CylinderGeometry(1, 1, 1, 10, 1, false),
       joint: new IcosahedronGeometry(1, 1),
       line,
-      patch: new CircleGeometry(1, 20),
+      marks: markGeometries(),
+      unitPlane: new PlaneGeometry(1, 1),
     };
   }, []);
 }
 
-/** Torus geometries for the layout's front and rear tyres. */
-function useTyreGeometries(layout: DrawingLayout | null) {
-  return useMemo(() => {
-    const f = layout?.frontWheels[0];
-    const r = layout?.rearWheels[0];
-    return {
-      front: f ? new TorusGeometry(f.rollingRadius - f.crownRadius, f.crownRadius, 8, 36) : null,
-      rear: r ? new TorusGeometry(r.rollingRadius - r.crownRadius, r.crownRadius, 8, 36) : null,
-    };
-  }, [layout]);
+/** The wheel slots' objects, made once per layout (wheelSlots.ts). */
+function useWheelSlots(layout: DrawingLayout | null, marks: SceneObjects['markGeo'], plane: PlaneGeometry) {
+  const shadowTex = useMemo(() => blobTexture(), []);
+  return useMemo(() => createWheelSlots(layout, marks, plane, shadowTex), [layout, marks, plane, shadowTex]);
 }
 
 /** Refs to the scene's objects, filled as they mount. */
@@ -66,27 +49,22 @@ interface SceneRefs {
   tubes: RefObject<InstancedMesh | null>;
   joints: RefObject<InstancedMesh | null>;
   lines: RefObject<LineSegments | null>;
-  tyres: RefObject<(Mesh | null)[]>;
-  patches: RefObject<(Mesh | null)[]>;
-  rear: RefObject<(Mesh | null)[]>;
 }
 
-/** Writes the scene now and whenever the solved pose or the selection changes, then asks for a frame. */
-function useSceneFollowsPose(layout: DrawingLayout | null, refs: SceneRefs, tyreMats: MeshLambertMaterial[], patchMats: MeshLambertMaterial[]): void {
+/** Writes the scene now and whenever the solved pose, the selection or the view changes, then asks for a frame. */
+function useSceneFollowsPose(layout: DrawingLayout | null, refs: SceneRefs, wheels: (WheelSlot | null)[], markGeo: SceneObjects['markGeo'], leanLabel: TextLabel): void {
   const wb = useWorkbenchApi();
   const invalidate = useThree((s) => s.invalidate);
   useLayoutEffect(() => {
     const apply = () => {
-      const input = { outcome: wb.pose.getState().outcome, selection: wb.ui.getState().selection, design: wb.document.getState().design };
+      const input = { outcome: wb.pose.getState().outcome, selection: wb.ui.getState().selection, design: wb.document.getState().design, view: shownView.current };
       updateScene(input, layout, {
         tubes: refs.tubes.current,
         joints: refs.joints.current,
         lines: refs.lines.current,
-        tyres: refs.tyres.current,
-        patches: refs.patches.current,
-        rear: refs.rear.current,
-        tyreMats,
-        patchMats,
+        wheels,
+        markGeo,
+        leanLabel: { object: leanLabel.sprite, set: (t) => leanLabel.set(t) },
       });
       renderStats.sceneSerial++;
       invalidate();
@@ -99,11 +77,13 @@ function useSceneFollowsPose(layout: DrawingLayout | null, refs: SceneRefs, tyre
     const offUi = wb.ui.subscribe((s, prev) => {
       if (s.selection !== prev.selection) apply();
     });
+    const offView = viewShown.on(apply);
     return () => {
       offPose();
       offUi();
+      offView();
     };
-  }, [wb, layout, refs, invalidate, tyreMats, patchMats]);
+  }, [wb, layout, refs, invalidate, wheels, markGeo, leanLabel]);
 }
 
 /** Shows and hides the hover tip; `source` is what the tip's words are read from. */
@@ -131,16 +111,12 @@ export function LinkageModel() {
   const tubes = useRef<InstancedMesh>(null);
   const joints = useRef<InstancedMesh>(null);
   const lines = useRef<LineSegments>(null);
-  const tyreRefs = useRef<(Mesh | null)[]>([]);
-  const patchRefs = useRef<(Mesh | null)[]>([]);
-  const rearRefs = useRef<(Mesh | null)[]>([]);
-  const refs = useMemo<SceneRefs>(() => ({ tubes, joints, lines, tyres: tyreRefs, patches: patchRefs, rear: rearRefs }), []);
+  const refs = useMemo<SceneRefs>(() => ({ tubes, joints, lines }), []);
 
   const geo = useGeometries();
-  const tyreGeo = useTyreGeometries(layout);
-  const tyreMats = useMemo(() => Array.from({ length: TYRE_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.tyre })), []);
-  const patchMats = useMemo(() => Array.from({ length: FRONT_SLOTS }, () => new MeshLambertMaterial({ color: PART_COLOUR.rim })), []);
-  useSceneFollowsPose(layout, refs, tyreMats, patchMats);
+  const slots = useWheelSlots(layout, geo.marks, geo.unitPlane);
+  const leanLabel = useMemo(() => new TextLabel('', { colour: '#ffffff', backdrop: VIEW_COLOUR.lean, height: 55, bold: true }), []);
+  useSceneFollowsPose(layout, refs, slots, geo.marks, leanLabel);
   const { source, show: hover, hide: unhover } = useHoverTip();
 
   /** The hardpoint under the pointer: a drawn joint, or a hardpoint drawn as entered. */
@@ -176,19 +152,20 @@ export function LinkageModel() {
       <lineSegments ref={lines} geometry={geo.line} frustumCulled={false} raycast={() => null}>
         <lineBasicMaterial vertexColors />
       </lineSegments>
-      {tyreGeo.front &&
-        layout?.frontWheels.slice(0, FRONT_SLOTS).map((w, i) => (
-          <mesh key={w.id} ref={(m) => { tyreRefs.current[i] = m; }} geometry={tyreGeo.front!} material={tyreMats[i]}
-            onPointerMove={(e) => hover(e, describeTyre(w, source()))} onPointerOut={unhover} />
-        ))}
-      {layout?.frontWheels.slice(0, FRONT_SLOTS).map((w, i) => (
-        <mesh key={w.id} ref={(m) => { patchRefs.current[i] = m; }} geometry={geo.patch} material={patchMats[i]}
-          onPointerMove={(e) => hover(e, describeTyre(w, source()))} onPointerOut={unhover} />
-      ))}
-      {tyreGeo.rear &&
-        layout?.rearWheels.slice(0, TYRE_SLOTS - FRONT_SLOTS).map((w, i) => (
-          <mesh key={w.id} ref={(m) => { rearRefs.current[i] = m; }} geometry={tyreGeo.rear!} material={tyreMats[FRONT_SLOTS + i]} raycast={() => null} />
-        ))}
+      <primitive object={leanLabel.sprite} />
+      {slots.map((slot, i) =>
+        slot ? (
+          <group key={`${i}-${slot.wheel.id}`}>
+            <primitive object={slot.shadow} />
+            <primitive object={slot.mark} />
+            <primitive
+              object={slot.group}
+              onPointerMove={i < FRONT_SLOTS ? (e: ThreeEvent<PointerEvent>) => hover(e, describeTyre(slot.wheel as DrawnFrontWheel, source())) : undefined}
+              onPointerOut={i < FRONT_SLOTS ? unhover : undefined}
+            />
+          </group>
+        ) : null,
+      )}
     </group>
   );
 }

@@ -2,9 +2,10 @@
  * Renders each requested frame itself (so it can time it), and keeps the resolution low while
  * something moves and full once still.
  */
-import { useEffect, useRef } from 'react';
+import { useEffect, useMemo, useRef } from 'react';
 import { useFrame, useThree } from '@react-three/fiber';
 import { motion, renderStats } from './viewSignals';
+import { AxisTriad } from './AxisTriad';
 
 /** Fraction of the full pixel ratio used while the picture moves. */
 export const MOVING_DPR_FACTOR = 0.6;
@@ -16,6 +17,7 @@ export function RenderDriver({ fullDpr }: { fullDpr: number }) {
   const gl = useThree((s) => s.gl);
   const invalidate = useThree((s) => s.invalidate);
   const lowered = useRef(false);
+  const triad = useMemo(() => new AxisTriad(), []);
 
   useEffect(() => {
     const ctx = gl.getContext();
@@ -50,6 +52,7 @@ export function RenderDriver({ fullDpr }: { fullDpr: number }) {
   useFrame(({ gl: renderer, scene, camera }) => {
     const serial = renderStats.sceneSerial;
     renderer.render(scene, camera);
+    triad.render(renderer, camera);
     renderStats.frames++;
     renderStats.renderedSerial = serial;
     renderStats.lastRenderAt = performance.now();

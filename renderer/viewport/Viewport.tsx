@@ -1,34 +1,49 @@
 /** The 3D viewport and the DOM around it: view buttons, legend, status, hover tip. */
 import { Canvas } from '@react-three/fiber';
 import { useActions, useDocument, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
-import { SEVERITY_STYLE, SEVERITY_ORDER, PART_COLOUR } from '../model/severity';
+import { SEVERITY_STYLE, SEVERITY_ORDER } from '../model/severity';
+import { VIEW_COLOUR } from './palette';
 import { CameraRig } from './CameraRig';
 import { GroundGrid } from './GroundGrid';
 import { LinkageModel } from './LinkageModel';
+import { ReferenceGhost } from './ReferenceGhost';
 import { RenderDriver } from './RenderDriver';
 import { HardpointGizmo } from './HardpointGizmo';
 import { ViewportBoundary } from './ViewportBoundary';
-import { viewRequests, type ViewName } from './viewSignals';
+import { shownView, viewRequests, viewShown, type ShownView, type ViewName } from './viewSignals';
 import { setGizmo, type GizmoConstraint } from '../state/uiStore';
 import { rowName, hardpointRows } from '../model/hardpoints';
-import { useEffect } from 'react';
+import { useEffect, useSyncExternalStore } from 'react';
 import { SNAP_STEPS_MM } from './precision';
 import { handleNudgeKey } from './nudgeKeys';
+import { halfTrackOf } from './markGeometry';
 
 const FULL_DPR = Math.min(2, typeof window === 'undefined' ? 1 : window.devicePixelRatio || 1);
 
 const VIEWS: { view: ViewName; label: string; title: string }[] = [
-  { view: 'front', label: 'Front', title: 'Look from the front (along −x)' },
-  { view: 'side', label: 'Side', title: 'Look from the left side (along −y)' },
-  { view: 'top', label: 'Top', title: 'Look down (along −z), forward up' },
-  { view: 'threeQuarter', label: '¾', title: 'Three-quarter view from the front left' },
-  { view: 'fit', label: 'Fit', title: 'Fit everything in view' },
+  { view: 'threeQuarter', label: '3D', title: 'Perspective from the front left; drag to orbit' },
+  { view: 'front', label: 'Front', title: 'Front elevation, true to scale (looking along −x; the vehicle’s left on the right); shows the lean angle' },
+  { view: 'side', label: 'Side', title: 'Side elevation from the left, true to scale (looking along −y); the near wheel see-through' },
+  { view: 'top', label: 'Top', title: 'Plan, true to scale (looking down along −z; forward up)' },
+  { view: 'fit', label: 'Fit', title: 'Fit everything, every wheel included, in this view' },
 ];
+
+function useShownView(): ShownView {
+  return useSyncExternalStore(
+    (cb) => viewShown.on(cb),
+    () => shownView.current,
+  );
+}
 
 export function Viewport() {
   const { ui } = useWorkbenchApi();
   const wheelbase = useDocument((s) => s.design.vehicle.wheelbaseMm);
+  const rearRadius = useDocument((s) => s.design.wheels.rear.rollingRadiusMm);
+  const frontRadius = useDocument((s) => s.design.wheels.front.rollingRadiusMm);
+  // Rounded so the ground is not rebuilt as the contact patches move in playback.
+  const halfTrack = usePose((s) => halfTrackOf(s.outcome.snapshot?.wheels.left.contactPoint[1]));
   const wb = useWorkbenchApi();
+  const view = useShownView();
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => void handleNudgeKey(wb, e);
     window.addEventListener('keydown', onKey);
@@ -44,11 +59,16 @@ export function Viewport() {
           camera={{ up: [0, 0, 1], position: [1800, 1400, 1000], fov: 32, near: 10, far: 40000 }}
           onPointerMissed={() => ui.setState({ hover: null })}
         >
-          <color attach="background" args={['#f3f4f0']} />
+          <color attach="background" args={[VIEW_COLOUR.background]} />
           <ambientLight intensity={1.9} />
           <directionalLight position={[1500, 1100, 2600]} intensity={2.3} />
-          <GroundGrid rearX={-(Number.isFinite(wheelbase) ? wheelbase : 1000) - 400} />
+          <GroundGrid
+            rearX={-(Number.isFinite(wheelbase) ? wheelbase : 1000) - (Number.isFinite(rearRadius) ? rearRadius : 300)}
+            halfTrack={halfTrack}
+            frontReach={Number.isFinite(frontRadius) ? frontRadius : 250}
+          />
           <LinkageModel />
+          <ReferenceGhost />
           <HardpointGizmo />
           <CameraRig />
           <RenderDriver fullDpr={FULL_DPR} />
@@ -56,7 +76,15 @@ export function Viewport() {
       </ViewportBoundary>
       <div className="view-bar" role="toolbar" aria-label="Views">
         {VIEWS.map((v) => (
-          <button key={v.view} type="button" title={v.title} onClick={() => viewRequests.emit(v.view)}>
+          <button
+            key={v.view}
+            type="button"
+            title={v.title}
+            aria-pressed={v.view === view}
+            className={v.view === view ? 'is-active' : ''}
+            data-testid={`view-${v.view}`}
+            onClick={() => viewRequests.emit(v.view)}
+          >
             {v.label}
           </button>
         ))}
@@ -108,21 +136,21 @@ function Legend() {
           {SEVERITY_STYLE[s].glyph} {SEVERITY_STYLE[s].word}
         </span>
       ))}
-      <span className="legend-item" title="the selected hardpoint">
-        <span className="swatch" style={{ background: PART_COLOUR.selection }} />
-        selected
+      <span className="legend-item" title="the selected hardpoint: a larger ball inside three rings">
+        <span className="swatch" style={{ background: VIEW_COLOUR.selection }} />
+        ◎ selected
       </span>
       <span className="legend-item" title="steering axes, drawn through to the ground">
-        <span className="swatch line" style={{ background: PART_COLOUR.axis }} />
+        <span className="swatch line" style={{ background: VIEW_COLOUR.axis }} />
         steering axis
       </span>
-      <span className="legend-item" title="the turn centre (star) and the path each wheel should roll on about it">
-        <span className="swatch line" style={{ background: PART_COLOUR.path }} />
+      <span className="legend-item" title="the turn centre (star) and the path each wheel should roll on about it (dashed)">
+        <span className="swatch line dashed" style={{ color: VIEW_COLOUR.path }} />
         turn centre, paths
       </span>
       <span
         className="legend-item legend-help"
-        title="Contact patches (and tyres when not within): slip and tyre clearance against the design's tolerances. Joints: articulation against rating and required margin. Parts: clearances and dead centre. Grey: no check applies. Hover a part for its numbers."
+        title="Contact marks under the front tyres (and the tyres when not within): slip and tyre clearance against the design's tolerances; the mark's shape repeats the status: disc within, triangle close, cross over, slashed ring won't assemble. Joints: articulation against rating and required margin. Parts: clearances and dead centre; a part over a tolerance or that will not close is drawn thicker. Grey: no check applies. Hover a part for its numbers."
       >
         (?) what is coloured
       </span>

@@ -4,18 +4,19 @@
  * mechanism body, point or constraint.
  */
 import { checksShownBy, type DrawingLayout, type PartClass } from '../../core/mechanism/drawingLayout';
-import { PART_COLOUR, worse, type Severity } from '../model/severity';
+import { worse, type Severity } from '../model/severity';
+import { VIEW_COLOUR } from './palette';
 
 /** Neutral colour per part class (no check colouring it). */
 export const PART_CLASS_COLOUR: Record<PartClass, string> = {
-  frame: PART_COLOUR.frame,
-  wishbone: PART_COLOUR.wishbone,
-  upright: PART_COLOUR.upright,
-  steering: PART_COLOUR.steering,
-  tieRod: PART_COLOUR.tieRod,
-  spring: PART_COLOUR.spring,
-  handlebar: PART_COLOUR.steering,
-  axis: PART_COLOUR.axis,
+  frame: VIEW_COLOUR.frame,
+  wishbone: VIEW_COLOUR.wishbone,
+  upright: VIEW_COLOUR.upright,
+  steering: VIEW_COLOUR.steering,
+  tieRod: VIEW_COLOUR.tieRod,
+  spring: VIEW_COLOUR.spring,
+  handlebar: VIEW_COLOUR.steering,
+  axis: VIEW_COLOUR.axis,
 };
 
 /** Per layout, the conditions keys of the loop-closing constraints each part stands for. */

@@ -1,40 +1,37 @@
 /**
  * Writes the linkage's three.js objects for a pose, from core's drawing layout and the pose
- * outcome: tube and joint instances, axis, outline and path lines, tyres and contact patches.
+ * outcome: tube and joint instances, axis, outline, frame hoop, selection halo, path and lean
+ * lines, and the wheels (wheelsUpdate.ts).
  * LinkageModel makes the objects once; this only sets matrices, colours and visibility, with
  * module-level scratch objects (no allocation per part).
  */
-import {
-  Color,
-  Matrix4,
-  Object3D,
-  Quaternion,
-  Vector3,
-  type BufferAttribute,
-  type InstancedMesh,
-  type LineSegments,
-  type Mesh,
-  type MeshLambertMaterial,
-} from 'three';
+import { Color, Matrix4, Object3D, Vector3, type BufferAttribute, type BufferGeometry, type InstancedMesh, type LineSegments } from 'three';
 import type { PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import type { DrawingLayout } from '../../core/mechanism/drawingLayout';
 import type { DesignFile } from '../../core/design/types';
 import type { PoseOutcome } from '../model/analysisAdapter';
 import { hardpointRows } from '../model/hardpoints';
-import { PART_COLOUR, SEVERITY_STYLE, type Severity } from '../model/severity';
+import { SEVERITY_STYLE, type Severity } from '../model/severity';
 import { PART_CLASS_COLOUR, partCondition } from './drawingParts';
+import { VIEW_COLOUR } from './palette';
 import { bodyIndexOf, bodyPose, place } from './scenePlacement';
+import { drawWheels, hideSlot, type WheelSlot } from './wheelsUpdate';
 
-export const TUBE_CAPACITY = 64;
+export const TUBE_CAPACITY = 96;
 export const JOINT_CAPACITY = 64;
-export const LINE_CAPACITY = 200;
+export const LINE_CAPACITY = 420;
 /** Half the length of each wheel's path arc drawn on the ground, mm. */
 const PATH_HALF_MM = 700;
-const PATH_SEGMENTS = 14;
+/** Segments of each path arc; every other one is drawn (dashed: the paths' second channel besides colour). */
+const PATH_SEGMENTS = 20;
 /** Paths, radii and the turn-centre cross are left out beyond this distance, mm. */
 const FAR_MM = 30000;
 /** Drawn size of a joint ball relative to its radius when selected. */
 const SELECTED_SCALE = 1.7;
+/** Radius of the selection halo's rings relative to the joint's radius. */
+const HALO_SCALE = 3.2;
+/** Tubes and joints over a tolerance or in a loop that will not close are drawn this much thicker (a second channel). */
+const ALERT_SCALE = 1.45;
 const Y = new Vector3(0, 1, 0);
 const Z = new Vector3(0, 0, 1);
 
@@ -42,7 +39,7 @@ const Z = new Vector3(0, 0, 1);
 const va = new Vector3();
 const vb = new Vector3();
 const vd = new Vector3();
-const q = new Quaternion();
+const vc = new Vector3();
 const m4 = new Matrix4();
 const dummy = new Object3D();
 const colour = new Color();
@@ -51,12 +48,18 @@ export interface SceneObjects {
   tubes: InstancedMesh | null;
   joints: InstancedMesh | null;
   lines: LineSegments | null;
-  /** Front tyres and their contact patches, in the layout's order of front wheels. */
-  tyres: (Mesh | null)[];
-  patches: (Mesh | null)[];
-  rear: (Mesh | null)[];
-  tyreMats: MeshLambertMaterial[];
-  patchMats: MeshLambertMaterial[];
+  /** The wheels: the layout's front wheels first, then its rear wheels (wheelsUpdate.ts). */
+  wheels: (WheelSlot | null)[];
+  /** Contact mark shapes, one per status. */
+  markGeo: Record<Severity, BufferGeometry>;
+  /** The lean angle's label in the front view. */
+  leanLabel?: LeanLabel | null;
+}
+
+/** A text label in the scene (textLabel.ts's, or a stand-in in tests). */
+export interface LeanLabel {
+  object: Object3D;
+  set(text: string): void;
 }
 
 /** What the scene shows: the outcome of the pose, the selected hardpoint, the design (drawn as entered when nothing is solved). */
@@ -64,11 +67,15 @@ export interface SceneInput {
   outcome: PoseOutcome;
   selection: string | null;
   design: DesignFile;
+  /** The view shown: 'front' adds the lean angle, 'side' draws the near wheel see-through. */
+  view?: string | null;
 }
 
 function severityColour(s: Severity | undefined, fallback: string): string {
   return s && s !== 'none' ? SEVERITY_STYLE[s].colour : fallback;
 }
+
+const alerting = (s: Severity | undefined) => s === 'over' || s === 'broken';
 
 /** Fills the instances and line vertices of one update, counting what it wrote. */
 class SceneWriter {
@@ -158,9 +165,11 @@ export function updateScene(input: SceneInput, layout: DrawingLayout | null, o: 
     drawJoints(pose);
     drawAxisLines(pose);
     drawOutline(pose);
+    drawFrameHoop(pose);
     if (input.outcome.shown === 'requested') drawTurnPaths(pose);
-    drawFrontWheels(pose, o);
-    drawRearWheels(pose, o);
+    drawLean(pose, input.view === 'front' ? (o.leanLabel ?? null) : null);
+    if (o.leanLabel && input.view !== 'front') o.leanLabel.object.visible = false;
+    drawWheels({ outcome: input.outcome, layout, snap, view: input.view ?? null }, o.wheels, o.markGeo);
   } else {
     drawAsEntered(input, w, o);
   }
@@ -170,7 +179,8 @@ export function updateScene(input: SceneInput, layout: DrawingLayout | null, o: 
 function drawTubes({ input, layout, snap, bodies, w }: Pose): void {
   for (const t of layout.tubes) {
     if (!place(t.a, snap, bodies, va) || !place(t.b, snap, bodies, vb)) continue;
-    w.tube(va, vb, t.radius, severityColour(partCondition(layout, input.outcome.parts, t.id), PART_CLASS_COLOUR[t.part]));
+    const sev = partCondition(layout, input.outcome.parts, t.id);
+    w.tube(va, vb, t.radius * (alerting(sev) ? ALERT_SCALE : 1), severityColour(sev, PART_CLASS_COLOUR[t.part]));
   }
 }
 
@@ -194,9 +204,31 @@ function drawJoints({ input, layout, snap, bodies, w }: Pose): void {
   for (const j of layout.joints) {
     if (!place(j.at, snap, bodies, va)) continue;
     const selected = input.selection === j.hardpoint;
-    const hex = selected ? PART_COLOUR.selection : out.shown === 'as-entered' ? SEVERITY_STYLE.broken.colour : severityColour(out.parts[j.id], PART_COLOUR.joint);
-    w.joint(va, j.radius * (selected ? SELECTED_SCALE : 1), hex);
+    const sev = out.parts[j.id];
+    const hex = selected ? VIEW_COLOUR.selection : out.shown === 'as-entered' ? SEVERITY_STYLE.broken.colour : severityColour(sev, VIEW_COLOUR.joint);
+    w.joint(va, j.radius * (selected ? SELECTED_SCALE : alerting(sev) ? ALERT_SCALE : 1), hex);
+    if (selected) halo(w, va, j.radius * HALO_SCALE);
   }
+}
+
+/** Three rings about a point (in the x-y, y-z and x-z planes): the selection's mark beside its colour. */
+function halo(w: SceneWriter, c: Vector3, r: number): void {
+  const n = 20;
+  for (let plane = 0; plane < 3; plane++) {
+    for (let k = 0; k < n; k++) {
+      const t0 = (2 * Math.PI * k) / n;
+      const t1 = (2 * Math.PI * (k + 1)) / n;
+      ring(vb, plane, r, t0).add(c);
+      ring(vd, plane, r, t1).add(c);
+      w.line(vb, vd, VIEW_COLOUR.selection);
+    }
+  }
+}
+
+function ring(out: Vector3, plane: number, r: number, t: number): Vector3 {
+  const a = r * Math.cos(t);
+  const b = r * Math.sin(t);
+  return plane === 0 ? out.set(a, b, 0) : plane === 1 ? out.set(0, a, b) : out.set(a, 0, b);
 }
 
 function drawAxisLines({ layout, snap, bodies, w }: Pose): void {
@@ -227,6 +259,76 @@ function drawOutline({ layout, snap, bodies, w }: Pose): void {
   }
 }
 
+/**
+ * A frame hoop: a rectangle across the frame at the handlebar, fixed in the frame, from near
+ * the ground to the bar's height, so the frame's lean reads at a glance in every view.
+ */
+function drawFrameHoop({ layout, snap, bodies, w }: Pose): void {
+  const h = layout.handlebar;
+  if (!h || !bodyPose(h.body, snap, bodies, m4)) return;
+  const x = h.at[0];
+  const half = h.halfWidth;
+  const z0 = 120;
+  const z1 = Math.max(h.at[2], z0 + 300);
+  const c: [number, number][] = [[-half, z0], [half, z0], [half, z1], [-half, z1]];
+  for (let k = 0; k < 4; k++) {
+    const [y0, za] = c[k];
+    const [y1, zb] = c[(k + 1) % 4];
+    va.set(x, y0, za).applyMatrix4(m4);
+    vb.set(x, y1, zb).applyMatrix4(m4);
+    w.line(va, vb, VIEW_COLOUR.frame);
+  }
+}
+
+/**
+ * The lean in the front view: the vertical and the frame's up axis from the roll axis (the x
+ * axis through the origin, README's definition), the arc between them and its label in
+ * degrees with the side that is down. The frame's up axis is read from the pose of the body
+ * carrying the handlebar (the frame), so the drawing shows the lean the solved frame has.
+ */
+/** Radius of the front view's lean arc: reaching just above the frame and the rear wheel, where it is clear of them. */
+export function leanGaugeRadius(layout: DrawingLayout): number {
+  const top = Math.max(layout.handlebar?.at[2] ?? 0, ...layout.rearWheels.map((w) => 2 * w.rollingRadius), 400);
+  return Math.min(1400, 1.12 * top);
+}
+
+function drawLean({ layout, snap, bodies, w }: Pose, label: LeanLabel | null): void {
+  const body = layout.handlebar?.body ?? layout.outline?.body ?? layout.rearWheels[0]?.body;
+  if (!label || !body || !bodyPose(body, snap, bodies, m4)) return;
+  // Frame up in world: the rotation's third column.
+  vc.set(0, 0, 1).transformDirection(m4);
+  const leanRad = Math.atan2(-vc.y, vc.z); // positive lean lowers the right (-y) side
+  // In front of everything the front elevation shows, reaching about the frame's height.
+  const x = Math.max(snap.wheels.left.centre[0], snap.wheels.right.centre[0]) + 400;
+  const r = leanGaugeRadius(layout);
+  // The vertical, dashed.
+  for (let k = 0; k < 11; k += 2) {
+    va.set(x, 0, (r * 1.1 * k) / 11);
+    vb.set(x, 0, (r * 1.1 * (k + 1)) / 11);
+    w.tube(va, vb, 2.5, VIEW_COLOUR.vertical);
+  }
+  // The frame's up axis and the arc from the vertical to it, as thin rods (lines are one pixel).
+  va.set(x, 0, 0);
+  vb.set(x, -Math.sin(leanRad) * r * 1.1, Math.cos(leanRad) * r * 1.1);
+  w.tube(va, vb, 4, VIEW_COLOUR.lean);
+  const n = Math.max(1, Math.min(16, Math.ceil(Math.abs(leanRad) / (Math.PI / 60))));
+  if (Math.abs(leanRad) > 1e-4) {
+    for (let k = 0; k < n; k++) {
+      const t0 = (leanRad * k) / n;
+      const t1 = (leanRad * (k + 1)) / n;
+      va.set(x, -Math.sin(t0) * r, Math.cos(t0) * r);
+      vb.set(x, -Math.sin(t1) * r, Math.cos(t1) * r);
+      w.tube(va, vb, 3.5, VIEW_COLOUR.lean);
+    }
+  }
+  const deg = (leanRad * 180) / Math.PI;
+  const upright = Math.abs(deg) < 0.05;
+  label.set(`lean ${upright ? '0.0' : deg.toFixed(1)}° · ${upright ? 'upright' : deg > 0 ? 'right side down' : 'left side down'}`);
+  // Just beyond the top of the frame's axis.
+  label.object.position.set(x, -Math.sin(leanRad) * r * 1.18, Math.cos(leanRad) * r * 1.18 + 20);
+  label.object.visible = true;
+}
+
 /** The turn centre and each wheel's path about it (from core's slip analysis). */
 function drawTurnPaths({ input, layout, snap, bodies, w }: Pose): void {
   const centre = input.outcome.analysis?.slip.turnCentreMm;
@@ -245,61 +347,26 @@ function drawTurnPaths({ input, layout, snap, bodies, w }: Pose): void {
     if (!(radius > 1)) continue;
     const a0 = Math.atan2(py - centre.y, px - centre.x);
     const half = Math.min(Math.PI / 3, PATH_HALF_MM / radius);
-    for (let k = 0; k < PATH_SEGMENTS; k++) {
+    for (let k = 0; k < PATH_SEGMENTS; k += 2) {
       const t0 = a0 - half + (2 * half * k) / PATH_SEGMENTS;
       const t1 = a0 - half + (2 * half * (k + 1)) / PATH_SEGMENTS;
       va.set(centre.x + radius * Math.cos(t0), centre.y + radius * Math.sin(t0), 1);
       vb.set(centre.x + radius * Math.cos(t1), centre.y + radius * Math.sin(t1), 1);
-      w.line(va, vb, PART_COLOUR.path);
+      w.line(va, vb, VIEW_COLOUR.path);
     }
     if (radius < FAR_MM) {
       va.set(centre.x, centre.y, 1);
       vb.set(px, py, 1);
-      w.line(va, vb, PART_COLOUR.pathRadius);
+      w.line(va, vb, VIEW_COLOUR.pathRadius);
     }
   }
   if (Math.hypot(centre.x, centre.y) < FAR_MM) {
     for (const [dx, dy] of [[60, 0], [0, 60], [42, 42], [42, -42]] as const) {
       va.set(centre.x - dx, centre.y - dy, 1);
       vb.set(centre.x + dx, centre.y + dy, 1);
-      w.line(va, vb, PART_COLOUR.path);
+      w.line(va, vb, VIEW_COLOUR.path);
     }
   }
-}
-
-/** Front tyres and contact patches; a tyre within tolerance keeps its colour, its patch shows the condition. */
-function drawFrontWheels({ input, layout, snap }: Pose, o: SceneObjects): void {
-  const out = input.outcome;
-  layout.frontWheels.forEach((fw, i) => {
-    const wheel = snap.wheels[fw.side];
-    const sev: Severity = out.shown === 'as-entered' ? 'broken' : (out.parts[fw.id] ?? 'none');
-    const tyre = o.tyres[i];
-    if (tyre) {
-      tyre.visible = true;
-      tyre.position.set(wheel.centre[0], wheel.centre[1], wheel.centre[2]);
-      tyre.quaternion.setFromUnitVectors(Z, vd.set(wheel.spinAxis[0], wheel.spinAxis[1], wheel.spinAxis[2]).normalize());
-      o.tyreMats[i].color.set(sev === 'within' ? PART_COLOUR.tyre : severityColour(sev, PART_COLOUR.tyre));
-    }
-    const patch = o.patches[i];
-    if (patch) {
-      patch.visible = true;
-      const c = wheel.contactPoint;
-      patch.position.set(c[0], c[1], Math.max(c[2], 0) + 1.5);
-      patch.scale.set(fw.width * 0.9, fw.width * 0.9, 1);
-      o.patchMats[i].color.set(severityColour(sev, PART_COLOUR.rim));
-    }
-  });
-}
-
-function drawRearWheels({ layout, snap, bodies }: Pose, o: SceneObjects): void {
-  layout.rearWheels.forEach((rw, i) => {
-    const mesh = o.rear[i];
-    if (!mesh || !bodyPose(rw.body, snap, bodies, m4)) return;
-    mesh.visible = true;
-    mesh.position.set(rw.centre[0], rw.centre[1], rw.centre[2]).applyMatrix4(m4);
-    q.setFromRotationMatrix(m4);
-    mesh.quaternion.setFromUnitVectors(Z, vd.set(rw.spinAxis[0], rw.spinAxis[1], rw.spinAxis[2])).premultiply(q);
-  });
 }
 
 /** Invalid design: only the hardpoints as entered, in the "won't assemble" colour. */
@@ -309,7 +376,9 @@ function drawAsEntered(input: SceneInput, w: SceneWriter, o: SceneObjects): void
     if (![p?.x, p?.y, p?.z].every((c) => typeof c === 'number' && Number.isFinite(c))) continue;
     va.set(p.x, p.y, p.z);
     const selected = input.selection === r.id;
-    w.joint(va, 13 * (selected ? SELECTED_SCALE : 1), selected ? PART_COLOUR.selection : SEVERITY_STYLE.broken.colour);
+    w.joint(va, 13 * (selected ? SELECTED_SCALE : 1), selected ? VIEW_COLOUR.selection : SEVERITY_STYLE.broken.colour);
+    if (selected) halo(w, va, 13 * HALO_SCALE);
   }
-  for (const m of [...o.tyres, ...o.patches, ...o.rear]) if (m) m.visible = false;
+  for (const s of o.wheels) if (s) hideSlot(s);
+  if (o.leanLabel) o.leanLabel.object.visible = false;
 }

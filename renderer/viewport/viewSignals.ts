@@ -23,6 +23,19 @@ class Channel<T> {
 /** "Show this view" requests from the view buttons. */
 export const viewRequests = new Channel<ViewName>();
 
+/** The view on screen: an elevation ('front', 'side', 'top') or the perspective ('threeQuarter', also after orbiting). */
+export type ShownView = Exclude<ViewName, 'fit'>;
+
+/** The view now shown, and a channel that tells when it changes (the scene redraws what depends on it). */
+export const shownView = { current: 'threeQuarter' as ShownView };
+export const viewShown = new Channel<ShownView>();
+
+export function setShownView(v: ShownView): void {
+  if (shownView.current === v) return;
+  shownView.current = v;
+  viewShown.emit(v);
+}
+
 /** Pinged by anything that moves the picture continuously (sliders, playback, orbit, gizmo). */
 export const motion = new Channel<void>();
 

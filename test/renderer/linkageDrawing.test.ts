@@ -13,9 +13,9 @@ import {
   InstancedMesh,
   LineSegments,
   Matrix4,
-  MeshLambertMaterial,
   Vector3,
 } from 'three';
+import { markGeometries } from '../../renderer/viewport/markGeometry';
 import { buildMechanism } from '../../core/mechanism/templates/buildMechanism';
 import { drawingPartsFor } from '../../core/mechanism/drawingLayout';
 import { resolveDesign } from '../../core/design/resolveDesign';
@@ -32,11 +32,8 @@ function sceneObjects(): SceneObjects {
     tubes: new InstancedMesh(new CylinderGeometry(), undefined, TUBE_CAPACITY),
     joints: new InstancedMesh(new IcosahedronGeometry(), undefined, JOINT_CAPACITY),
     lines: new LineSegments(line),
-    tyres: [],
-    patches: [],
-    rear: [],
-    tyreMats: [0, 1, 2, 3].map(() => new MeshLambertMaterial()),
-    patchMats: [0, 1].map(() => new MeshLambertMaterial()),
+    wheels: [],
+    markGeo: markGeometries(),
   };
 }
 
