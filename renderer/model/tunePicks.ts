@@ -39,3 +39,19 @@ export function pickedAxes(picks: readonly TunePick[], row: HardpointRow): Axis[
 export function stalePicks(picks: readonly TunePick[], validIds: ReadonlySet<string>): TunePick[] {
   return picks.filter((p) => !validIds.has(p.id));
 }
+
+/**
+ * The coordinate ids a fit moves for the picks: a mirrored pair's pick stands for both sides,
+ * and with `eachSide` each side becomes its own coordinate (a built vehicle's errors are not
+ * mirrored).
+ */
+export function fitIdsOf(picks: readonly TunePick[], eachSide: boolean): string[] {
+  const out: string[] = [];
+  for (const p of picks) {
+    const m = /^(.*):([xyz])$/.exec(p.id);
+    const sided = m !== null && !/\.(right|left)$/.test(m[1]) && /\.(right|left)$/.test(p.rowId);
+    const ids = eachSide && m && sided ? [`${m[1]}.right:${m[2]}`, `${m[1]}.left:${m[2]}`] : [p.id];
+    for (const id of ids) if (!out.includes(id)) out.push(id);
+  }
+  return out;
+}

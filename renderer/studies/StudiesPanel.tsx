@@ -1,9 +1,10 @@
 /**
- * The design studies beside the hardpoint table: tune, proposals, tolerance spread and the
- * comparison with a reference design. Each runs in the sweep worker with progress and cancel.
+ * The design studies beside the hardpoint table: tune, proposals, tolerance spread, the fit to
+ * a built vehicle's measurements and the comparison with a reference design. Each runs in the sweep worker with progress and cancel.
  */
 import { useState } from 'react';
 import { ComparePanel } from './ComparePanel';
+import { FitPanel } from './FitPanel';
 import { ProposalsPanel } from './ProposalsPanel';
 import { SpreadPanel } from './SpreadPanel';
 import { TunePanel } from './TunePanel';
@@ -12,6 +13,7 @@ const TABS = [
   { id: 'tune', label: 'Tune', title: 'Move the points you tick to bring the measures you choose inside their tolerances' },
   { id: 'proposals', label: 'Proposals', title: 'Classic constructions applied to this design, with their effect' },
   { id: 'spread', label: 'Spread', title: 'What manufacturing tolerances do to the measures' },
+  { id: 'fit', label: 'Fit', title: 'Where the points of a built vehicle really are, from measurements taken on it' },
   { id: 'compare', label: 'Compare', title: 'This design against a reference' },
 ] as const;
 
@@ -38,6 +40,9 @@ export function StudiesPanel() {
       </div>
       <div hidden={tab !== 'spread'}>
         <SpreadPanel />
+      </div>
+      <div hidden={tab !== 'fit'}>
+        <FitPanel />
       </div>
       <div hidden={tab !== 'compare'}>
         <ComparePanel />

@@ -1,7 +1,7 @@
 /** One job of any kind, run where it is called (the worker, or the main thread as a fallback). */
 import { computeCurves, computeMap, type Progress } from './sweepJobs';
 import { computeSensitivity } from './sensitivityJob';
-import { computeProposals, computeTolerance, computeTune, computeVariants } from './studyJobs';
+import { computeFit, computeProposals, computeTolerance, computeTune, computeVariants } from './studyJobs';
 import type { JobKinds, SweepRequest } from './sweepProtocol';
 
 export function runJob(req: SweepRequest, progress?: Progress): JobKinds[SweepRequest['kind']]['data'] {
@@ -20,5 +20,7 @@ export function runJob(req: SweepRequest, progress?: Progress): JobKinds[SweepRe
       return computeProposals(req.request, progress);
     case 'variants':
       return computeVariants(req.request, progress);
+    case 'fit':
+      return computeFit(req.request, progress);
   }
 }

@@ -9,6 +9,8 @@ import { runToleranceSpread, type ToleranceOptions, type ToleranceReport } from 
 import { runTune, type TuneReport } from '../../core/studies/tune';
 import { checkVariables, type TunePlan } from '../../core/studies/tunePlan';
 import { compareVariants, type Variant, type VariantsReport } from '../../core/studies/variants';
+import { runFit, type FitReport } from '../../core/studies/fit';
+import { prepareFit } from '../../core/studies/fitInput';
 import type { Progress } from './sweepJobs';
 
 export interface TuneRequest {
@@ -51,4 +53,20 @@ export function computeVariants(req: VariantsRequest, progress?: Progress): Vari
   const out = compareVariants(req.variants, { check: true });
   progress?.(1, 1);
   return out;
+}
+
+export interface FitRequest {
+  design: DesignFile;
+  /** The measurement sheet's text and its file name (named in errors). */
+  csv: string;
+  csvName: string;
+  /** Core's coordinate ids that may be off. */
+  ids: string[];
+}
+
+/** Core's fit; input problems (CSV line:column, unknown ids, poses outside the design) are thrown as one message. */
+export function computeFit(req: FitRequest, progress?: Progress): FitReport {
+  const input = prepareFit(req.design, req.csv, req.csvName, req.ids, 'vary');
+  if (!input.ok) throw new Error(input.problems.slice(0, 6).join('\n') + (input.problems.length > 6 ? `\n(and ${input.problems.length - 6} more)` : ''));
+  return runFit(req.design, input.measurements, input.variables, { onProgress: progress });
 }

@@ -6,7 +6,8 @@ import type { VariantsReport } from '../../core/studies/variants';
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from './sweepJobs';
 import type { SensitivityData, SensitivityRequest } from './sensitivityJob';
-import type { ProposalsRequest, ToleranceRequest, TuneRequest, VariantsRequest } from './studyJobs';
+import type { FitRequest, ProposalsRequest, ToleranceRequest, TuneRequest, VariantsRequest } from './studyJobs';
+import type { FitReport } from '../../core/studies/fit';
 
 export interface JobKinds {
   curves: { request: CurveRequest; data: CurveSet };
@@ -16,6 +17,7 @@ export interface JobKinds {
   tolerance: { request: ToleranceRequest; data: ToleranceReport };
   proposals: { request: ProposalsRequest; data: Proposal[] };
   variants: { request: VariantsRequest; data: VariantsReport };
+  fit: { request: FitRequest; data: FitReport };
 }
 
 export type JobKind = keyof JobKinds;

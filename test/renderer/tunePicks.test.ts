@@ -57,3 +57,19 @@ describe('a whole-design edit as one undo step', () => {
     expect(JSON.stringify(applyDelta(s.design, s.delta!, 'undo'))).toBe(JSON.stringify(before));
   });
 });
+
+describe('fit coordinates from picks', () => {
+  it('splits a mirrored pair into its two sides when each side is fitted on its own', async () => {
+    const { fitIdsOf } = await import('../../renderer/model/tunePicks');
+    const picks = [
+      { id: 'steering.tieRodJoint:y', rowId: 'steering.tieRodJoint.right', axis: 'y' as const, rangeMm: [-1, 1] as [number, number] },
+      { id: 'upright.wheelCentre.left:z', rowId: 'upright.wheelCentre.left', axis: 'z' as const, rangeMm: [-1, 1] as [number, number] },
+      { id: 'steering.pivot:x', rowId: 'steering.pivot', axis: 'x' as const, rangeMm: [-1, 1] as [number, number] },
+    ];
+    expect(fitIdsOf(picks, true)).toEqual(['steering.tieRodJoint.right:y', 'steering.tieRodJoint.left:y', 'upright.wheelCentre.left:z', 'steering.pivot:x']);
+    expect(fitIdsOf(picks, false)).toEqual(picks.map((p) => p.id));
+    // Every id names a coordinate core's fit accepts on a design with those points.
+    const ids = new Set(tuneVariableIds(demoDesign('heron-tilting-velomobile')));
+    for (const id of fitIdsOf(picks, true)) expect(ids.has(id), id).toBe(true);
+  });
+});

@@ -79,27 +79,21 @@ export async function runFitCommand(argv: string[], io: CliIo): Promise<number> 
     io.err(`tiltbench fit: ${read.message}\n`);
     return EXIT_BAD_INPUT;
   }
-  const { readMeasurementCsv } = await import('../../studies/measurementCsv');
-  const { resolveVariable, TunePlanError } = await import('../../studies/tunePlan');
+  const { prepareFit } = await import('../../studies/fitInput');
   const { runFit, FitInputError } = await import('../../studies/fit');
-  const { StudyInputError, checkStudyPoses } = await import('../../studies/studyPoses');
-  const { resolveDesign } = await import('../../design/resolveDesign');
-  const measured = readMeasurementCsv(read.text, csvPath);
-  if (!measured.ok) {
-    for (const line of problemLines(measured.errors)) io.err(line + '\n');
+  const input = prepareFit(loaded.file, read.text, csvPath, ids);
+  if (!input.ok) {
+    for (const line of problemLines(input.problems)) io.err(`tiltbench fit: ${line}\n`);
     return EXIT_BAD_INPUT;
   }
   const bar = studyProgressBar(io, 'fit', 'iterations');
   let report: FitReport;
   try {
-    const variables = ids.map((id) => resolveVariable(loaded.file, { id, rangeMm: [-1, 1] }, `--vary ${id}`));
-    if (variables.some((v) => v.kind !== 'coordinate')) throw new FitInputError('--vary: a fit moves hardpoint coordinates only (not tie-rod lengths)');
-    checkStudyPoses(resolveDesign(loaded.file), measured.measurements.map((x) => x.pose));
-    report = runFit(loaded.file, measured.measurements, variables, { onProgress: (d, t) => bar.update(d, t) });
+    report = runFit(loaded.file, input.measurements, input.variables, { onProgress: (d, t) => bar.update(d, t) });
   } catch (e) {
     bar.end();
-    if (e instanceof TunePlanError || e instanceof FitInputError || e instanceof StudyInputError) {
-      io.err(`tiltbench fit: ${e instanceof StudyInputError ? `${csvPath}: ` : ''}${e.message}\n`);
+    if (e instanceof FitInputError) {
+      io.err(`tiltbench fit: ${e.message}\n`);
       return EXIT_BAD_INPUT;
     }
     throw e;
