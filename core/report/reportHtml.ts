@@ -261,7 +261,7 @@ function studySheets(r: ReportData): string[] {
     const s = r.sensitivity;
     const objRows = s.objectives
       .filter((o) => !o.id.startsWith('joint.'))
-      .map((o) => [td(o.label), num(o.value, 3), td(o.unit), td(o.tolerance === null ? '\u2013' : `${o.kind === 'worst' ? 'at most' : 'at least'} ${o.tolerance} ${o.unit}`), td(o.where ?? '\u2013')]);
+      .map((o) => [td(o.label, `data-id="${escapeHtml(o.id)}"`), num(o.value, 3, 'value'), td(o.unit), td(o.tolerance === null ? '\u2013' : `${o.kind === 'worst' ? 'at most' : 'at least'} ${o.tolerance} ${o.unit}`), td(o.where ?? '\u2013')]);
     const top = s.coordinates.slice(0, 10).map((c, k) => `<li>${k + 1}. ${escapeHtml(c.sentence)}</li>`).join('');
     parts.push(
       sheet('sensitivity-sheet', 'Study: sensitivity to each hardpoint coordinate',
@@ -273,14 +273,14 @@ function studySheets(r: ReportData): string[] {
   if (r.tolerance) {
     const t = r.tolerance;
     const rows = t.overPoses.map((sp) => [
-      td(sp.label),
-      num(sp.nominal, 3),
-      num(sp.summary?.mean ?? null, 3),
-      num(sp.summary?.std ?? null, 3),
-      num(sp.summary?.p5 ?? null, 3),
-      num(sp.summary?.p95 ?? null, 3),
+      td(sp.label, `data-id="${escapeHtml(sp.id)}"`),
+      num(sp.nominal, 3, 'nominal'),
+      num(sp.summary?.mean ?? null, 3, 'mean'),
+      num(sp.summary?.std ?? null, 3, 'std'),
+      num(sp.summary?.p5 ?? null, 3, 'p5'),
+      num(sp.summary?.p95 ?? null, 3, 'p95'),
       td(sp.unit),
-      num(sp.withinTolerance === null ? null : sp.withinTolerance * 100, 1),
+      num(sp.withinTolerance === null ? null : sp.withinTolerance * 100, 1, 'withinPct'),
     ]);
     parts.push(
       sheet('tolerance-sheet', 'Study: tolerance spread over built vehicles',

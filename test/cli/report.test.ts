@@ -140,6 +140,42 @@ describe('tiltbench report (HTML), read back', () => {
   });
 });
 
+describe('tiltbench report with studies', () => {
+  it('the sensitivity and tolerance sheets hold what `tiltbench sensitivity --json` and `tiltbench tolerance --json` print', async () => {
+    const dir = folder();
+    const out = join(dir, 'studies.html');
+    const coarse = ['--lean-step', '30', '--steer-step', '30', '--travel-step', '200', '--map-step', '10'];
+    const r = await run(['report', WREN, '--out', out, '--with-sensitivity', '--with-tolerance', '3', '--seed', '7', ...coarse]);
+    expect(r.code, r.err).toBe(0);
+    const doc = new JSDOM(readFileSync(out, 'utf8')).window.document;
+    const sens = JSON.parse((await run(['sensitivity', WREN, '--json'])).out) as { objectives: { id: string; value: number | null }[] };
+    let compared = 0;
+    for (const o of sens.objectives) {
+      const cell = doc.querySelector(`#sensitivity-sheet td[data-id="${o.id}"]`)?.parentElement?.querySelector('[data-field="value"]');
+      if (o.id.startsWith('joint.')) continue; // per-joint margins are in --json only, as in the command's text
+      expect(cell, o.id).not.toBeNull();
+      if (o.value === null) expect(cell!.textContent).toBe('\u2013');
+      else expect(Number(cell!.getAttribute('data-value')), o.id).toBe(o.value);
+      compared++;
+    }
+    expect(compared).toBeGreaterThanOrEqual(4);
+    const tol = JSON.parse((await run(['tolerance', WREN, '--samples', '3', '--seed', '7', '--json'])).out) as { overPoses: { id: string; nominal: number | null; summary: { mean: number; p95: number } | null }[] };
+    const rows = [...doc.querySelectorAll('#tolerance-sheet tbody tr')];
+    expect(rows).toHaveLength(tol.overPoses.length);
+    tol.overPoses.forEach((sp, i) => {
+      const value = (f: string) => rows[i].querySelector(`[data-field="${f}"]`)?.getAttribute('data-value');
+      expect(rows[i].querySelector('td')?.getAttribute('data-id')).toBe(sp.id);
+      expect(Number(value('nominal'))).toBe(sp.nominal);
+      expect(Number(value('mean'))).toBe(sp.summary!.mean);
+      expect(Number(value('p95'))).toBe(sp.summary!.p95);
+    });
+    // Another seed draws other samples: the comparison above would see it.
+    const other = JSON.parse((await run(['tolerance', WREN, '--samples', '3', '--seed', '8', '--json'])).out) as typeof tol;
+    expect(other.overPoses.some((sp, i) => sp.summary?.mean !== tol.overPoses[i].summary?.mean)).toBe(true);
+    expect(doc.querySelectorAll('section.sheet')).toHaveLength(9);
+  }, 120_000);
+});
+
 /** Gray pixels of a binary PGM (P5, 8-bit), as pdftoppm -gray writes them. */
 function pgmPixels(bytes: Buffer): { width: number; height: number; data: Buffer } {
   const header = bytes.subarray(0, 64).toString('latin1');
