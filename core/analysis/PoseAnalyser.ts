@@ -131,7 +131,7 @@ export class PoseAnalyser {
     // Design-pose transmission signs, from the design points (the design pose is world = design).
     const st = design.steering;
     const steerAxis = this.reader.designSteerAxis;
-    const axisPoint: Vec3 = st.kind === 'rack' ? [0, 0, 0] : [st.pivot.x, st.pivot.y, st.pivot.z];
+    const axisPoint: Vec3 = steerPivot(st) ?? [0, 0, 0];
     const kind = st.kind === 'rack' ? 'prismatic' : 'revolute';
     const arm = {} as Record<Side, number>;
     const link = {} as Record<Side, number>;
@@ -139,8 +139,12 @@ export class PoseAnalyser {
     for (const side of ['left', 'right'] as Side[]) {
       const r = this.reader.designSide(side);
       arm[side] = designSign(rawTransmission(r.armJoint, r.innerJoint, r.lowerJoint, normalize(sub(r.upperJoint, r.lowerJoint)), 'revolute'));
-      link[side] = designSign(rawTransmission(r.innerJoint, r.armJoint, axisPoint, steerAxis, kind));
       tie[side] = normalize(sub(r.armJoint, r.innerJoint));
+    }
+    for (const side of ['left', 'right'] as Side[]) {
+      const r = this.reader.designSide(side);
+      // A track rod's far end is on the other steering arm: the lever there is the other upright.
+      link[side] = st.kind === 'trackRod' ? arm[side === 'right' ? 'left' : 'right'] : designSign(rawTransmission(r.innerJoint, r.armJoint, axisPoint, steerAxis, kind));
     }
     this.armSign = arm;
     this.linkSign = link;
@@ -151,7 +155,8 @@ export class PoseAnalyser {
     const rearTyre = (y: number): PlanTyre => ({ x: -design.vehicle.wheelbaseMm, y, heading: 0, rollingRadiusMm: rt.rollingRadiusMm, widthMm: rt.tyreWidthMm });
     this.rear = design.vehicle.rear.kind === 'pair' ? [rearTyre(design.vehicle.rear.trackMm / 2), rearTyre(-design.vehicle.rear.trackMm / 2)] : [rearTyre(0)];
     const drag = this.reader.designDragLink;
-    this.dragSign = drag ? designSign(rawTransmission(drag.crankArm, drag.columnArm, axisPoint, steerAxis, 'revolute')) : 1;
+    const driven = drivenLever(design, null);
+    this.dragSign = drag ? designSign(rawTransmission(drag.crankArm, drag.columnArm, driven?.point ?? axisPoint, driven?.axis ?? steerAxis, 'revolute')) : 1;
   }
 
   /** Every measure of the pose the mechanism is in now (after a converged or singular solve). */
@@ -240,8 +245,10 @@ export class PoseAnalyser {
     const mean = (leftDeg + rightDeg) / 2;
     const st = this.design.steering;
     const axisPoint = this.pivotWorld;
-    if (st.kind !== 'rack') this.mechanism.worldPoint(this.reader.frame, [st.pivot.x, st.pivot.y, st.pivot.z], axisPoint);
+    const pivot = steerPivot(st);
+    if (pivot) this.mechanism.worldPoint(this.reader.frame, pivot, axisPoint);
     const dl = g.dragLink;
+    const driven = drivenLever(this.design, g);
     const ratio = overallSteeringRatio(inputs.handlebarDeg, mean);
     const out: SteeringMeasures = {
       handlebarDeg: inputs.handlebarDeg,
@@ -252,7 +259,9 @@ export class PoseAnalyser {
       localRatio: null,
       steeringArmTransmissionDeg: { left: this.armTransmission(g.left), right: this.armTransmission(g.right) },
       linkageTransmissionDeg: { left: this.linkTransmission(g, 'left'), right: this.linkTransmission(g, 'right') },
-      dragLinkTransmissionDeg: dl ? transmissionDeg(rawTransmission(dl.crankArm, dl.columnArm, axisPoint, g.steerAxis, 'revolute'), this.dragSign) : null,
+      dragLinkTransmissionDeg: dl
+        ? transmissionDeg(rawTransmission(dl.crankArm, dl.columnArm, driven?.point ?? axisPoint, driven?.axis ?? g.steerAxis, 'revolute'), this.dragSign)
+        : null,
       localRatioReason: NO_NEIGHBOURS,
       ratioChangePct: null,
       ratioChangeReason: NO_NEIGHBOURS,
@@ -268,6 +277,12 @@ export class PoseAnalyser {
   }
 
   private linkTransmission(g: PoseGeometry, s: Side): number {
+    if (this.design.steering.kind === 'trackRod') {
+      // The track rod's far end turns the other upright about its steering axis.
+      const far = g[s === 'right' ? 'left' : 'right'];
+      const k = normalize(sub(far.upperJoint, far.lowerJoint));
+      return transmissionDeg(rawTransmission(g[s].innerJoint, g[s].armJoint, far.lowerJoint, k, 'revolute'), this.linkSign[s]);
+    }
     return transmissionDeg(rawTransmission(g[s].innerJoint, g[s].armJoint, this.pivotWorld, g.steerAxis, g.steerKind), this.linkSign[s]);
   }
 
@@ -301,4 +316,25 @@ export class PoseAnalyser {
     }
     return { joints: out, spin };
   }
+}
+
+/** The frame point on the steering body's axis (crank, lever or column pivot); none for a rack or a handlebar on an upright. */
+function steerPivot(st: ResolvedDesign['steering']): Vec3 | null {
+  if (st.kind === 'rack') return null;
+  if (st.kind === 'trackRod') return st.drive.kind === 'dragLink' ? [st.drive.columnPivot.x, st.drive.columnPivot.y, st.drive.columnPivot.z] : null;
+  return [st.pivot.x, st.pivot.y, st.pivot.z];
+}
+
+/**
+ * The lever a track rod's drag link turns: the driven upright about its steering axis (lower
+ * outer joint, unit axis to the upper one), posed (`g`) or at design (null); null for the other
+ * layouts, whose drag link turns the bell crank about the steering body's axis.
+ */
+function drivenLever(design: ResolvedDesign, g: PoseGeometry | null): { point: Vec3; axis: Vec3 } | null {
+  const st = design.steering;
+  if (st.kind !== 'trackRod' || st.drive.kind !== 'dragLink') return null;
+  const side = st.drive.upright;
+  const lower: Vec3 = g ? g[side].lowerJoint : [design.frontEnd.lower.outerJoint[side].x, design.frontEnd.lower.outerJoint[side].y, design.frontEnd.lower.outerJoint[side].z];
+  const upper: Vec3 = g ? g[side].upperJoint : [design.frontEnd.upper.outerJoint[side].x, design.frontEnd.upper.outerJoint[side].y, design.frontEnd.upper.outerJoint[side].z];
+  return { point: lower, axis: normalize(sub(upper, lower)) };
 }

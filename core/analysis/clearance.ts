@@ -59,13 +59,15 @@ const PAIRS: readonly [PartName, PartName][] = [
   ['tyre', 'rack'],
 ];
 
-/** The pairs a design has (frame rails only with split wishbones; crank arm or rack by steering kind). */
+/** The pairs a design has (frame rails only with split wishbones; crank arm or rack by steering kind, neither with a track rod). */
 export function clearancePairs(design: ResolvedDesign): ClearancePair[] {
   const split = design.frontEnd.kind === 'splitWishbones';
   const rack = design.steering.kind === 'rack';
+  // A one-piece track rod has no crank arms (its drag link is not modelled as a capsule).
+  const trackRod = design.steering.kind === 'trackRod';
   const has = (p: PartName) => {
     if (p === 'upperRail' || p === 'lowerRail') return split;
-    if (p === 'crankArm') return !rack;
+    if (p === 'crankArm') return !rack && !trackRod;
     if (p === 'rack') return rack;
     return true;
   };

@@ -69,7 +69,7 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
       `ratio overall ${s.overallRatio === null ? '-' : s.overallRatio.toFixed(3)}, local ${s.localRatio === null ? '-' : s.localRatio.toFixed(3)}`,
     `  steering-ratio change from upright ${s.ratioChangePct === null ? `- (${s.ratioChangeReason})` : `${s.ratioChangePct.toFixed(2)} %`}`,
     `  transmission (deg; 90 ideal, 0 dead centre): steering arm L/R ${s.steeringArmTransmissionDeg.left.toFixed(1)} / ${s.steeringArmTransmissionDeg.right.toFixed(1)}, ` +
-      `${design.steering.kind === 'rack' ? 'rack' : 'crank'} L/R ${s.linkageTransmissionDeg.left.toFixed(1)} / ${s.linkageTransmissionDeg.right.toFixed(1)}` +
+      `${design.steering.kind === 'rack' ? 'rack' : design.steering.kind === 'trackRod' ? 'track rod far end' : 'crank'} L/R ${s.linkageTransmissionDeg.left.toFixed(1)} / ${s.linkageTransmissionDeg.right.toFixed(1)}` +
       (s.dragLinkTransmissionDeg === null ? '' : `, drag link ${s.dragLinkTransmissionDeg.toFixed(1)}`),
   );
   const k = a.ackermann;

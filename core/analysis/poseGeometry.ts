@@ -7,6 +7,12 @@
  * `${side}.lowerWishbone` or `upperMember` / `lowerMember`, and the steering body that
  * carries the tie rods' inner joints (bell crank, rack or steering column); with a kingpin
  * upright also `${side}.yoke`, which carries the outer joints' studs (kingpinYoke.ts).
+ *
+ * A one-piece track rod (trackRodSteering.ts) is read as each side's tie rod, from this side's
+ * steering arm to the other side's: the inner joint is the far end, on the other upright (its
+ * stud along joints.tieRodInner's direction for that side). The steering body is then the
+ * steering column of a drag link, or the upright the handlebar is fixed to; the drag link's
+ * driven lever is that upright turning about its steering axis.
  */
 
 import type { ResolvedDesign, Side, Vec3Mm } from '../design/types';
@@ -77,6 +83,8 @@ interface SideRefs {
   upperJoint: Vec3;
   lowerJoint: Vec3;
   armJoint: Vec3;
+  /** The body carrying the inner joint: the steering body, or with a track rod the other upright. */
+  innerBody: number;
   innerJoint: Vec3;
   wheelCentre: Vec3;
   spinAxis: Vec3;
@@ -110,7 +118,7 @@ function lineFoot(p: Vec3, o: Vec3, axis: Vec3): Vec3 {
 }
 
 /** What a side's geometry is read from: bodies, design points and directions in their bodies. */
-function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side): SideRefs {
+function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side, steerBody: number): SideRefs {
   const fe = design.frontEnd;
   const st = design.steering;
   const upright = bodyIndex(graph, `${side}.upright`);
@@ -122,7 +130,9 @@ function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side): Si
   const U = v(fe.upper.outerJoint[side]);
   const L = v(fe.lower.outerJoint[side]);
   const A = v(design.upright.steeringArmJoint[side]);
-  const I = v(st.tieRodJoint[side]);
+  const far: Side = side === 'right' ? 'left' : 'right';
+  const I = v(st.kind === 'trackRod' ? design.upright.steeringArmJoint[far] : st.tieRodJoint[side]);
+  const innerBody = st.kind === 'trackRod' ? bodyIndex(graph, `${far}.upright`) : steerBody;
   let upperPivot: Vec3, upperPivotAxis: Vec3, lowerPivot: Vec3, lowerPivotAxis: Vec3;
   let upperArmInner: Vec3, lowerArmInner: Vec3;
   let upperRail: [Vec3, Vec3] | null = null;
@@ -148,7 +158,7 @@ function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side): Si
   }
   const wheel = graph.wheels.find((w) => w.side === side);
   if (!wheel) throw new Error(`mechanism "${graph.name}" has no ${side} wheel`);
-  const crankFoot = st.kind === 'rack' ? null : lineFoot(I, v(st.pivot), v(st.axis));
+  const crankFoot = st.kind === 'rack' || st.kind === 'trackRod' ? null : lineFoot(I, v(st.pivot), v(st.axis));
   const spring = design.spring;
   const j = design.joints;
   return {
@@ -159,6 +169,7 @@ function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side): Si
     upperJoint: U,
     lowerJoint: L,
     armJoint: A,
+    innerBody,
     innerJoint: I,
     wheelCentre: wheel.centre,
     spinAxis: wheel.spinAxis,
@@ -178,8 +189,21 @@ function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side): Si
     studUpper: normalize(v(j.upperOuter.studAxis[side])),
     studLower: normalize(v(j.lowerOuter.studAxis[side])),
     studTieOuter: normalize(v(j.tieRodOuter.studAxis[side])),
-    studTieInner: normalize(v(j.tieRodInner.studAxis[side])),
+    studTieInner: normalize(v(j.tieRodInner.studAxis[st.kind === 'trackRod' ? far : side])),
   };
+}
+
+/**
+ * The body the handlebar turns that the analysis measures the linkage against: the body
+ * carrying the right tie rod's inner joint; with a track rod, the drag link's steering column
+ * or the upright the handlebar is fixed to.
+ */
+function steeringBody(design: ResolvedDesign, graph: MechanismGraph): number {
+  const st = design.steering;
+  if (st.kind === 'trackRod') return bodyIndex(graph, st.drive.kind === 'dragLink' ? 'column' : `${st.drive.upright}.upright`);
+  const tie = graph.links.find((l) => l.id === 'right.tieRod');
+  if (!tie) throw new Error(`mechanism "${graph.name}" has no right tie rod`);
+  return tie.bodyB;
 }
 
 /** The reader's scratch, shaped once so each read only overwrites numbers. */
@@ -241,15 +265,24 @@ export class GeometryReader {
   constructor(design: ResolvedDesign, graph: MechanismGraph) {
     this.graph = graph;
     this.frame = graph.frameBody;
-    const tie = graph.links.find((l) => l.id === 'right.tieRod');
-    if (!tie) throw new Error(`mechanism "${graph.name}" has no right tie rod`);
-    this.steerBody = tie.bodyB;
+    this.steerBody = steeringBody(design, graph);
     const steerJoint = graph.joints[this.steerBody];
     this.steerKind = steerJoint.kind === 'prismatic' ? 'prismatic' : 'revolute';
     this.steerAxisDesign = normalize(steerJoint.axis);
     const st = design.steering;
-    this.sides = { left: sideRefs(design, graph, 'left'), right: sideRefs(design, graph, 'right') };
-    if (st.kind === 'bellCrank' && st.input.kind === 'dragLink') {
+    this.sides = { left: sideRefs(design, graph, 'left', this.steerBody), right: sideRefs(design, graph, 'right', this.steerBody) };
+    if (st.kind === 'trackRod' && st.drive.kind === 'dragLink') {
+      const side = st.drive.upright;
+      const crankArm = v(st.drive.uprightArmJoint);
+      const lower = v(design.frontEnd.lower.outerJoint[side]);
+      this.drag = {
+        crankBody: bodyIndex(graph, `${side}.upright`),
+        columnBody: this.steerBody,
+        crankArm,
+        crankFoot: lineFoot(crankArm, lower, sub(v(design.frontEnd.upper.outerJoint[side]), lower)),
+        columnArm: v(st.drive.columnArmJoint),
+      };
+    } else if (st.kind === 'bellCrank' && st.input.kind === 'dragLink') {
       const columnBody = bodyIndex(graph, 'column');
       const crankArm = v(st.input.crankArmJoint);
       this.drag = {
@@ -296,7 +329,7 @@ export class GeometryReader {
     m.worldPoint(u, r.upperJoint, o.upperJoint);
     m.worldPoint(u, r.lowerJoint, o.lowerJoint);
     m.worldPoint(u, r.armJoint, o.armJoint);
-    m.worldPoint(sb, r.innerJoint, o.innerJoint);
+    m.worldPoint(r.innerBody, r.innerJoint, o.innerJoint);
     m.worldPoint(u, r.wheelCentre, o.wheelCentre);
     m.worldDirection(u, r.spinAxis, o.spinAxis);
     m.worldPoint(f, r.upperPivot, o.upperPivot);
@@ -322,7 +355,7 @@ export class GeometryReader {
     m.worldDirection(r.outerStudBody, r.studLower, o.lowerStud);
     m.worldDirection(r.lowerCarrier, r.studLower, o.lowerHousing);
     m.worldDirection(u, r.studTieOuter, o.tieOuterStud);
-    m.worldDirection(sb, r.studTieInner, o.tieInnerStud);
+    m.worldDirection(r.innerBody, r.studTieInner, o.tieInnerStud);
   }
 
   /** Design-pose (unposed) values, for the design-side sign of transmission angles. */

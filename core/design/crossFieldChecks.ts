@@ -11,7 +11,7 @@ import type { DesignIssue } from './designIssue';
 import { fixed, IssueList, locate, sidePath, type Located } from './issueList';
 import { resolveDesign } from './resolveDesign';
 import { describeFound, roundForMessage } from './schemaDsl';
-import { SIDES, type DesignFile, type ResolvedDesign, type Side, type Vec3Mm } from './types';
+import { SIDES, type DesignFile, type ResolvedDesign, type Side, type TrackRodDrive, type Vec3Mm } from './types';
 import { wheelSpinAxisAtDesign } from './wheelAxis';
 
 export { MIN_DISTINCT_MM } from './issueList';
@@ -144,6 +144,11 @@ function checkUpright(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
 function checkSteering(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
   const s = d.steering;
   const rs = r.steering;
+  if (s.kind === 'trackRod') {
+    checkTrackRod(d, s.drive, r, list);
+    return;
+  }
+  if (rs.kind === 'trackRod') return; // unreachable: resolution keeps the kind
   for (const side of SIDES) {
     const inner = locate(s.tieRodJoint, rs.tieRodJoint, 'steering.tieRodJoint', side);
     const outer = locate(d.upright.steeringArmJoint, r.upright.steeringArmJoint, 'upright.steeringArmJoint', side);
@@ -163,6 +168,58 @@ function checkSteering(d: DesignFile, r: ResolvedDesign, list: IssueList): void 
     list.offLine(crankArm, fixed(s.pivot, 'steering.pivot'), { direction: s.axis, path: 'steering.axis' },
       'a joint on the crank axis cannot turn the crank');
   }
+}
+
+/**
+ * A one-piece track rod joins the two steering-arm joints, which must be apart; the drag link's
+ * joints apart and off the axes they turn about; a handlebar on an upright needs a kingpin
+ * (the upright's one rotation in its yoke). Both ends of the track rod sit on steering arms, so
+ * joints.tieRodInner (each side's far end) must describe the same rod ends as tieRodOuter.
+ */
+function checkTrackRod(d: DesignFile, drive: TrackRodDrive, r: ResolvedDesign, list: IssueList): void {
+  list.distinct(
+    locate(d.upright.steeringArmJoint, r.upright.steeringArmJoint, 'upright.steeringArmJoint', 'right'),
+    locate(d.upright.steeringArmJoint, r.upright.steeringArmJoint, 'upright.steeringArmJoint', 'left'),
+    'the track rod runs between them',
+  );
+  const outer = r.joints.tieRodOuter;
+  const inner = r.joints.tieRodInner;
+  const same = (a: Vec3Mm, b: Vec3Mm) => angleBetween(tuple(a), tuple(b)) * RAD < 1e-6;
+  if (inner.kind !== outer.kind || inner.ratedDeg !== outer.ratedDeg) {
+    list.expected(
+      'joints.tieRodInner',
+      `the same kind and rating as joints.tieRodOuter (${outer.kind}, ${outer.ratedDeg} deg): with a one-piece track rod both ends are its joints on the steering arms`,
+      `${inner.kind}, ${inner.ratedDeg} deg`,
+    );
+  } else if (!same(inner.studAxis.right, outer.studAxis.right) || !same(inner.studAxis.left, outer.studAxis.left)) {
+    list.expected(
+      'joints.tieRodInner.studAxis',
+      'the stud axes of joints.tieRodOuter: with a one-piece track rod both ends are its joints on the steering arms',
+      'other directions',
+    );
+  }
+  if (drive.kind === 'knuckle') {
+    if (d.upright.steeringAxis !== 'kingpin') {
+      list.expected(
+        'steering.drive.kind',
+        `"dragLink", or upright.steeringAxis "kingpin": a handlebar fixed to an upright turns it about its kingpin, and an upright on two ball joints has no single axis to turn about`,
+        `"knuckle" with upright.steeringAxis "${d.upright.steeringAxis}"`,
+      );
+    }
+    return;
+  }
+  const side = drive.upright;
+  const columnArm = fixed(drive.columnArmJoint, 'steering.drive.columnArmJoint');
+  const uprightArm = fixed(drive.uprightArmJoint, 'steering.drive.uprightArmJoint');
+  list.distinct(columnArm, uprightArm, 'the drag link runs between them');
+  list.offLine(columnArm, fixed(drive.columnPivot, 'steering.drive.columnPivot'), { direction: drive.columnAxis, path: 'steering.drive.columnAxis' },
+    'a joint on the column axis does not move when the handlebar turns');
+  list.offLine(
+    uprightArm,
+    locate(d.frontEnd.lower.outerJoint, r.frontEnd.lower.outerJoint, 'frontEnd.lower.outerJoint', side),
+    locate(d.frontEnd.upper.outerJoint, r.frontEnd.upper.outerJoint, 'frontEnd.upper.outerJoint', side),
+    'a joint on the steering axis cannot turn the upright',
+  );
 }
 
 function checkSpring(d: DesignFile, r: ResolvedDesign, list: IssueList): void {

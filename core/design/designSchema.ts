@@ -88,6 +88,21 @@ const crankInput = discriminatedUnion('How the handlebar turns the bell crank', 
   }),
 ]);
 
+const trackRodDrive = discriminatedUnion('How the handlebar turns the uprights joined by the track rod', [
+  object('A steering column whose arm pulls one upright through a drag link', {
+    kind: literal('dragLink', 'Drag link to one upright'),
+    upright: enumOf(['right', 'left'], 'The upright the drag link pulls on'),
+    columnPivot: point('A point on the steering column axis'),
+    columnAxis: direction3('Direction of the steering column; positive handlebar turns right-handed about it'),
+    columnArmJoint: point("Ball joint on the column's arm"),
+    uprightArmJoint: point("Ball joint on the driven upright's drag-link arm"),
+  }),
+  object('The handlebar fixed to one upright (kingpin uprights only): the handlebar angle is its rotation about the kingpin', {
+    kind: literal('knuckle', 'Handlebar on the upright'),
+    upright: enumOf(['right', 'left'], 'The upright the handlebar is fixed to'),
+  }),
+]);
+
 const steering = discriminatedUnion('Steering linkage that moves the inner tie-rod joints', [
   object('A bell crank pivoted on the frame', {
     kind: literal('bellCrank', 'Bell crank'),
@@ -107,6 +122,10 @@ const steering = discriminatedUnion('Steering linkage that moves the inner tie-r
     pivot: point('A point on the steering column axis'),
     axis: direction3('Steering column axis direction'),
     tieRodJoint: sidedPoint("The lever's ball joint for the tie rod"),
+  }),
+  object('One track rod joining the two steering arms (the Ackermann trapezoid)', {
+    kind: literal('trackRod', 'One-piece track rod'),
+    drive: trackRodDrive,
   }),
 ]);
 

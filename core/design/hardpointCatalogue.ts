@@ -34,7 +34,14 @@ export function hardpointEntries(d: DesignFile): HardpointEntry[] {
   add('upright.steeringArmJoint', 'steering arm joint', 'Upright');
   add('upright.wheelCentre', 'wheel centre', 'Upright');
   const s = d.steering;
-  if (s.kind === 'bellCrank') {
+  if (s.kind === 'trackRod') {
+    // The track rod's ends are the steering-arm joints above; a handlebar on an upright adds no point.
+    if (s.drive.kind === 'dragLink') {
+      add('steering.drive.columnPivot', 'column pivot', 'Drag link', false);
+      add('steering.drive.columnArmJoint', 'column arm joint', 'Drag link', false);
+      add('steering.drive.uprightArmJoint', 'upright arm joint', 'Drag link', false);
+    }
+  } else if (s.kind === 'bellCrank') {
     add('steering.pivot', 'pivot', 'Bell crank', false);
     add('steering.tieRodJoint', 'tie rod joint', 'Bell crank');
     if (s.input.kind === 'dragLink') {

@@ -22,6 +22,7 @@ import {
   type Riding,
   type Sided,
   type Tolerances,
+  type TrackRodDrive,
   type Vec3Mm,
   type Vehicle,
 } from './types';
@@ -56,6 +57,18 @@ function copyVehicle(v: Vehicle): Vehicle {
     tilting: v.tilting,
     rear: v.rear.kind === 'pair' ? { kind: 'pair', trackMm: v.rear.trackMm } : { kind: 'single' },
     ...(v.bodyOutline ? { bodyOutline: v.bodyOutline.map((p) => ({ x: p.x, y: p.y })) } : {}),
+  };
+}
+
+function copyTrackRodDrive(drive: TrackRodDrive): TrackRodDrive {
+  if (drive.kind === 'knuckle') return { kind: 'knuckle', upright: drive.upright };
+  return {
+    kind: 'dragLink',
+    upright: drive.upright,
+    columnPivot: copyVec(drive.columnPivot),
+    columnAxis: copyVec(drive.columnAxis),
+    columnArmJoint: copyVec(drive.columnArmJoint),
+    uprightArmJoint: copyVec(drive.uprightArmJoint),
   };
 }
 
@@ -141,7 +154,9 @@ export function resolveDesign(d: DesignFile): ResolvedDesign {
 
   const s = d.steering;
   const steering: ResolvedDesign['steering'] =
-    s.kind === 'bellCrank'
+    s.kind === 'trackRod'
+      ? { kind: 'trackRod', drive: copyTrackRodDrive(s.drive) }
+      : s.kind === 'bellCrank'
       ? { kind: 'bellCrank', pivot: copyVec(s.pivot), axis: copyVec(s.axis), tieRodJoint: resolveSidedVec(s.tieRodJoint), input: copyCrankInput(s.input) }
       : s.kind === 'rack'
         ? { kind: 'rack', axis: copyVec(s.axis), tieRodJoint: resolveSidedVec(s.tieRodJoint), mmPerHandlebarDeg: s.mmPerHandlebarDeg }
@@ -250,7 +265,9 @@ export function unresolveDesign(r: ResolvedDesign): DesignFile {
 
   const s = r.steering;
   const steering: DesignFile['steering'] =
-    s.kind === 'bellCrank'
+    s.kind === 'trackRod'
+      ? { kind: 'trackRod', drive: copyTrackRodDrive(s.drive) }
+      : s.kind === 'bellCrank'
       ? { kind: 'bellCrank', pivot: copyVec(s.pivot), axis: copyVec(s.axis), tieRodJoint: compactPoint(s.tieRodJoint), input: copyCrankInput(s.input) }
       : s.kind === 'rack'
         ? { kind: 'rack', axis: copyVec(s.axis), tieRodJoint: compactPoint(s.tieRodJoint), mmPerHandlebarDeg: s.mmPerHandlebarDeg }

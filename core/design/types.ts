@@ -84,7 +84,39 @@ export type CrankInput =
       crankArmJoint: Vec3Mm;
     };
 
+/**
+ * How the handlebar turns a one-piece track rod's uprights: through a drag link from a
+ * steering column to a second arm on one upright, or fixed to one upright (knuckle-mounted:
+ * the handlebar angle is that upright's own rotation about its kingpin; kingpin uprights only).
+ */
+export type TrackRodDrive =
+  | {
+      kind: 'dragLink';
+      /** The upright the drag link pulls on. */
+      upright: Side;
+      columnPivot: Vec3Mm;
+      /** Direction of the steering column; positive handlebar turns right-handed about it. */
+      columnAxis: Vec3Mm;
+      /** Ball joint on the column's arm. */
+      columnArmJoint: Vec3Mm;
+      /** Ball joint on the driven upright's drag-link arm. */
+      uprightArmJoint: Vec3Mm;
+    }
+  | {
+      kind: 'knuckle';
+      /** The upright the handlebar is fixed to; positive handlebar turns it right-handed about its kingpin (lower to upper joint). */
+      upright: Side;
+    };
+
 export type Steering =
+  | {
+      /**
+       * One rod joins the two steering arms' joints (`upright.steeringArmJoint`): the Ackermann
+       * trapezoid. No inner tie-rod joints.
+       */
+      kind: 'trackRod';
+      drive: TrackRodDrive;
+    }
   | {
       kind: 'bellCrank';
       pivot: Vec3Mm;
@@ -266,6 +298,7 @@ export interface ResolvedDesign {
     staticCamberDeg: PerSide<number>;
   };
   steering:
+    | { kind: 'trackRod'; drive: TrackRodDrive }
     | { kind: 'bellCrank'; pivot: Vec3Mm; axis: Vec3Mm; tieRodJoint: PerSide<Vec3Mm>; input: CrankInput }
     | { kind: 'rack'; axis: Vec3Mm; tieRodJoint: PerSide<Vec3Mm>; mmPerHandlebarDeg: number }
     | { kind: 'direct'; pivot: Vec3Mm; axis: Vec3Mm; tieRodJoint: PerSide<Vec3Mm> };

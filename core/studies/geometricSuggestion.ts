@@ -189,17 +189,21 @@ const round = (p: Vec3Mm): Vec3Mm => ({ x: Math.round(p.x * 100) / 100, y: Math.
 
 function withPoints(file: DesignFile, key: 'steering.tieRodJoint' | 'upright.steeringArmJoint', pts: PerSide<Vec3Mm>): DesignFile {
   const copy = JSON.parse(JSON.stringify(file)) as DesignFile;
-  if (key === 'steering.tieRodJoint') copy.steering.tieRodJoint = { right: pts.right, left: pts.left };
+  if (key === 'steering.tieRodJoint') {
+    if (copy.steering.kind !== 'trackRod') copy.steering.tieRodJoint = { right: pts.right, left: pts.left };
+  }
   else copy.upright.steeringArmJoint = { right: pts.right, left: pts.left };
   return copy;
 }
 
 function tieRodMoves(file: DesignFile): { design: DesignFile; moves: PointMove[] } | { reason: string } {
   const d = resolveDesign(file);
+  const st = d.steering;
+  if (st.kind === 'trackRod') return { reason: 'a one-piece track rod has no inner tie-rod joints: its ends are the steering-arm joints' };
   const pts = {} as PerSide<Vec3Mm>;
   const moves: PointMove[] = [];
   for (const side of SIDES) {
-    const inner = d.steering.tieRodJoint[side];
+    const inner = st.tieRodJoint[side];
     const r = tieRodLinePoint(d, side, d.upright.steeringArmJoint[side], inner.x);
     if ('reason' in r) return r;
     pts[side] = round(r.point);
@@ -217,6 +221,8 @@ function ackermannMoves(file: DesignFile): { design: DesignFile; moves: PointMov
     moves.push({ key: 'upright.steeringArmJoint', side, point: `${side} steering-arm joint`, fromMm: d.upright.steeringArmJoint[side], toMm: pts[side] });
   }
   const armed = withPoints(file, 'upright.steeringArmJoint', pts);
+  // A one-piece track rod simply joins the moved arms: no inner joints to put back.
+  if (d.steering.kind === 'trackRod') return { design: armed, moves };
   const rods = tieRodMoves(armed);
   if ('reason' in rods) return rods;
   return { design: rods.design, moves: [...moves, ...rods.moves] };

@@ -105,13 +105,18 @@ const TIE_ROD_LENGTH = /^tieRod\.length(?:\.(left|right))?$/;
 
 /** Every id a plan may name for this design: the coordinates (both forms) and the tie-rod lengths. */
 export function tuneVariableIds(file: DesignFile): string[] {
-  return [...studyCoordinates(file, 'together'), ...studyCoordinates(file, 'each')].map((c) => c.id).concat(['tieRod.length', 'tieRod.length.left', 'tieRod.length.right']);
+  const coords = [...studyCoordinates(file, 'together'), ...studyCoordinates(file, 'each')].map((c) => c.id);
+  // A one-piece track rod has no inner joints to move along the rod: its length is its ends' coordinates.
+  return file.steering.kind === 'trackRod' ? coords : coords.concat(['tieRod.length', 'tieRod.length.left', 'tieRod.length.right']);
 }
 
 /** Resolve a variable id against the design, or say why it is not one. */
 export function resolveVariable(file: DesignFile, v: TuneVariable, field: string): ResolvedVariable {
   const [lo, hi] = v.rangeMm;
   const m = TIE_ROD_LENGTH.exec(v.id);
+  if (m && file.steering.kind === 'trackRod') {
+    throw new TunePlanError(`${field}.id: "${v.id}" is not a variable of this design: its one-piece track rod has no inner tie-rod joints to move; vary the steering-arm joints (upright.steeringArmJoint) instead`);
+  }
   if (m) {
     const side = (m[1] as 'left' | 'right' | undefined) ?? 'both';
     return { kind: 'tieRodLength', id: v.id, side, lo, hi, words: `tie-rod length${side === 'both' ? ' (both sides)' : `, ${side}`}, longer` };

@@ -29,6 +29,8 @@ export function applyTuneOffsets(file: DesignFile, variables: readonly ResolvedV
 }
 
 function lengthenTieRods(file: DesignFile, side: 'both' | 'left' | 'right', dMm: number): DesignFile {
+  // The plan refuses a tie-rod length for a track rod (tunePlan.ts); nothing to lengthen here.
+  if (file.steering.kind === 'trackRod') return file;
   const inner = resolveSidedVec(file.steering.tieRodJoint);
   const outer = resolveSidedVec(file.upright.steeringArmJoint);
   for (const s of side === 'both' ? (['right', 'left'] as const) : [side]) {

@@ -3,6 +3,7 @@
  * starting points for "New".
  */
 import heron from '../../assets/designs/heron-tilting-velomobile.tiltsheet?raw';
+import linnet from '../../assets/designs/linnet-track-rod-trike.tiltsheet?raw';
 import swift from '../../assets/designs/swift-parallelogram-trike.tiltsheet?raw';
 import wren from '../../assets/designs/wren-rack-trike.tiltsheet?raw';
 
@@ -18,6 +19,7 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
   { id: 'heron', fileName: 'heron-tilting-velomobile.tiltsheet', starter: 'Tilting, split wishbones, bell crank', text: heron },
   { id: 'swift', fileName: 'swift-parallelogram-trike.tiltsheet', starter: 'Tilting, centre-pivot parallelogram', text: swift },
   { id: 'wren', fileName: 'wren-rack-trike.tiltsheet', starter: 'Non-tilting, split wishbones, rack', text: wren },
+  { id: 'linnet', fileName: 'linnet-track-rod-trike.tiltsheet', starter: 'Non-tilting, split wishbones, one-piece track rod', text: linnet },
 ];
 
 /** The design the workbench opens on when nothing else is asked for. */

@@ -33,12 +33,30 @@ export function starterFrontEnd(d: DesignFile, kind: FrontEnd['kind']): FrontEnd
 
 export function starterSteering(d: DesignFile, kind: Steering['kind']): Steering {
   if (kind === d.steering.kind) return d.steering;
-  const tie = resolveDesign(d).steering.tieRodJoint.right;
-  const keep = d.steering.tieRodJoint;
+  const r = resolveDesign(d);
+  if (kind === 'trackRod') return { kind: 'trackRod', drive: starterDragLinkToUpright(r) };
+  // From a track rod (no inner joints): the tie rods' inner ends 60 % of the way in from the steering arms.
+  const arm = r.upright.steeringArmJoint.right;
+  const fromArm = p(arm.x, Math.round(arm.y * 0.4 * 10) / 10, arm.z);
+  const tie = r.steering.kind === 'trackRod' ? fromArm : r.steering.tieRodJoint.right;
+  const keep = d.steering.kind === 'trackRod' ? fromArm : d.steering.tieRodJoint;
   if (kind === 'rack') return { kind: 'rack', axis: p(0, -1, 0), tieRodJoint: keep, mmPerHandlebarDeg: 0.5 };
   const pivot = p(tie.x + 40, 0, tie.z);
   if (kind === 'direct') return { kind: 'direct', pivot, axis: p(0, 0, 1), tieRodJoint: keep };
   return { kind: 'bellCrank', pivot, axis: p(0, 0, 1), tieRodJoint: keep, input: { kind: 'ratio', crankDegPerHandlebarDeg: 1 } };
+}
+
+/** A track rod's drive: a handlebar on the left upright, or a drag link (below). */
+export function starterTrackRodDrive(d: DesignFile, kind: 'dragLink' | 'knuckle'): Extract<Steering, { kind: 'trackRod' }>['drive'] {
+  return kind === 'knuckle' ? { kind: 'knuckle', upright: 'left' } : starterDragLinkToUpright(resolveDesign(d));
+}
+
+/** A vertical column on the centre line whose arm pulls an arm 80 mm ahead of and 60 mm inboard of the right kingpin's middle. */
+function starterDragLinkToUpright(r: ReturnType<typeof resolveDesign>): Extract<Steering, { kind: 'trackRod' }>['drive'] {
+  const up = r.frontEnd.upper.outerJoint.right;
+  const lo = r.frontEnd.lower.outerJoint.right;
+  const m = p(Math.round((up.x + lo.x) / 2), Math.round((up.y + lo.y) / 2), Math.round((up.z + lo.z) / 2));
+  return { kind: 'dragLink', upright: 'right', columnPivot: p(m.x, 0, m.z + 100), columnAxis: p(0, 0, 1), columnArmJoint: p(m.x + 80, 0, m.z), uprightArmJoint: p(m.x + 80, m.y + 60, m.z) };
 }
 
 export function starterCrankInput(d: DesignFile, kind: CrankInput['kind']): CrankInput | null {

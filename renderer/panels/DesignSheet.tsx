@@ -8,7 +8,7 @@ import { isTwoSided } from '../../core/design/resolveDesign';
 import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES, type DesignFile, type Joints } from '../../core/design/types';
 import { useActions, useDocument, usePose } from '../app/workbenchContext';
 import { setField, setFields } from '../model/designActions';
-import { starterCrankInput, starterFrontEnd, starterSpring, starterSteering } from '../model/designStarters';
+import { starterCrankInput, starterFrontEnd, starterSpring, starterSteering, starterTrackRodDrive } from '../model/designStarters';
 import { issuesAt } from '../model/fieldIssues';
 import { Choice, Num, Section, SidedNum, Vec } from './sheetFields';
 
@@ -202,10 +202,25 @@ function SteeringMechanism({ design: d }: { design: DesignFile }) {
           { value: 'bellCrank', label: 'bell crank' },
           { value: 'rack', label: 'rack' },
           { value: 'direct', label: 'lever on the column' },
+          { value: 'trackRod', label: 'one-piece track rod' },
         ]}
         onPick={(v) => replace([{ path: 'steering', value: starterSteering(d, v) }], `switch the steering to ${v}`)}
       />
-      {st.kind !== 'rack' && <Vec path="steering.axis" label={st.kind === 'bellCrank' ? 'Crank pivot axis' : 'Column axis'} unit="" />}
+      {(st.kind === 'bellCrank' || st.kind === 'direct') && <Vec path="steering.axis" label={st.kind === 'bellCrank' ? 'Crank pivot axis' : 'Column axis'} unit="" />}
+      {st.kind === 'trackRod' && (
+        <>
+          <Choice
+            path="steering.drive.kind"
+            label="Track rod driven by"
+            options={[
+              { value: 'dragLink', label: 'drag link to one upright' },
+              { value: 'knuckle', label: 'handlebar on one upright (kingpin)' },
+            ]}
+            onPick={(v) => replace([{ path: 'steering.drive', value: starterTrackRodDrive(d, v) }], `drive the track rod by ${v}`)}
+          />
+          {st.drive.kind === 'dragLink' && <Vec path="steering.drive.columnAxis" label="Column axis" unit="" />}
+        </>
+      )}
       {st.kind === 'rack' && (
         <>
           <Vec path="steering.axis" label="Rack slide direction" unit="" />

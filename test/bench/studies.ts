@@ -117,6 +117,7 @@ export function benchStudies(name: string): string[] {
  */
 export function benchTune(name: string): string[] {
   const file = loadFile(name);
+  if (file.steering.kind === 'trackRod') throw new Error(`${name}: the tune bench moves inner tie-rod joints, which a track rod has not`);
   const inner = resolveSidedVec(file.steering.tieRodJoint);
   file.steering.tieRodJoint = { right: { ...inner.right, z: inner.right.z + 10 }, left: { ...inner.left, z: inner.left.z + 10 } };
   const { plan, variables } = readTunePlan(

@@ -11,8 +11,10 @@ import type { DrawingPointRef } from '../drawingLayout';
 import type { PoseMode } from './buildMechanism';
 import type { Uprights } from './uprights';
 import { DEG, dist, SIDES, v, type HandlebarBinding, type MechanismBuilder } from './mechanismBuilder';
+import { addTrackRodSteering } from './trackRodSteering';
 
-type Steering = ResolvedDesign['steering'];
+/** The steering kinds with tie rods from a steering body (the track rod is trackRodSteering.ts). */
+type Steering = Exclude<ResolvedDesign['steering'], { kind: 'trackRod' }>;
 type BellCrank = Extract<Steering, { kind: 'bellCrank' }>;
 
 /** Height of the symbolic handlebar above the highest of the steering and the upper joints, mm. */
@@ -35,6 +37,7 @@ interface SteeringBody {
 /** Adds the steering and the tie rods; returns where the symbolic handlebar sits in the frame. */
 export function addSteering(b: MechanismBuilder, design: ResolvedDesign, frame: number, uprights: Uprights, mode: PoseMode): Vec3 {
   const st = design.steering;
+  if (st.kind === 'trackRod') return addTrackRodSteering(b, design, st.drive, frame, uprights, mode);
   const handlebar: HandlebarBinding = (gain) =>
     mode.steerBy !== 'handlebar' ? { reportsInput: { input: 'handlebarDeg', gain } } : { driver: { input: 'handlebarDeg', gain } };
   const steer =
@@ -115,7 +118,7 @@ function addColumn(b: MechanismBuilder, frame: number, pivot: Vec3Mm, axis: Vec3
 }
 
 function addTieRods(b: MechanismBuilder, design: ResolvedDesign, steer: SteeringBody, uprights: Uprights): void {
-  const st = design.steering;
+  const st = design.steering as Steering;
   const inner = new Map<string, DrawingPointRef>();
   for (const side of SIDES) {
     const arm = design.upright.steeringArmJoint[side];

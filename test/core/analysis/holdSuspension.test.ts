@@ -44,6 +44,7 @@ function turnAbout(p: Vector3, o: Vector3, k: Vector3, angle: number): Vector3 {
 /** The inner tie-rod joint at a handlebar angle, by the file format's definition of each steering kind. */
 function innerJoint(design: ResolvedDesign, side: Side, handlebarDeg: number): Vector3 {
   const st = design.steering;
+  if (st.kind === 'trackRod') throw new Error('track rod not covered here');
   const p = vec(st.tieRodJoint[side]);
   if (st.kind === 'rack') return p.add(vec(st.axis).normalize().multiplyScalar(st.mmPerHandlebarDeg * handlebarDeg));
   if (st.kind === 'bellCrank' && st.input.kind !== 'ratio') throw new Error('drag-link input not covered here');
@@ -58,7 +59,9 @@ function closingTurn(design: ResolvedDesign, side: Side, handlebarDeg: number, f
   const o = axis?.o ?? L;
   const k = axis?.k ?? U.clone().sub(L).normalize();
   const arm = vec(design.upright.steeringArmJoint[side]);
-  const length = arm.distanceTo(vec(design.steering.tieRodJoint[side]));
+  const st = design.steering;
+  if (st.kind === 'trackRod') throw new Error('track rod not covered here');
+  const length = arm.distanceTo(vec(st.tieRodJoint[side]));
   const inner = innerJoint(design, side, handlebarDeg);
   const gap = (d: number) => turnAbout(arm, o, k, d).distanceTo(inner) - length;
   const g0 = gap(from);

@@ -156,7 +156,7 @@ describe('validateDesign: each kind of bad input names the exact path', () => {
       what: 'an unknown union kind',
       mutate: (d) => (d.steering.kind = 'wheel'),
       path: 'steering.kind',
-      message: 'steering.kind: expected one of "bellCrank", "rack", "direct", found "wheel"',
+      message: 'steering.kind: expected one of "bellCrank", "rack", "direct", "trackRod", found "wheel"',
     },
     { what: 'a missing union kind', mutate: (d) => delete d.frontEnd.kind, path: 'frontEnd.kind', contains: ['"splitWishbones", "centrePivot"'] },
     { what: 'a bad enum value', mutate: (d) => (d.joints.tieRodOuter.kind = 'heimJoint'), path: 'joints.tieRodOuter.kind', contains: ['"ballJoint", "rodEnd"'] },

@@ -37,8 +37,9 @@ function renamedPoint(graph: MechanismGraph, from: string, to: string): Mechanis
 
 describe('the drawing layout of every template variant', () => {
   it('covers each front-end kind and each steering kind', () => {
-    const kinds = new Set(variants.map((v) => `${v.design.frontEnd.kind}/${v.design.steering.kind}/${v.design.steering.kind === 'bellCrank' ? v.design.steering.input.kind : ''}`));
-    expect(kinds.size).toBe(8);
+    const sub = (s: ResolvedDesign['steering']) => (s.kind === 'bellCrank' ? s.input.kind : s.kind === 'trackRod' ? s.drive.kind : '');
+    const kinds = new Set(variants.map((v) => `${v.design.frontEnd.kind}/${v.design.steering.kind}/${sub(v.design.steering)}`));
+    expect(kinds.size).toBe(12);
   });
 
   for (const mode of MODES) {

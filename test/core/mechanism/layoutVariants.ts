@@ -1,9 +1,11 @@
 /**
  * Every layout the template can build, from the bundled demos and the minimal fixture: each
  * front-end kind, each steering kind (a bell crank at a fixed ratio or by drag link, a rack,
- * a lever), with and without a spring, one rear wheel or a pair. Variants are made with the
- * workbench's own starting blocks (what a user gets by switching the layout), so they are
- * designs a user can reach; each is checked by the validator before use.
+ * a lever, a one-piece track rod driven by a drag link or by a handlebar on one upright), with
+ * and without a spring, one rear wheel or a pair. Variants are made with the workbench's own
+ * starting blocks (what a user gets by switching the layout), so they are designs a user can
+ * reach; the track-rod drives, which have no starting block yet, are built here from the
+ * design's kingpin. Each is checked by the validator before use.
  */
 import type { DesignFile, ResolvedDesign } from '../../../core/design/types';
 import { validateDesign } from '../../../core/design/validateDesign';
@@ -16,11 +18,42 @@ export interface LayoutVariant {
   design: ResolvedDesign;
 }
 
-type Steer = 'bellCrank:ratio' | 'bellCrank:dragLink' | 'rack' | 'direct';
-const STEERS: readonly Steer[] = ['bellCrank:ratio', 'bellCrank:dragLink', 'rack', 'direct'];
+type Steer = 'bellCrank:ratio' | 'bellCrank:dragLink' | 'rack' | 'direct' | 'trackRod:dragLink' | 'trackRod:knuckle';
+const STEERS: readonly Steer[] = ['bellCrank:ratio', 'bellCrank:dragLink', 'rack', 'direct', 'trackRod:dragLink', 'trackRod:knuckle'];
+
+/**
+ * A one-piece track rod on the design's steering arms. The drag link pulls an arm 80 mm ahead
+ * of and 60 mm inboard of the right kingpin's middle from a vertical column on the centre line;
+ * a handlebar on the left upright needs a kingpin. Both ends are the track rod's joints.
+ */
+export function withTrackRod(d: DesignFile, drive: 'dragLink' | 'knuckle'): DesignFile {
+  const out = clone(d);
+  const r = resolveDesign(out);
+  const up = r.frontEnd.upper.outerJoint.right;
+  const lo = r.frontEnd.lower.outerJoint.right;
+  const m = { x: (up.x + lo.x) / 2, y: (up.y + lo.y) / 2, z: (up.z + lo.z) / 2 };
+  out.steering =
+    drive === 'dragLink'
+      ? {
+          kind: 'trackRod',
+          drive: {
+            kind: 'dragLink',
+            upright: 'right',
+            columnPivot: { x: m.x, y: 0, z: m.z + 100 },
+            columnAxis: { x: 0, y: 0, z: 1 },
+            columnArmJoint: { x: m.x + 80, y: 0, z: m.z },
+            uprightArmJoint: { x: m.x + 80, y: m.y + 60, z: m.z },
+          },
+        }
+      : { kind: 'trackRod', drive: { kind: 'knuckle', upright: 'left' } };
+  if (drive === 'knuckle') out.upright.steeringAxis = 'kingpin';
+  out.joints.tieRodInner = clone(out.joints.tieRodOuter);
+  return out;
+}
 
 function withSteering(d: DesignFile, steer: Steer): DesignFile {
-  const [kind, input] = steer.split(':') as [DesignFile['steering']['kind'], 'ratio' | 'dragLink' | undefined];
+  if (steer === 'trackRod:dragLink' || steer === 'trackRod:knuckle') return withTrackRod(d, steer === 'trackRod:dragLink' ? 'dragLink' : 'knuckle');
+  const [kind, input] = steer.split(':') as [Exclude<DesignFile['steering']['kind'], 'trackRod'>, 'ratio' | 'dragLink' | undefined];
   const out = clone(d);
   out.steering = starterSteering(out, kind);
   if (input && out.steering.kind === 'bellCrank') out.steering.input = starterCrankInput(out, input) ?? out.steering.input;

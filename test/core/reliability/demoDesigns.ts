@@ -14,6 +14,7 @@ export const DEMO_FILES = [
   'assets/designs/heron-tilting-velomobile.tiltsheet',
   'assets/designs/swift-parallelogram-trike.tiltsheet',
   'assets/designs/wren-rack-trike.tiltsheet',
+  'assets/designs/linnet-track-rod-trike.tiltsheet',
   'test/fixtures/minimal.tiltsheet',
 ] as const;
 

@@ -260,8 +260,25 @@ function tyreOf(u: Uniform, rolling: number): DesignFile['wheels']['front'] {
   return { rollingRadiusMm: rolling, tyreWidthMm: u.between(0.05, 1) * rolling, crownRadiusMm: crown };
 }
 
-function steeringOf(u: Uniform, layout: { armZ: number; innerY: number; armX: number }, L: (s: number) => number): DesignFile['steering'] {
-  const kind = u.pick(['bellCrank', 'bellCrankDragLink', 'rack', 'direct'] as const);
+function steeringOf(u: Uniform, layout: { armZ: number; innerY: number; armX: number; armY: number }, L: (s: number) => number): DesignFile['steering'] {
+  const kind = u.pick(['bellCrank', 'bellCrankDragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle'] as const);
+  if (kind === 'trackRodKnuckle') return { kind: 'trackRod', drive: { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) } };
+  if (kind === 'trackRodDragLink') {
+    // A column on the centre line whose arm pulls an arm on one upright, on the other side of the axis from the steering arm.
+    const side = u.pick(['right', 'left'] as const);
+    const x = -layout.armX;
+    return {
+      kind: 'trackRod',
+      drive: {
+        kind: 'dragLink',
+        upright: side,
+        columnPivot: P(x - L(0.05), 0, layout.armZ + L(0.1)),
+        columnAxis: P(u.between(-0.5, 0.5), u.between(-0.2, 0.2), 1),
+        columnArmJoint: P(x + L(0.05) * (u.next() - 0.5), L(0.05) * (u.next() - 0.5), layout.armZ),
+        uprightArmJoint: P(x, side === 'right' ? layout.armY : -layout.armY, layout.armZ + L(0.05) * (u.next() - 0.5)),
+      },
+    };
+  }
   const inner = rightPoint(P(layout.armX + L(0.15) * (u.next() - 0.5), layout.innerY, layout.armZ + L(0.2) * (u.next() - 0.5)));
   if (kind === 'rack') {
     return { kind: 'rack', axis: P(u.between(-0.2, 0.2), u.pick([-1, 1]), u.between(-0.2, 0.2)), tieRodJoint: inner, mmPerHandlebarDeg: u.pick([-1, 1]) * u.between(0.05, 20) };
@@ -345,11 +362,16 @@ export function plausibleDesign(values: readonly number[]): DesignFile {
       staticToeDeg: u.between(-3, 3),
       staticCamberDeg: u.between(-5, 5),
     },
-    steering: steeringOf(u, { armZ, innerY: Math.min(innerY, -1), armX }, L),
+    steering: steeringOf(u, { armZ, innerY: Math.min(innerY, -1), armX, armY: arm.y }, L),
     wheels: { front: tyreOf(u, rolling), rear: tyreOf(u, rolling * u.between(0.8, 1.6)) },
     joints: jointSpecs(u),
     envelope: envelopeOf(u, tilting),
   };
+  if (design.steering.kind === 'trackRod') {
+    // Both ends of a one-piece track rod are its joints on the steering arms; a handlebar on an upright needs a kingpin.
+    design.joints.tieRodInner = JSON.parse(JSON.stringify(design.joints.tieRodOuter));
+    if (design.steering.drive.kind === 'knuckle') design.upright.steeringAxis = 'kingpin';
+  }
   return design;
 }
 
@@ -379,9 +401,13 @@ export function wildDesign(values: readonly number[]): DesignFile {
           upper: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
           lower: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
         };
-  const kind = u.pick(['ratio', 'dragLink', 'rack', 'direct'] as const);
+  const kind = u.pick(['ratio', 'dragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle'] as const);
   const steering: DesignFile['steering'] =
-    kind === 'rack'
+    kind === 'trackRodKnuckle'
+      ? { kind: 'trackRod', drive: { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) } }
+      : kind === 'trackRodDragLink'
+        ? { kind: 'trackRod', drive: { kind: 'dragLink', upright: u.pick(['right', 'left'] as const), columnPivot: point(), columnAxis: dir(), columnArmJoint: point(), uprightArmJoint: point() } }
+        : kind === 'rack'
       ? { kind: 'rack', axis: dir(), tieRodJoint: sided(right), mmPerHandlebarDeg: u.pick([-1, 1]) * u.between(0.01, 20) }
       : kind === 'direct'
         ? { kind: 'direct', pivot: point(), axis: dir(), tieRodJoint: sided(right) }

@@ -149,7 +149,7 @@ describe('upright steering about the inclined ball-joint axis', () => {
         // the tie rod keeps its design length (what sets the angle)
         const arm = snap.points[`upright.steeringArmJoint.${side}`];
         const inner = snap.points[`steering.tieRodJoint.${side}`];
-        const len0 = Math.hypot(...sub(pt(design.upright.steeringArmJoint[side]), pt(design.steering.tieRodJoint[side])));
+        const len0 = Math.hypot(...sub(pt(design.upright.steeringArmJoint[side]), pt((design.steering as Extract<typeof design.steering, { kind: 'rack' }>).tieRodJoint[side])));
         expect(Math.abs(Math.hypot(...sub(arm, inner)) - len0)).toBeLessThan(1e-9);
       }
       report(`steer axis ${side}: largest steer about the axis (deg)`, largest / DEG);

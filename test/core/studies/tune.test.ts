@@ -24,10 +24,17 @@ import type { StudyPose } from '../../../core/studies/studyPoses';
 /** Lean poses at the straight-ahead handlebar: where a tilting front end's tie rods steer it by themselves. */
 const LEAN_POSES: StudyPose[] = [-25, -15, -5, 5, 15, 25].map((leanDeg) => ({ leanDeg, handlebarDeg: 0, travelMm: 0 }));
 
+/** The steering of a design with tie rods (every demo used here has them). */
+function tieRodSteering<S extends { kind: string }>(s: S): Exclude<S, { kind: 'trackRod' }> {
+  if (s.kind === 'trackRod') throw new Error('a design with tie rods expected');
+  return s as Exclude<S, { kind: 'trackRod' }>;
+}
+
 function mislocated(): DesignFile {
   const file = demoDoc('heron-tilting-velomobile') as DesignFile;
-  const inner = resolveSidedVec(file.steering.tieRodJoint).right;
-  file.steering.tieRodJoint = { x: inner.x, y: inner.y - 8, z: inner.z + 12 };
+  const steering = tieRodSteering(file.steering);
+  const inner = resolveSidedVec(steering.tieRodJoint).right;
+  steering.tieRodJoint = { x: inner.x, y: inner.y - 8, z: inner.z + 12 };
   return file;
 }
 
@@ -64,13 +71,13 @@ describe('tune recovers a known answer', () => {
 
   it('lands within 1 mm of the drawing-board construction', () => {
     const construction = geometricProposals(file, false)[0].moves.find((m) => m.side === 'right')!.toMm;
-    const tuned = resolveSidedVec(secant.tuned.steering.tieRodJoint).right;
+    const tuned = resolveSidedVec(tieRodSteering(secant.tuned.steering).tieRodJoint).right;
     expect(Math.hypot(tuned.y - construction.y, tuned.z - construction.z)).toBeLessThan(1);
   });
 
   it('the secant (Broyden) and difference Jacobians reach the same design, the secant with fewer solves', () => {
-    const a = resolveSidedVec(secant.tuned.steering.tieRodJoint).right;
-    const b = resolveSidedVec(difference.tuned.steering.tieRodJoint).right;
+    const a = resolveSidedVec(tieRodSteering(secant.tuned.steering).tieRodJoint).right;
+    const b = resolveSidedVec(tieRodSteering(difference.tuned.steering).tieRodJoint).right;
     expect(Math.hypot(a.y - b.y, a.z - b.z)).toBeLessThan(0.05);
     expect(secant.evaluations).toBeLessThan(difference.evaluations);
   });
@@ -121,7 +128,7 @@ describe('tune keeps its bounds and its stop', () => {
     const before = resolveDesign(file);
     const len = (d: typeof before, s: 'left' | 'right') => {
       const a = d.upright.steeringArmJoint[s];
-      const b = d.steering.tieRodJoint[s];
+      const b = tieRodSteering(d.steering).tieRodJoint[s];
       return Math.hypot(a.x - b.x, a.y - b.y, a.z - b.z);
     };
     expect(len(moved, 'left') - len(before, 'left')).toBeCloseTo(3, 9);
@@ -161,7 +168,7 @@ describe('geometric proposals agree with planar kinematics', () => {
   it('the tie-rod point lies on the line from the outer joint through the instant centre (split wishbones)', () => {
     const d = resolveDoc(demoDoc('heron-tilting-velomobile'));
     const t = d.upright.steeringArmJoint.right;
-    const x = d.steering.tieRodJoint.right.x;
+    const x = tieRodSteering(d.steering).tieRodJoint.right.x;
     const r = tieRodLinePoint(d, 'right', t, x);
     if (!('point' in r)) throw new Error(r.reason);
     const ic = frontViewInstantCentre(d, 'right', x)!;
