@@ -13,8 +13,8 @@ import type { MapMetric } from '../../core/report/charts/chartData';
 import { ChartView } from './ChartView';
 import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
 import { heatMapOption, MAP_METRICS } from '../../core/report/charts/heatMapOptions';
-import { withReference } from '../../core/report/charts/referenceOverlay';
-import { useReferenceCurves } from '../studies/useReferenceCurves';
+import { sameGrid, withReference, withReferenceMap } from '../../core/report/charts/referenceOverlay';
+import { useReferenceCurves, useReferenceMap } from '../studies/useReferenceCurves';
 
 /** Quiet time after an edit before the charts are recomputed, ms. */
 const RECOMPUTE_DELAY_MS = 350;
@@ -179,13 +179,20 @@ function PlotBody({ running }: { running: boolean }) {
   const map = useJobs((s) => s.map.result);
   const marker = useSettledMarker();
   const reference = useReferenceCurves();
+  const mapRequest = useJobs((s) => s.map.request);
+  const referenceMap = useReferenceMap(tab === 'map' && mapRequest ? mapRequest.angleStepDeg : null, mapRequest?.travelMm);
+  const mapsComparable = map !== null && referenceMap !== null && sameGrid(map, referenceMap.map);
 
   const option = useMemo(() => {
-    if (tab === 'map') return map ? heatMapOption(map, metric, marker.leanDeg !== null && marker.handlebarDeg !== null ? { leanDeg: marker.leanDeg, handlebarDeg: marker.handlebarDeg } : null) : null;
+    if (tab === 'map') {
+      if (!map) return null;
+      const own = heatMapOption(map, metric, marker.leanDeg !== null && marker.handlebarDeg !== null ? { leanDeg: marker.leanDeg, handlebarDeg: marker.handlebarDeg } : null);
+      return referenceMap && mapsComparable ? withReferenceMap(own, referenceMap.map, metric, referenceMap.label) : own;
+    }
     if (!curves) return null;
     const own = curveOption(tab, curves, marker);
     return reference ? withReference(own, curveOption(tab, reference.curves), reference.label) : own;
-  }, [tab, curves, map, metric, marker, reference]);
+  }, [tab, curves, map, metric, marker, reference, referenceMap, mapsComparable]);
   const stale = slot.result !== null && slot.resultRevision !== revision;
 
   return (
@@ -196,6 +203,11 @@ function PlotBody({ running }: { running: boolean }) {
       {reference && tab !== 'map' && (
         <p className="hint reference-note" data-testid="reference-note">
           Dotted: {reference.label}
+        </p>
+      )}
+      {referenceMap && tab === 'map' && (
+        <p className="hint reference-note" data-testid="reference-note">
+          {mapsComparable ? `Dotted outline: where ${referenceMap.label} is within tolerance on this measure` : `${referenceMap.label} has another envelope, so its map is not drawn over this one`}
         </p>
       )}
       {option ? (

@@ -56,13 +56,16 @@ export function describeCell(map: EnvelopeMapData, cell: MapCell, metric: MapMet
 type Point = [number, number] | [null, null];
 const GAP: Point = [null, null];
 
-/** The dashed outline of the operating region, its loops joined by gaps into one series, in axis values. */
-export function regionOutlineSeries(map: EnvelopeMapData): Record<string, unknown> | null {
+/**
+ * The outline of the map cells for which `inside` holds, its loops joined by gaps into one line
+ * series in axis values (drawn on the map's second axes); null when no cell is inside.
+ */
+export function cellOutlineSeries(map: EnvelopeMapData, inside: (cell: EnvelopeMapData['cells'][number]) => boolean, name: string, lineStyle: Record<string, unknown>): Record<string, unknown> | null {
   const nL = map.lean.length;
   const nH = map.handlebar.length;
-  const inside = new Uint8Array(nL * nH);
-  for (const c of map.cells) if (c.inRegion) inside[c.leanIndex * nH + c.handlebarIndex] = 1;
-  const loops = regionOutline(nL, nH, (i, j) => inside[i * nH + j] === 1);
+  const flags = new Uint8Array(nL * nH);
+  for (const c of map.cells) if (inside(c)) flags[c.leanIndex * nH + c.handlebarIndex] = 1;
+  const loops = regionOutline(nL, nH, (i, j) => flags[i * nH + j] === 1);
   if (loops.length === 0) return null;
   const xs = bandEdges(map.lean);
   const ys = bandEdges(map.handlebar);
@@ -71,20 +74,26 @@ export function regionOutlineSeries(map: EnvelopeMapData): Record<string, unknow
     if (data.length) data.push(GAP);
     for (const [i, j] of [...loop, loop[0]]) data.push([xs[i], ys[j]]);
   }
+  const colour = (lineStyle.color as string | undefined) ?? REGION_COLOUR;
   return {
     type: 'line',
-    name: REGION_SERIES,
+    name,
     xAxisIndex: 1,
     yAxisIndex: 1,
     data,
     showSymbol: false,
     connectNulls: false,
     silent: true,
-    lineStyle: { color: REGION_COLOUR, width: 2.5, type: [7, 4] },
-    itemStyle: { color: REGION_COLOUR },
+    lineStyle,
+    itemStyle: { color: colour },
     z: 5,
     tooltip: { show: false },
   };
+}
+
+/** The dashed outline of the operating region. */
+export function regionOutlineSeries(map: EnvelopeMapData): Record<string, unknown> | null {
+  return cellOutlineSeries(map, (c) => c.inRegion, REGION_SERIES, { color: REGION_COLOUR, width: 2.5, type: [7, 4] });
 }
 
 /**

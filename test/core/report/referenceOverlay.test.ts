@@ -41,3 +41,37 @@ describe('reference curves over a chart', () => {
     expect(svg).toContain('(before)');
   });
 });
+
+describe('reference outline over the envelope map', () => {
+  it("outlines the reference's cells within tolerance on the measure shown, on the same grid only", async () => {
+    const { computeMap } = await import('../../../core/report/chartSweeps');
+    const { heatMapOption } = await import('../../../core/report/charts/heatMapOptions');
+    const { bandEdges } = await import('../../../core/report/charts/regionOutline');
+    const { sameGrid, withReferenceMap } = await import('../../../core/report/charts/referenceOverlay');
+    const design = demoDesign('heron-tilting-velomobile');
+    const map = computeMap({ design, angleStepDeg: 5 });
+    const own = heatMapOption(map, 'selfSteer');
+    const withRef = withReferenceMap(own, map, 'selfSteer', 'pinned');
+    const added = (withRef as { series: Series[] }).series.slice((own as { series: Series[] }).series.length);
+    expect(added).toHaveLength(1);
+    expect(added[0].name).toBe('within tolerance (pinned)');
+    // Every corner of the outline is a band edge of the grid, and it passes along the edge of
+    // every within cell that has an outside neighbour (checked on one: the first such cell).
+    const xs = bandEdges(map.lean);
+    const ys = bandEdges(map.handlebar);
+    const pts = (added[0].data as [number | null, number | null][]).filter((p) => p[0] !== null) as [number, number][];
+    for (const [x, y] of pts) {
+      expect(xs.some((e) => Math.abs(e - x) < 1e-9)).toBe(true);
+      expect(ys.some((e) => Math.abs(e - y) < 1e-9)).toBe(true);
+    }
+    const within = map.cells.filter((c) => c.severity.selfSteer === 'within');
+    expect(within.length).toBeGreaterThan(0);
+    expect(within.length).toBeLessThan(map.cells.length);
+    // A measure on which no cell is within draws no outline (negative control).
+    const none = { ...map, cells: map.cells.map((c) => ({ ...c, severity: { ...c.severity, selfSteer: 'over' as const } })) };
+    expect(withReferenceMap(own, none, 'selfSteer', 'x')).toBe(own);
+    // Another grid step is another grid.
+    expect(sameGrid(map, map)).toBe(true);
+    expect(sameGrid(map, computeMap({ design, angleStepDeg: 10 }))).toBe(false);
+  }, 60_000);
+});
