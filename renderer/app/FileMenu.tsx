@@ -1,15 +1,20 @@
-/** File commands: New, Open, Save, Save as, Recent, and the exchange commands (hardpoint CSV, 3D export). */
-import { useEffect, useMemo, useState } from 'react';
+/** File commands: New, Open, Save, Save as, Recent, and the exchange commands (hardpoint CSV, 3D export, the workshop report). */
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { RecentEntry } from '../files/fileService';
 import { pageExchangeFiles, type ExchangeFiles } from '../files/exchangeFiles';
 import { exportHardpointTable, exportPoseGlb, exportSweepGlb, readHardpointTable } from '../export/exchangeCommands';
+import { exportReport, printReport, type ReportRunner } from '../export/reportCommands';
+import { SweepClient } from '../workers/sweepClient';
 import type { ImportPlan } from '../export/hardpointImport';
 import { HardpointImportDialog } from './HardpointImportDialog';
 import { useFlow } from './flowContext';
 import { useWorkbenchApi } from './workbenchContext';
 
-/** `exchange`: where tables are read from and exports offered (the page's file input and downloads unless given). */
-export function FileMenu({ exchange }: { exchange?: ExchangeFiles } = {}) {
+/**
+ * `exchange`: where tables are read from and exports offered (the page's file input and downloads unless given);
+ * `reports`: what makes the workshop report (a sweep client of its own unless given).
+ */
+export function FileMenu({ exchange, reports }: { exchange?: ExchangeFiles; reports?: ReportRunner } = {}) {
   const flow = useFlow();
   const wb = useWorkbenchApi();
   const { ui } = wb;
@@ -17,6 +22,9 @@ export function FileMenu({ exchange }: { exchange?: ExchangeFiles } = {}) {
   const [exchangeOpen, setExchangeOpen] = useState(false);
   const [plan, setPlan] = useState<ImportPlan | null>(null);
   const files = useMemo(() => exchange ?? pageExchangeFiles(), [exchange]);
+  const ownReports = useRef<SweepClient | null>(null);
+  useEffect(() => () => ownReports.current?.dispose(), []);
+  const reportRunner = (): ReportRunner => reports ?? (ownReports.current ??= new SweepClient());
   const run = (command: () => unknown) => {
     setExchangeOpen(false);
     void command();
@@ -26,6 +34,8 @@ export function FileMenu({ exchange }: { exchange?: ExchangeFiles } = {}) {
     ['Import hardpoints (CSV)…', 'Read a hardpoint table; shows what moves before applying', 'file-import-hardpoints', async () => setPlan(await readHardpointTable(wb, files))],
     ['Export 3D at this pose (.glb)', 'The mechanism at the pose on screen, glTF 2.0 binary, metres', 'file-export-pose-glb', () => exportPoseGlb(wb, files)],
     ['Export lean sweep animation (.glb)', 'A sweep of lean across the envelope (handlebar if the vehicle does not lean), animated', 'file-export-sweep-glb', () => exportSweepGlb(wb, files)],
+    ['Workshop report (HTML)…', 'One document for the workshop: hardpoints, alignment, drawings, curves, limits, turning circles (as tiltbench report)', 'file-export-report', () => exportReport(wb, files, reportRunner())],
+    ['Print workshop report…', 'The same report through the print dialog (Save as PDF there)', 'file-print-report', () => printReport(wb, reportRunner())],
   ];
 
   useEffect(() => {

@@ -2,6 +2,7 @@
 import { computeCurves, computeMap, type Progress } from './sweepJobs';
 import { computeSensitivity } from './sensitivityJob';
 import { computeFit, computeProposals, computeTolerance, computeTune, computeVariants } from './studyJobs';
+import { computeReport } from './reportJob';
 import type { JobKinds, SweepRequest } from './sweepProtocol';
 
 export function runJob(req: SweepRequest, progress?: Progress): JobKinds[SweepRequest['kind']]['data'] {
@@ -22,5 +23,7 @@ export function runJob(req: SweepRequest, progress?: Progress): JobKinds[SweepRe
       return computeVariants(req.request, progress);
     case 'fit':
       return computeFit(req.request, progress);
+    case 'report':
+      return computeReport(req.request, progress);
   }
 }

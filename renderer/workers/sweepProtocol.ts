@@ -8,6 +8,7 @@ import type { CurveRequest, MapRequest } from './sweepJobs';
 import type { SensitivityData, SensitivityRequest } from './sensitivityJob';
 import type { FitRequest, ProposalsRequest, ToleranceRequest, TuneRequest, VariantsRequest } from './studyJobs';
 import type { FitReport } from '../../core/studies/fit';
+import type { ReportRequest } from './reportJob';
 
 export interface JobKinds {
   curves: { request: CurveRequest; data: CurveSet };
@@ -18,6 +19,8 @@ export interface JobKinds {
   proposals: { request: ProposalsRequest; data: Proposal[] };
   variants: { request: VariantsRequest; data: VariantsReport };
   fit: { request: FitRequest; data: FitReport };
+  /** The workshop report, one HTML document. */
+  report: { request: ReportRequest; data: string };
 }
 
 export type JobKind = keyof JobKinds;
