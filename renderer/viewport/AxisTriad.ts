@@ -29,7 +29,8 @@ export class AxisTriad {
       pos.push(0, 0, 0, a.dir[0] * 0.8, a.dir[1] * 0.8, a.dir[2] * 0.8);
       const c = parseInt(a.colour.slice(1), 16);
       for (let k = 0; k < 2; k++) col.push(((c >> 16) & 255) / 255, ((c >> 8) & 255) / 255, (c & 255) / 255);
-      const cone = new Mesh(new ConeGeometry(0.09, 0.3, 12), new MeshBasicMaterial({ color: a.colour }));
+      // No depth test: the triad is drawn over the picture without clearing the depth buffer (a full-canvas pass on the CPU).
+      const cone = new Mesh(new ConeGeometry(0.09, 0.3, 12), new MeshBasicMaterial({ color: a.colour, depthTest: false, depthWrite: false }));
       cone.position.set(a.dir[0] * 0.9, a.dir[1] * 0.9, a.dir[2] * 0.9);
       cone.quaternion.setFromUnitVectors(new Vector3(0, 1, 0), new Vector3(...a.dir));
       this.scene.add(cone);
@@ -41,7 +42,7 @@ export class AxisTriad {
     const g = new BufferGeometry();
     g.setAttribute('position', new Float32BufferAttribute(pos, 3));
     g.setAttribute('color', new Float32BufferAttribute(col, 3));
-    this.scene.add(new LineSegments(g, new LineBasicMaterial({ vertexColors: true })));
+    this.scene.add(new LineSegments(g, new LineBasicMaterial({ vertexColors: true, depthTest: false, depthWrite: false })));
   }
 
   /** Draws the triad into the upper right corner, turned as the main camera looks. */
@@ -59,7 +60,6 @@ export class AxisTriad {
     });
     const autoClear = renderer.autoClear;
     renderer.autoClear = false;
-    renderer.clearDepth();
     const size = renderer.getSize(this.size);
     renderer.setViewport(size.x - TRIAD_PX - 6, size.y - TRIAD_PX - 6, TRIAD_PX, TRIAD_PX);
     renderer.render(this.scene, this.camera);
