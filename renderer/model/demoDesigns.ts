@@ -3,6 +3,7 @@
  * starting points for "New".
  */
 import heron from '../../assets/designs/heron-tilting-velomobile.tiltsheet?raw';
+import finch from '../../assets/designs/finch-knuckle-steered-trike.tiltsheet?raw';
 import linnet from '../../assets/designs/linnet-track-rod-trike.tiltsheet?raw';
 import swift from '../../assets/designs/swift-parallelogram-trike.tiltsheet?raw';
 import wren from '../../assets/designs/wren-rack-trike.tiltsheet?raw';
@@ -20,6 +21,7 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
   { id: 'swift', fileName: 'swift-parallelogram-trike.tiltsheet', starter: 'Tilting, centre-pivot parallelogram', text: swift },
   { id: 'wren', fileName: 'wren-rack-trike.tiltsheet', starter: 'Non-tilting, split wishbones, rack', text: wren },
   { id: 'linnet', fileName: 'linnet-track-rod-trike.tiltsheet', starter: 'Non-tilting, split wishbones, one-piece track rod', text: linnet },
+  { id: 'finch', fileName: 'finch-knuckle-steered-trike.tiltsheet', starter: 'Tilting, centre-pivot parallelogram, handlebar on the upright', text: finch },
 ];
 
 /** The design the workbench opens on when nothing else is asked for. */

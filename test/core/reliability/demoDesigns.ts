@@ -15,6 +15,7 @@ export const DEMO_FILES = [
   'assets/designs/swift-parallelogram-trike.tiltsheet',
   'assets/designs/wren-rack-trike.tiltsheet',
   'assets/designs/linnet-track-rod-trike.tiltsheet',
+  'assets/designs/finch-knuckle-steered-trike.tiltsheet',
   'test/fixtures/minimal.tiltsheet',
 ] as const;
 
