@@ -37,6 +37,14 @@ export interface CheckItem {
   verdict: Verdict;
   /** Extra words: the margin of a joint, the solver's message for a pose that failed. */
   detail?: string;
+  /**
+   * Where it is first exceeded (over its limit, or a pose that cannot be assembled): of the
+   * poses where it is, the one nearest the design pose (upright, straight ahead, no travel),
+   * nearness measured as the largest of |lean|, |handlebar| and |travel| each over its envelope
+   * (the pose a rider reaches first leaning, steering or hitting a bump from straight ahead);
+   * null when it never is.
+   */
+  firstOver: CheckWhere | null;
 }
 
 /** One judged set of poses: the operating region, or the whole lean x handlebar x travel grid. */
@@ -90,6 +98,8 @@ interface Acc {
   item: CheckItem;
   /** Compare by this (larger = worse). */
   score: number;
+  /** Nearness of firstOver to the design pose (smaller = nearer). */
+  firstDistance: number;
 }
 
 export class CheckAccumulator {
@@ -105,7 +115,7 @@ export class CheckAccumulator {
     this.design = design;
     const tol = design.tolerances;
     const add = (id: string, group: CheckItem['group'], label: string, unit: CheckItem['unit'], limit: string) =>
-      this.accs.set(id, { item: { id, group, label, unit, worst: null, where: null, limit, verdict: 'within' }, score: -Infinity });
+      this.accs.set(id, { item: { id, group, label, unit, worst: null, where: null, limit, verdict: 'within', firstOver: null }, score: -Infinity, firstDistance: Infinity });
     for (const side of ['left', 'right'] as Side[]) add(`selfSteer.${side}`, 'tolerance', `self-steer (lean and bump steer), ${side}`, 'deg', `|x| <= ${tol.selfSteerDeg} deg`);
     add('ratioChange', 'tolerance', 'steering-ratio change from upright', '%', `|x| <= ${tol.ratioChangePct} %`);
     for (const side of ['left', 'right'] as Side[]) add(`slip.${side}`, 'tolerance', `slip angle (toe mismatch), ${side}`, 'deg', `|x| <= ${tol.slipDeg} deg`);
@@ -122,12 +132,32 @@ export class CheckAccumulator {
     add('assembly', 'linkage', 'poses that cannot be assembled', 'poses', '0');
   }
 
-  private update(id: string, value: number, score: number, where: CheckWhere): void {
+  private update(id: string, value: number, score: number, where: CheckWhere, verdict?: Verdict): void {
     const acc = this.accs.get(id);
-    if (!acc || !(score > acc.score)) return;
+    if (!acc) return;
+    if (verdict === 'over' || verdict === 'broken') this.exceeded(acc, where);
+    if (!(score > acc.score)) return;
     acc.score = score;
     acc.item.worst = value;
     acc.item.where = where;
+  }
+
+  /** Nearness of a pose to the design pose, each input over its envelope (see CheckItem.firstOver). */
+  private distance(w: CheckWhere): number {
+    const e = this.design.envelope;
+    const over = (x: number, range: number) => (x === 0 ? 0 : range > 0 ? Math.abs(x) / range : Infinity);
+    const travelRange = w.travelMm >= 0 ? e.bumpMm : e.reboundMm;
+    // Ties (the same largest share) go to the smaller sum, then to the first met.
+    const parts = [over(w.leanDeg, e.leanDeg), over(w.handlebarDeg, e.handlebarDeg), over(w.travelMm, travelRange)];
+    return Math.max(...parts) + 1e-6 * (parts[0] + parts[1] + parts[2]);
+  }
+
+  private exceeded(acc: Acc, where: CheckWhere): void {
+    const d = this.distance(where);
+    if (d < acc.firstDistance) {
+      acc.firstDistance = d;
+      acc.item.firstOver = where;
+    }
   }
 
   add(cell: SweepCell): void {
@@ -136,22 +166,25 @@ export class CheckAccumulator {
     if (!cell.ok) {
       this.failedCount++;
       if (!this.firstFailure) this.firstFailure = { where, message: cell.failure.solver.message };
+      const assembly = this.accs.get('assembly');
+      if (assembly) this.exceeded(assembly, where);
       return;
     }
     const a: PoseAnalysis = cell.analysis;
+    const tol = this.design.tolerances;
     for (const side of ['left', 'right'] as Side[]) {
       const e = a.selfSteer[`${side}Deg`];
-      if (e !== null) this.update(`selfSteer.${side}`, e, Math.abs(e), where);
+      if (e !== null) this.update(`selfSteer.${side}`, e, Math.abs(e), where, judgeSelfSteer(e, tol));
       const s = a.slip[side].slipDeg;
-      this.update(`slip.${side}`, s, Math.abs(s), where);
+      this.update(`slip.${side}`, s, Math.abs(s), where, judgeSlip(s, tol));
     }
     const rc = a.steering.ratioChangePct;
-    if (rc !== null) this.update('ratioChange', rc, Math.abs(rc), where);
-    for (const j of a.joints) this.update(`joint.${j.joint}.${j.side}`, j.articulationDeg, j.articulationDeg, where);
-    for (const c of a.clearances) this.update(`clearance.${c.pair}.${c.side}`, c.distanceMm, -c.distanceMm, where);
+    if (rc !== null) this.update('ratioChange', rc, Math.abs(rc), where, judgeRatioChange(rc, tol));
+    for (const j of a.joints) this.update(`joint.${j.joint}.${j.side}`, j.articulationDeg, j.articulationDeg, where, judgeJoint(j.articulationDeg, this.design.joints[j.joint].ratedDeg, tol));
+    for (const c of a.clearances) this.update(`clearance.${c.pair}.${c.side}`, c.distanceMm, -c.distanceMm, where, judgeClearance(c.distanceMm, tol));
     const across = acrossClearance(a, this.design);
-    this.update(ACROSS_ID, across, -across, where);
-    this.update('deadCentre', a.worst.transmissionDeg, -a.worst.transmissionDeg, where);
+    this.update(ACROSS_ID, across, -across, where, judgeClearance(across, tol));
+    this.update('deadCentre', a.worst.transmissionDeg, -a.worst.transmissionDeg, where, judgeTransmission(a.worst.transmissionDeg));
     const tc = a.turningCircle;
     if (cell.leanDeg === 0 && cell.travelMm === 0 && tc.outerSide && tc.kerbToKerbMm !== null && tc.wallToWallMm !== null) {
       const turn: Side = tc.outerSide === 'right' ? 'left' : 'right';

@@ -16,7 +16,9 @@ export const checkHelp = `tiltbench check <design.tiltsheet> [--region operating
   operating region (the poses balanced turns at the riding block's speeds reach, widened by its
   transient band, within its lean and grip limits) and for the full rectangle, a table of every
   tolerance (self-steer, steering-ratio change, slip), every joint and every clearance pair with
-  its worst value, where it occurs (lean, handlebar, travel) and its verdict.
+  its worst value, where it occurs (lean, handlebar, travel) and its verdict; for an item over
+  its limit, where it is first exceeded (of the poses where it is, the one nearest upright,
+  straight ahead and unloaded, each input measured against its envelope).
   --region operating|full             which section decides the result (default operating)
   --lean-step DEG, --steer-step DEG   grid spacing, at most (default 1)
   --travel-step MM                    grid spacing, at most (default 10)
@@ -36,8 +38,18 @@ function positiveOption(args: ReturnType<typeof parseArgs>, name: string, unit: 
 
 const f1 = (x: number) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1);
 
+function poseText(w: CheckItem['where']): string {
+  return w ? `${f1(w.leanDeg)}, ${f1(w.handlebarDeg)}, ${f1(w.travelMm)}` : '-';
+}
+
 function whereText(it: CheckItem): string {
-  return it.where ? `${f1(it.where.leanDeg)}, ${f1(it.where.handlebarDeg)}, ${f1(it.where.travelMm)}` : '-';
+  return poseText(it.where);
+}
+
+/** The detail column: core's words, then where the item is first exceeded (nearest the design pose). */
+function detailText(it: CheckItem): string {
+  const first = it.firstOver ? `first exceeded at ${poseText(it.firstOver)}` : '';
+  return [it.detail ?? '', first].filter((x) => x).join('; ');
 }
 
 function worstText(it: CheckItem): string {
@@ -53,7 +65,7 @@ function axisText(values: number[], unit: string): string {
 
 function sectionTable(sec: CheckSection): string[] {
   const rows: string[][] = [['item', 'worst', 'where (lean, handlebar, travel)', 'allowed', 'verdict', '']];
-  for (const it of sec.items) rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), it.detail ?? '']);
+  for (const it of sec.items) rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), detailText(it)]);
   const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
   return rows.map((r) => r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]) : cell.padEnd(widths[i]))).join('  ').trimEnd());
 }
