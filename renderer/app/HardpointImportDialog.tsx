@@ -3,6 +3,7 @@
  * and how far), or the table's problems with line and column. Apply makes one undoable edit;
  * Cancel (or a table with problems) changes nothing.
  */
+import { createPortal } from 'react-dom';
 import type { Vec3Mm } from '../../core/design/types';
 import { adoptDesign } from '../model/designActions';
 import { fmt } from '../model/format';
@@ -12,7 +13,12 @@ import { useActions } from './workbenchContext';
 
 const xyz = (p: Vec3Mm) => `${fmt(p.x, 2)}, ${fmt(p.y, 2)}, ${fmt(p.z, 2)}`;
 
-export function HardpointImportDialog({ plan, onClose }: { plan: ImportPlan; onClose: () => void }) {
+/** Rendered into the page's body: the menu that opens it sits in the top bar, whose layout containment would hold a fixed backdrop inside the bar. */
+export function HardpointImportDialog(props: { plan: ImportPlan; onClose: () => void }) {
+  return createPortal(<ImportDialogBody {...props} />, document.body);
+}
+
+function ImportDialogBody({ plan, onClose }: { plan: ImportPlan; onClose: () => void }) {
   const actions = useActions();
   if (!plan.ok) {
     return (
