@@ -127,6 +127,18 @@ export function CameraRig() {
       invalidate();
     };
     const off = viewRequests.on(show);
+    // Another design (opened, new, restored): frame it in the view shown, once it is solved.
+    // Edits of the same design keep the camera where the user put it.
+    const key = () => {
+      const d = wb.document.getState();
+      return `${d.doc.fileName}|${d.design.name}|${d.design.vehicle.wheelbaseMm}|${d.design.frontEnd.kind}`;
+    };
+    let framedFor = key();
+    const offPose = wb.pose.subscribe((s, prev) => {
+      if (s.outcome === prev.outcome || key() === framedFor) return;
+      framedFor = key();
+      show(shownView.current);
+    });
     // First view once the canvas has a size (later resizes keep the user's view).
     let t: ReturnType<typeof setTimeout> | undefined;
     if (!shownOnce.current && size.width > 0 && size.height > 0) {
@@ -135,6 +147,7 @@ export function CameraRig() {
     }
     return () => {
       off();
+      offPose();
       clearTimeout(t);
     };
   }, [active, size.width, size.height, invalidate, wb, set, elevations, gl]);

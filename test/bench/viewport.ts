@@ -18,7 +18,7 @@
  * Frames per second are measured in three windows of N seconds and the median reported (this
  * machine is shared; the load average is printed so a reader can judge the figures).
  *
- * Usage: tsx test/bench/viewport.ts [--no-build] [--seconds N] [--trials N] [--config brief|software]
+ * Usage: tsx test/bench/viewport.ts [--no-build | --dir BUILT_RENDERER] [--seconds N] [--trials N] [--config brief|software]
  */
 import os from 'node:os';
 import { chromium, type Browser, type Page } from 'playwright-core';
@@ -33,18 +33,21 @@ const HEIGHT = 800;
 
 interface Args {
   build: boolean;
+  /** A renderer built elsewhere to serve instead (e.g. an earlier version, to compare). */
+  dir: string | null;
   seconds: number;
   configs: string[];
   trials: number;
 }
 
 function parseArgs(argv: string[]): Args {
-  const a: Args = { build: true, seconds: 5, configs: ['brief', 'software'], trials: 20 };
+  const a: Args = { build: true, dir: null, seconds: 5, configs: ['brief', 'software'], trials: 20 };
   for (let i = 0; i < argv.length; i++) {
     if (argv[i] === '--no-build') a.build = false;
     else if (argv[i] === '--seconds') a.seconds = Number(argv[++i]);
     else if (argv[i] === '--trials') a.trials = Number(argv[++i]);
     else if (argv[i] === '--config') a.configs = [argv[++i]];
+    else if (argv[i] === '--dir') a.dir = argv[++i];
     else throw new Error(`unknown argument ${argv[i]}`);
   }
   return a;
@@ -178,7 +181,7 @@ const verdict = (ok: boolean) => (ok ? 'PASS' : 'MISS');
 
 async function main(): Promise<void> {
   const args = parseArgs(process.argv.slice(2));
-  const dir = args.build ? await buildRenderer() : BUILD_DIR;
+  const dir = args.dir ?? (args.build ? await buildRenderer() : BUILD_DIR);
   const server = await serveStatic(dir, DESIGNS_DIR);
   console.log(`Viewport benchmark: ${WIDTH} x ${HEIGHT}, demo design playing a lean sweep, headless ${CHROMIUM_PATH}`);
   console.log(`targets: >= ${TARGET_FPS} fps while playing; < ${TARGET_LATENCY_MS} ms from a slider change to updated readouts and picture`);
