@@ -233,6 +233,12 @@ function steeringLimits(r: ReportData): string {
   return `<h3>Steering limits (first limit met each way, zero travel)</h3>` + htmlTable(['lean deg', 'turn', 'handlebar deg', 'left wheel deg', 'right wheel deg', 'what limits it'], limRows, 'grid steer-limits');
 }
 
+/** Words when a full-lock pose lies past the steering limit the check found at lean 0 (its joints or clearances are over there). */
+function beyondLimit(r: ReportData, f: ReportData['fullLock'][number]): string {
+  const lim = r.check.limits.find((l) => l.leanDeg === 0)?.[f.turn].handlebarDeg ?? null;
+  return lim !== null && Math.abs(f.handlebarDeg) > Math.abs(lim) + 1e-9 ? `past the steering limit (${fixed(lim, 1)} deg at lean 0)` : '';
+}
+
 function turningSheet(r: ReportData): string {
   const rows = r.fullLock.map((f) => {
     const tc = f.pose.analysis?.turningCircle;
@@ -246,10 +252,10 @@ function turningSheet(r: ReportData): string {
       num(tc?.kerbToKerbMm != null ? tc.kerbToKerbMm / 1000 : null, 2, 'kerbToKerbM'),
       num(tc?.wallToWallMm != null ? tc.wallToWallMm / 1000 : null, 2, 'wallToWallM'),
       num(ack?.percent ?? null, 1, 'ackermannPct'),
-      td(f.pose.analysis ? (tc?.reason ?? tc?.wallToWallFrom ?? '') : `not solved: ${f.pose.message}`),
+      td(f.pose.analysis ? [tc?.reason ?? (tc?.wallToWallFrom ? `wall to wall: ${tc.wallToWallFrom}` : ''), beyondLimit(r, f)].filter(Boolean).join('; ') : `not solved: ${f.pose.message}`, 'data-field="note"'),
     ];
   });
-  const table = htmlTable(['at full lock (lean 0)', 'handlebar deg', 'left wheel deg', 'right wheel deg', 'turning diameter m', 'kerb to kerb m', 'wall to wall m', 'Ackermann %', ''], rows, 'grid turning').replace('<table', '<table id="turning"');
+  const table = htmlTable(['at full lock (lean 0, the envelope\u2019s handlebar angle)', 'handlebar deg', 'left wheel deg', 'right wheel deg', 'turning diameter m', 'kerb to kerb m', 'wall to wall m', 'Ackermann %', ''], rows, 'grid turning').replace('<table', '<table id="turning"');
   const info = r.check.info.filter((i) => i.startsWith('turning circle')).map((i) => `<li>${escapeHtml(i)}</li>`).join('');
   return `<h3>Turning circles (SAE J695)</h3>${table}${info ? `<p class="small">From the check, the tightest inside the steering limit:</p><ul class="small">${info}</ul>` : ''}`;
 }

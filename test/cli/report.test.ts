@@ -132,6 +132,22 @@ describe('tiltbench report (HTML), read back', () => {
     expect(doc.getElementById('check-result')?.textContent).toBe(check.passed ? 'PASS' : 'FAIL');
   });
 
+  it('the turning circles at full lock are `tiltbench pose --steer LOCK --json`\u2019s (SAE J695 figures)', async () => {
+    const lock = JSON.parse(readFileSync(WREN, 'utf8')).envelope.handlebarDeg as number;
+    const rows = [...doc.querySelectorAll('#turning tbody tr')];
+    expect(rows).toHaveLength(2);
+    for (const [row, steer] of [[rows[0], lock], [rows[1], -lock]] as const) {
+      const p = JSON.parse((await run(['pose', WREN, '--steer', String(steer), '--json'])).out);
+      const tc = p.analysis.turningCircle;
+      const cell = (f: string) => row.querySelector(`[data-field="${f}"]`);
+      expect(shown(cell('handlebarDeg'))).toBe(steer);
+      expect(Number(cell('turningDiameterM')?.getAttribute('data-value'))).toBe(tc.turningDiameterMm / 1000);
+      expect(Number(cell('kerbToKerbM')?.getAttribute('data-value'))).toBe(tc.kerbToKerbMm / 1000);
+      expect(shown(cell('wallToWallM'))).toBe(Number((tc.wallToWallMm / 1000).toFixed(2)));
+      expect(Number(cell('leftWheelDeg')?.getAttribute('data-value'))).toBe(p.analysis.wheels.left.steerDeg);
+    }
+  });
+
   it('draws every workbench curve chart and the envelope map as inline SVG', () => {
     for (const c of CURVE_CHARTS) expect(doc.querySelector(`[data-chart="${c.id}"] svg`), c.id).not.toBeNull();
     const map = doc.querySelector('[data-chart="map"] svg');
