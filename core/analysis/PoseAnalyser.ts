@@ -318,10 +318,14 @@ export class PoseAnalyser {
   }
 }
 
-/** The frame point on the steering body's axis (crank, lever or column pivot); none for a rack or a handlebar on an upright. */
+/** The frame point on the steering body's axis (crank, lever, column or centre-lever pivot); none for a rack or a handlebar on an upright. */
 function steerPivot(st: ResolvedDesign['steering']): Vec3 | null {
   if (st.kind === 'rack') return null;
-  if (st.kind === 'trackRod') return st.drive.kind === 'dragLink' ? [st.drive.columnPivot.x, st.drive.columnPivot.y, st.drive.columnPivot.z] : null;
+  if (st.kind === 'trackRod') {
+    const drive = st.drive;
+    if (drive.kind === 'dragLink') return [drive.columnPivot.x, drive.columnPivot.y, drive.columnPivot.z];
+    return drive.kind === 'centreLever' ? [drive.pivot.x, drive.pivot.y, drive.pivot.z] : null;
+  }
   return [st.pivot.x, st.pivot.y, st.pivot.z];
 }
 

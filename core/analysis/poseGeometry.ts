@@ -11,8 +11,9 @@
  * A one-piece track rod (trackRodSteering.ts) is read as each side's tie rod, from this side's
  * steering arm to the other side's: the inner joint is the far end, on the other upright (its
  * stud along joints.tieRodInner's direction for that side). The steering body is then the
- * steering column of a drag link, or the upright the handlebar is fixed to; the drag link's
- * driven lever is that upright turning about its steering axis.
+ * steering column of a drag link, the centre lever, or the upright the handlebar is fixed to;
+ * the drag link's driven lever is that upright turning about its steering axis, and a centre
+ * lever's short link is read as a drag link taken at the lever.
  */
 
 import type { ResolvedDesign, Side, Vec3Mm } from '../design/types';
@@ -200,7 +201,10 @@ function sideRefs(design: ResolvedDesign, graph: MechanismGraph, side: Side, ste
  */
 function steeringBody(design: ResolvedDesign, graph: MechanismGraph): number {
   const st = design.steering;
-  if (st.kind === 'trackRod') return bodyIndex(graph, st.drive.kind === 'dragLink' ? 'column' : `${st.drive.upright}.upright`);
+  if (st.kind === 'trackRod') {
+    const drive = st.drive;
+    return bodyIndex(graph, drive.kind === 'dragLink' ? 'column' : drive.kind === 'centreLever' ? 'lever' : `${drive.upright}.upright`);
+  }
   const tie = graph.links.find((l) => l.id === 'right.tieRod');
   if (!tie) throw new Error(`mechanism "${graph.name}" has no right tie rod`);
   return tie.bodyB;
@@ -281,6 +285,16 @@ export class GeometryReader {
         crankArm,
         crankFoot: lineFoot(crankArm, lower, sub(v(design.frontEnd.upper.outerJoint[side]), lower)),
         columnArm: v(st.drive.columnArmJoint),
+      };
+    } else if (st.kind === 'trackRod' && st.drive.kind === 'centreLever') {
+      // The short link read as a drag link whose driving lever is the centre lever (its transmission is taken there).
+      const leverJoint = v(st.drive.leverJoint);
+      this.drag = {
+        crankBody: this.steerBody,
+        columnBody: bodyIndex(graph, 'trackRod'),
+        crankArm: leverJoint,
+        crankFoot: lineFoot(leverJoint, v(st.drive.pivot), v(st.drive.axis)),
+        columnArm: v(st.drive.trackRodJoint),
       };
     } else if (st.kind === 'bellCrank' && st.input.kind === 'dragLink') {
       const columnBody = bodyIndex(graph, 'column');

@@ -8,7 +8,7 @@
  */
 import { angleBetween, norm, RAD, scale, sub, tuple } from '../math/vec3';
 import type { DesignIssue } from './designIssue';
-import { fixed, IssueList, locate, sidePath, type Located } from './issueList';
+import { fixed, IssueList, locate, MIN_DISTINCT_MM, sidePath, type Located } from './issueList';
 import { resolveDesign } from './resolveDesign';
 import { describeFound, roundForMessage } from './schemaDsl';
 import { SIDES, type DesignFile, type ResolvedDesign, type Side, type TrackRodDrive, type Vec3Mm } from './types';
@@ -208,6 +208,15 @@ function checkTrackRod(d: DesignFile, drive: TrackRodDrive, r: ResolvedDesign, l
     }
     return;
   }
+  if (drive.kind === 'centreLever') {
+    const lever = fixed(drive.leverJoint, 'steering.drive.leverJoint');
+    const onRod = fixed(drive.trackRodJoint, 'steering.drive.trackRodJoint');
+    list.distinct(lever, onRod, 'the short link runs between them');
+    list.offLine(lever, fixed(drive.pivot, 'steering.drive.pivot'), { direction: drive.axis, path: 'steering.drive.axis' },
+      'a joint on the lever axis does not move when the handlebar turns');
+    checkOnTrackRod(drive.trackRodJoint, r, list);
+    return;
+  }
   const side = drive.upright;
   const columnArm = fixed(drive.columnArmJoint, 'steering.drive.columnArmJoint');
   const uprightArm = fixed(drive.uprightArmJoint, 'steering.drive.uprightArmJoint');
@@ -220,6 +229,28 @@ function checkTrackRod(d: DesignFile, drive: TrackRodDrive, r: ResolvedDesign, l
     locate(d.frontEnd.upper.outerJoint, r.frontEnd.upper.outerJoint, 'frontEnd.upper.outerJoint', side),
     'a joint on the steering axis cannot turn the upright',
   );
+}
+
+/**
+ * The short link's joint on the track rod must lie on the rod's line between its ends: the
+ * rod's ends are ball joints, so nothing fixes its spin, and a joint off its line would move
+ * with that spin (the template holds the rod by a universal joint at its right end, which is
+ * exact only for points on the line).
+ */
+function checkOnTrackRod(p: Vec3Mm, r: ResolvedDesign, list: IssueList): void {
+  const a = tuple(r.upright.steeringArmJoint.right);
+  const b = tuple(r.upright.steeringArmJoint.left);
+  const ab = sub(b, a);
+  const len2 = ab[0] ** 2 + ab[1] ** 2 + ab[2] ** 2;
+  if (!(len2 > 0)) return; // coincident ends, reported above
+  const ap = sub(tuple(p), a);
+  const t = (ap[0] * ab[0] + ap[1] * ab[1] + ap[2] * ab[2]) / len2;
+  const off = norm(sub(ap, scale(ab, t)));
+  if (off >= MIN_DISTINCT_MM || t <= 0 || t >= 1) {
+    const expected = `a point on the track rod's line between upright.steeringArmJoint right and left (within ${MIN_DISTINCT_MM} mm of it): its ends are ball joints, so the rod's spin is free and a joint off its line would have no place`;
+    const found = `${roundForMessage(off)} mm off the line, at ${roundForMessage(t * 100)} % of the way from the right end`;
+    list.expected('steering.drive.trackRodJoint', expected, found);
+  }
 }
 
 function checkSpring(d: DesignFile, r: ResolvedDesign, list: IssueList): void {

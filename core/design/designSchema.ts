@@ -97,6 +97,13 @@ const trackRodDrive = discriminatedUnion('How the handlebar turns the uprights j
     columnArmJoint: point("Ball joint on the column's arm"),
     uprightArmJoint: point("Ball joint on the driven upright's drag-link arm"),
   }),
+  object('A lever on the steering column pulling the track rod through a short link', {
+    kind: literal('centreLever', 'Centre lever and short link'),
+    pivot: point("A point on the lever's pivot axis (the steering column)"),
+    axis: direction3('Lever pivot axis; positive handlebar turns right-handed about it'),
+    leverJoint: point("Ball joint on the lever's arm"),
+    trackRodJoint: point("Ball joint on the track rod, on its line between the steering-arm joints"),
+  }),
   object('The handlebar fixed to one upright (kingpin uprights only): the handlebar angle is its rotation about the kingpin', {
     kind: literal('knuckle', 'Handlebar on the upright'),
     upright: enumOf(['right', 'left'], 'The upright the handlebar is fixed to'),

@@ -36,6 +36,11 @@ export function hardpointEntries(d: DesignFile): HardpointEntry[] {
   const s = d.steering;
   if (s.kind === 'trackRod') {
     // The track rod's ends are the steering-arm joints above; a handlebar on an upright adds no point.
+    if (s.drive.kind === 'centreLever') {
+      add('steering.drive.pivot', 'lever pivot', 'Centre lever', false);
+      add('steering.drive.leverJoint', 'lever joint', 'Centre lever', false);
+      add('steering.drive.trackRodJoint', 'track rod joint', 'Centre lever', false);
+    }
     if (s.drive.kind === 'dragLink') {
       add('steering.drive.columnPivot', 'column pivot', 'Drag link', false);
       add('steering.drive.columnArmJoint', 'column arm joint', 'Drag link', false);

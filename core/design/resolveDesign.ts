@@ -62,6 +62,9 @@ function copyVehicle(v: Vehicle): Vehicle {
 
 function copyTrackRodDrive(drive: TrackRodDrive): TrackRodDrive {
   if (drive.kind === 'knuckle') return { kind: 'knuckle', upright: drive.upright };
+  if (drive.kind === 'centreLever') {
+    return { kind: 'centreLever', pivot: copyVec(drive.pivot), axis: copyVec(drive.axis), leverJoint: copyVec(drive.leverJoint), trackRodJoint: copyVec(drive.trackRodJoint) };
+  }
   return {
     kind: 'dragLink',
     upright: drive.upright,

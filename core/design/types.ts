@@ -86,8 +86,9 @@ export type CrankInput =
 
 /**
  * How the handlebar turns a one-piece track rod's uprights: through a drag link from a
- * steering column to a second arm on one upright, or fixed to one upright (knuckle-mounted:
- * the handlebar angle is that upright's own rotation about its kingpin; kingpin uprights only).
+ * steering column to a second arm on one upright, fixed to one upright (knuckle-mounted:
+ * the handlebar angle is that upright's own rotation about its kingpin; kingpin uprights only),
+ * or by a lever on the steering column pulling the rod through a short link.
  */
 export type TrackRodDrive =
   | {
@@ -101,6 +102,17 @@ export type TrackRodDrive =
       columnArmJoint: Vec3Mm;
       /** Ball joint on the driven upright's drag-link arm. */
       uprightArmJoint: Vec3Mm;
+    }
+  | {
+      kind: 'centreLever';
+      /** A point on the lever's pivot axis (the steering column), turned one degree per handlebar degree. */
+      pivot: Vec3Mm;
+      /** Lever pivot axis; positive handlebar turns right-handed about it. */
+      axis: Vec3Mm;
+      /** Ball joint on the lever's arm. */
+      leverJoint: Vec3Mm;
+      /** Ball joint on the track rod, on its line between the steering-arm joints. */
+      trackRodJoint: Vec3Mm;
     }
   | {
       kind: 'knuckle';

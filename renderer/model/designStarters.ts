@@ -46,9 +46,15 @@ export function starterSteering(d: DesignFile, kind: Steering['kind']): Steering
   return { kind: 'bellCrank', pivot, axis: p(0, 0, 1), tieRodJoint: keep, input: { kind: 'ratio', crankDegPerHandlebarDeg: 1 } };
 }
 
-/** A track rod's drive: a handlebar on the left upright, or a drag link (below). */
-export function starterTrackRodDrive(d: DesignFile, kind: 'dragLink' | 'knuckle'): Extract<Steering, { kind: 'trackRod' }>['drive'] {
-  return kind === 'knuckle' ? { kind: 'knuckle', upright: 'left' } : starterDragLinkToUpright(resolveDesign(d));
+/** A track rod's drive: a handlebar on the left upright, a centre lever over the rod's middle, or a drag link (below). */
+export function starterTrackRodDrive(d: DesignFile, kind: 'dragLink' | 'knuckle' | 'centreLever'): Extract<Steering, { kind: 'trackRod' }>['drive'] {
+  if (kind === 'knuckle') return { kind: 'knuckle', upright: 'left' };
+  const r = resolveDesign(d);
+  if (kind === 'dragLink') return starterDragLinkToUpright(r);
+  // A lever on a vertical column 60 mm behind the rod's middle, its arm forward over it, the short link down to the middle.
+  const a = r.upright.steeringArmJoint;
+  const m = p((a.right.x + a.left.x) / 2, (a.right.y + a.left.y) / 2, (a.right.z + a.left.z) / 2);
+  return { kind: 'centreLever', pivot: p(m.x - 60, m.y - 80, m.z + 40), axis: p(0, 0, 1), leverJoint: p(m.x, m.y - 80, m.z + 40), trackRodJoint: m };
 }
 
 /** A vertical column on the centre line whose arm pulls an arm 80 mm ahead of and 60 mm inboard of the right kingpin's middle. */

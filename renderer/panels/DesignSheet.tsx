@@ -215,10 +215,12 @@ function SteeringMechanism({ design: d }: { design: DesignFile }) {
             options={[
               { value: 'dragLink', label: 'drag link to one upright' },
               { value: 'knuckle', label: 'handlebar on one upright (kingpin)' },
+              { value: 'centreLever', label: 'centre lever and short link' },
             ]}
             onPick={(v) => replace([{ path: 'steering.drive', value: starterTrackRodDrive(d, v) }], `drive the track rod by ${v}`)}
           />
           {st.drive.kind === 'dragLink' && <Vec path="steering.drive.columnAxis" label="Column axis" unit="" />}
+          {st.drive.kind === 'centreLever' && <Vec path="steering.drive.axis" label="Lever axis" unit="" />}
         </>
       )}
       {st.kind === 'rack' && (

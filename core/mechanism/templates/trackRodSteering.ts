@@ -6,10 +6,17 @@
  *
  * The handlebar turns the uprights either
  * - through a drag link (`drive.kind: "dragLink"`): a steering column hung on the frame (driven
- *   one degree per handlebar degree) whose arm pulls a second arm on one upright; or
+ *   one degree per handlebar degree) whose arm pulls a second arm on one upright;
  * - directly (`drive.kind: "knuckle"`): the handlebar is fixed to one upright, so the handlebar
  *   angle is that upright's rotation about its kingpin (the revolute joint between yoke and
- *   upright, kingpinYoke.ts; validation refuses ball-joint uprights here).
+ *   upright, kingpinYoke.ts; validation refuses ball-joint uprights here); or
+ * - through a centre lever (`drive.kind: "centreLever"`): a lever on the steering column pulls a
+ *   joint on the rod through a short link. The rod is then a body: hung on the right upright by
+ *   a universal joint at the right steering-arm joint (two revolutes across the rod's line, so
+ *   the rod has no spin of its own to leave free) and closed on the left steering-arm joint (3
+ *   rows). Two unknowns and two rows more than the distance row, the same motion; the short
+ *   link's joint lies on the rod's line (validation), where the spin a real rod has would not
+ *   move it.
  *
  * The analysis reads the track rod as each side's tie rod, running from this side's steering
  * arm to the other side's: its inner joint is the far end (poseGeometry.ts).
@@ -30,7 +37,7 @@ export const otherSide = (side: Side): Side => (side === 'right' ? 'left' : 'rig
 export function addTrackRodSteering(b: MechanismBuilder, design: ResolvedDesign, drive: TrackRodDrive, frame: number, uprights: Uprights, mode: PoseMode): Vec3 {
   const handlebar: HandlebarBinding = (gain) =>
     mode.steerBy !== 'handlebar' ? { reportsInput: { input: 'handlebarDeg', gain } } : { driver: { input: 'handlebarDeg', gain } };
-  addTrackRod(b, design, uprights);
+  const rod = addTrackRod(b, design, uprights, drive.kind === 'centreLever');
   const fe = design.frontEnd;
   const topZ = Math.max(fe.upper.outerJoint.right.z, fe.upper.outerJoint.left.z);
   if (drive.kind === 'knuckle') {
@@ -42,22 +49,48 @@ export function addTrackRodSteering(b: MechanismBuilder, design: ResolvedDesign,
     const upper = fe.upper.outerJoint[drive.upright];
     return [upper.x, 0, topZ + HANDLEBAR_RISE_MM];
   }
+  if (drive.kind === 'centreLever') {
+    addCentreLever(b, design, drive, frame, rod, handlebar);
+    return [drive.pivot.x, 0, Math.max(drive.pivot.z, topZ) + HANDLEBAR_RISE_MM];
+  }
   addDragLink(b, design, drive, frame, uprights, handlebar);
   return [drive.columnPivot.x, 0, Math.max(drive.columnPivot.z, topZ) + HANDLEBAR_RISE_MM];
 }
 
-function addTrackRod(b: MechanismBuilder, design: ResolvedDesign, uprights: Uprights): void {
+const unit3 = (p: Vec3): Vec3 => {
+  const n = Math.hypot(p[0], p[1], p[2]) || 1;
+  return [p[0] / n, p[1] / n, p[2] / n];
+};
+const cross3 = (a: Vec3, c: Vec3): Vec3 => [a[1] * c[2] - a[2] * c[1], a[2] * c[0] - a[0] * c[2], a[0] * c[1] - a[1] * c[0]];
+
+/** The rod as a body on a universal joint at the right steering-arm joint; returns the rod's body. */
+function addRodBody(b: MechanismBuilder, design: ResolvedDesign, uprights: Uprights): number {
   const arm = design.upright.steeringArmJoint;
-  const rod = b.addConstraint({
-    kind: 'distance',
-    id: 'trackRod',
-    label: 'track rod (right steering arm to left steering arm)',
-    bodyA: uprights.body.right,
-    pointA: v(arm.right),
-    bodyB: uprights.body.left,
-    pointB: v(arm.left),
-    length: dist(arm.right, arm.left),
-  });
+  const d = unit3([arm.left.x - arm.right.x, arm.left.y - arm.right.y, arm.left.z - arm.right.z]);
+  // First cross pin across the rod (horizontal where the rod is not vertical), the second across both.
+  const first = Math.hypot(...cross3(d, [0, 0, 1])) > 1e-6 ? unit3(cross3(d, [0, 0, 1])) : unit3(cross3(d, [1, 0, 0]));
+  const second = unit3(cross3(d, first));
+  const cross = b.addBody('trackRodCross', 'track rod cross', { kind: 'revolute', parent: uprights.body.right, origin: v(arm.right), axis: first });
+  return b.addBody('trackRod', 'track rod', { kind: 'revolute', parent: cross, origin: v(arm.right), axis: second });
+}
+
+/** The track rod: a distance row between the uprights, or (asBody) a rod body closed on the left arm; returns the body or -1. */
+function addTrackRod(b: MechanismBuilder, design: ResolvedDesign, uprights: Uprights, asBody: boolean): number {
+  const arm = design.upright.steeringArmJoint;
+  const body = asBody ? addRodBody(b, design, uprights) : -1;
+  const label = 'track rod (right steering arm to left steering arm)';
+  const rod = asBody
+    ? b.addConstraint({ kind: 'coincident', id: 'trackRod', label, bodyA: body, pointA: v(arm.left), bodyB: uprights.body.left, pointB: v(arm.left) })
+    : b.addConstraint({
+        kind: 'distance',
+        id: 'trackRod',
+        label,
+        bodyA: uprights.body.right,
+        pointA: v(arm.right),
+        bodyB: uprights.body.left,
+        pointB: v(arm.left),
+        length: dist(arm.right, arm.left),
+      });
   b.links.push({ id: rod, label: 'track rod', bodyA: uprights.body.right, pointA: v(arm.right), bodyB: uprights.body.left, pointB: v(arm.left) });
   const tube = b.tube('trackRod', {
     label: 'track rod',
@@ -73,6 +106,45 @@ function addTrackRod(b: MechanismBuilder, design: ResolvedDesign, uprights: Upri
     b.shows({ kind: 'clearance', part: 'tieRod', side }, tube);
     b.shows({ kind: 'transmission', link: 'linkage', side }, tube);
   }
+  return body;
+}
+
+function addCentreLever(
+  b: MechanismBuilder,
+  design: ResolvedDesign,
+  drive: Extract<TrackRodDrive, { kind: 'centreLever' }>,
+  frame: number,
+  rod: number,
+  handlebar: HandlebarBinding,
+): void {
+  const lever = b.addBody('lever', 'centre lever', { kind: 'revolute', parent: frame, origin: v(drive.pivot), axis: v(drive.axis), ...handlebar(DEG) });
+  const link = b.addConstraint({
+    kind: 'distance',
+    id: 'shortLink',
+    label: 'short link (centre lever to track rod)',
+    bodyA: lever,
+    pointA: v(drive.leverJoint),
+    bodyB: rod,
+    pointB: v(drive.trackRodJoint),
+    length: dist(drive.leverJoint, drive.trackRodJoint),
+  });
+  b.links.push({ id: link, label: 'short link', bodyA: lever, pointA: v(drive.leverJoint), bodyB: rod, pointB: v(drive.trackRodJoint) });
+  const pivot = b.addPoint('steering.drive.pivot', 'centre lever pivot', lever, drive.pivot);
+  const leverJoint = b.addPoint('steering.drive.leverJoint', 'centre lever joint', lever, drive.leverJoint);
+  const onRod = b.addPoint('steering.drive.trackRodJoint', 'track rod joint of the short link', rod, drive.trackRodJoint);
+  b.tube('lever', { label: 'centre lever', part: 'steering', a: pivot, b: leverJoint, radius: 9 });
+  const linkTube = b.tube('shortLink', { label: 'short link', part: 'tieRod', a: leverJoint, b: onRod, radius: design.parts.tieRodRadiusMm });
+  b.jointAt(pivot, 'centre lever pivot', 13);
+  b.jointAt(leverJoint, 'centre lever joint', 12);
+  b.jointAt(onRod, 'short link joint on the track rod', 12);
+  b.shows({ kind: 'constraint', constraint: link }, linkTube);
+  drawAxis(b, lever, drive.pivot, drive.axis, 'centre lever axis');
+}
+
+/** A short line either side of a pivot along its axis. */
+function drawAxis(b: MechanismBuilder, body: number, p: Vec3Mm, ax: Vec3Mm, label: string): void {
+  const k = 90 / (Math.hypot(ax.x, ax.y, ax.z) || 1);
+  b.axisLine('steering.axis', label, b.onBody(body, [p.x - ax.x * k, p.y - ax.y * k, p.z - ax.z * k]), b.onBody(body, [p.x + ax.x * k, p.y + ax.y * k, p.z + ax.z * k]), false);
 }
 
 function addDragLink(
@@ -109,14 +181,5 @@ function addDragLink(
   b.jointAt(columnArm, 'column arm joint', 12);
   b.jointAt(uprightArm, `drag-link arm joint, ${drive.upright}`, 12);
   b.shows({ kind: 'constraint', constraint: link }, linkTube);
-  const ax = drive.columnAxis;
-  const k = 90 / (Math.hypot(ax.x, ax.y, ax.z) || 1);
-  const p = drive.columnPivot;
-  b.axisLine(
-    'steering.axis',
-    'steering column axis',
-    b.onBody(column, [p.x - ax.x * k, p.y - ax.y * k, p.z - ax.z * k]),
-    b.onBody(column, [p.x + ax.x * k, p.y + ax.y * k, p.z + ax.z * k]),
-    false,
-  );
+  drawAxis(b, column, drive.columnPivot, drive.columnAxis, 'steering column axis');
 }

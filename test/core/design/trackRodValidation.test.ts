@@ -65,10 +65,25 @@ describe('one-piece track rod validation', () => {
     expect(messages(e).some((x) => x.includes('steering.drive.uprightArmJoint: is 0 mm from steering.drive.columnArmJoint; the drag link runs between them'))).toBe(true);
   });
 
+  it('a centre lever: accepted with its joint on the rod; a joint off the rod\'s line or past its end is refused, naming the field', () => {
+    const d = linnet();
+    const a = (d.upright.steeringArmJoint as { x: number; y: number; z: number });
+    d.steering = { kind: 'trackRod', drive: { kind: 'centreLever', pivot: { x: a.x - 60, y: -80, z: a.z + 40 }, axis: { x: 0, y: 0, z: 1 }, leverJoint: { x: a.x, y: -80, z: a.z + 40 }, trackRodJoint: { x: a.x, y: 0, z: a.z } } };
+    expect(messages(d)).toEqual([]);
+    if (d.steering.kind !== 'trackRod' || d.steering.drive.kind !== 'centreLever') throw new Error('unreachable');
+    d.steering.drive.trackRodJoint = { x: a.x, y: 0, z: a.z + 5 };
+    const m = messages(d);
+    expect(m).toHaveLength(1);
+    expect(m[0]).toContain("steering.drive.trackRodJoint: expected a point on the track rod's line between upright.steeringArmJoint right and left");
+    expect(m[0]).toContain('found 5 mm off the line, at 50 % of the way from the right end');
+    d.steering.drive.trackRodJoint = { x: a.x, y: a.y - 20, z: a.z };
+    expect(messages(d)[0]).toContain('steering.drive.trackRodJoint: expected a point on the track rod');
+  });
+
   it('a drive of unknown kind or an upright named wrongly: the schema names the field', () => {
     const d = linnet() as unknown as { steering: { drive: Record<string, unknown> } };
     d.steering.drive.kind = 'chain';
-    expect(messages(d as unknown as DesignFile)[0]).toContain('steering.drive.kind: expected one of "dragLink", "knuckle", found "chain"');
+    expect(messages(d as unknown as DesignFile)[0]).toContain('steering.drive.kind: expected one of "dragLink", "centreLever", "knuckle", found "chain"');
     const e = linnet() as unknown as { steering: { drive: Record<string, unknown> } };
     e.steering.drive.upright = 'middle';
     expect(messages(e as unknown as DesignFile)[0]).toContain('steering.drive.upright');

@@ -18,15 +18,15 @@ export interface LayoutVariant {
   design: ResolvedDesign;
 }
 
-type Steer = 'bellCrank:ratio' | 'bellCrank:dragLink' | 'rack' | 'direct' | 'trackRod:dragLink' | 'trackRod:knuckle';
-const STEERS: readonly Steer[] = ['bellCrank:ratio', 'bellCrank:dragLink', 'rack', 'direct', 'trackRod:dragLink', 'trackRod:knuckle'];
+type Steer = 'bellCrank:ratio' | 'bellCrank:dragLink' | 'rack' | 'direct' | 'trackRod:dragLink' | 'trackRod:knuckle' | 'trackRod:centreLever';
+const STEERS: readonly Steer[] = ['bellCrank:ratio', 'bellCrank:dragLink', 'rack', 'direct', 'trackRod:dragLink', 'trackRod:knuckle', 'trackRod:centreLever'];
 
 /**
  * A one-piece track rod on the design's steering arms. The drag link pulls an arm 80 mm ahead
  * of and 60 mm inboard of the right kingpin's middle from a vertical column on the centre line;
  * a handlebar on the left upright needs a kingpin. Both ends are the track rod's joints.
  */
-export function withTrackRod(d: DesignFile, drive: 'dragLink' | 'knuckle'): DesignFile {
+export function withTrackRod(d: DesignFile, drive: 'dragLink' | 'knuckle' | 'centreLever'): DesignFile {
   const out = clone(d);
   const r = resolveDesign(out);
   const up = r.frontEnd.upper.outerJoint.right;
@@ -45,14 +45,23 @@ export function withTrackRod(d: DesignFile, drive: 'dragLink' | 'knuckle'): Desi
             uprightArmJoint: { x: m.x + 80, y: m.y + 60, z: m.z },
           },
         }
-      : { kind: 'trackRod', drive: { kind: 'knuckle', upright: 'left' } };
+      : drive === 'centreLever'
+        ? { kind: 'trackRod', drive: centreLeverOver(r) }
+        : { kind: 'trackRod', drive: { kind: 'knuckle', upright: 'left' } };
   if (drive === 'knuckle') out.upright.steeringAxis = 'kingpin';
   out.joints.tieRodInner = clone(out.joints.tieRodOuter);
   return out;
 }
 
+/** A lever on a vertical column 60 mm behind the rod's middle, its arm forward over it and 40 mm up, the short link down to the middle. */
+function centreLeverOver(r: ReturnType<typeof resolveDesign>): Extract<DesignFile['steering'], { kind: 'trackRod' }>['drive'] {
+  const a = r.upright.steeringArmJoint;
+  const m = { x: (a.right.x + a.left.x) / 2, y: (a.right.y + a.left.y) / 2, z: (a.right.z + a.left.z) / 2 };
+  return { kind: 'centreLever', pivot: { x: m.x - 60, y: m.y - 80, z: m.z + 40 }, axis: { x: 0, y: 0, z: 1 }, leverJoint: { x: m.x, y: m.y - 80, z: m.z + 40 }, trackRodJoint: m };
+}
+
 function withSteering(d: DesignFile, steer: Steer): DesignFile {
-  if (steer === 'trackRod:dragLink' || steer === 'trackRod:knuckle') return withTrackRod(d, steer === 'trackRod:dragLink' ? 'dragLink' : 'knuckle');
+  if (steer.startsWith('trackRod:')) return withTrackRod(d, steer.slice('trackRod:'.length) as 'dragLink' | 'knuckle' | 'centreLever');
   const [kind, input] = steer.split(':') as [Exclude<DesignFile['steering']['kind'], 'trackRod'>, 'ratio' | 'dragLink' | undefined];
   const out = clone(d);
   out.steering = starterSteering(out, kind);

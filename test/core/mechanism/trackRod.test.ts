@@ -11,7 +11,8 @@
  * K1 = d/a, K2 = d/c, K3 = (a^2 - b^2 + c^2 + d^2) / (2 a c) (F. Freudenstein, "Approximate
  * synthesis of four-bar linkages", Trans. ASME 77, 1955). The full 3D solve, steered by the
  * inner (left) road-wheel angle, must give that outer angle to 1e-6 deg at three inner angles,
- * for both drives (drag link to one upright; handlebar on one upright).
+ * for the three drives (drag link to one upright; handlebar on one upright; centre lever with a
+ * short link to the rod, where the rod is a body on a universal joint).
  *
  * A negative control: the parallel-arm layout (arms straight back, b = d) gives equal angles,
  * and the Ackermann layout's outer angle differs from it by more than a degree at 30 deg, so
@@ -69,6 +70,11 @@ function planarDesign(betaDeg: number, drive: TrackRodDrive): ResolvedDesign {
 const DRIVES: { name: string; drive: TrackRodDrive }[] = [
   { name: 'drag link to the right upright', drive: { kind: 'dragLink', upright: 'right', columnPivot: P(40, 0, 330), columnAxis: P(0, 0, 1), columnArmJoint: P(90, 0, 300), uprightArmJoint: P(90, -320, 300) } },
   { name: 'handlebar on the left upright', drive: { kind: 'knuckle', upright: 'left' } },
+  // A lever on a vertical column 60 mm behind the rod, its arm reaching forward over the rod, the short link down to the rod's middle.
+  {
+    name: 'centre lever and short link',
+    drive: { kind: 'centreLever', pivot: P(-ARM * Math.cos(17 * DEG) - 60, -100, 280), axis: P(0, 0, 1), leverJoint: P(-ARM * Math.cos(17 * DEG), -100, 280), trackRodJoint: P(-ARM * Math.cos(17 * DEG), 0, ARM_Z) },
+  },
 ];
 
 /**

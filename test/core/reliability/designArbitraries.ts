@@ -261,8 +261,23 @@ function tyreOf(u: Uniform, rolling: number): DesignFile['wheels']['front'] {
 }
 
 function steeringOf(u: Uniform, layout: { armZ: number; innerY: number; armX: number; armY: number }, L: (s: number) => number): DesignFile['steering'] {
-  const kind = u.pick(['bellCrank', 'bellCrankDragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle'] as const);
+  const kind = u.pick(['bellCrank', 'bellCrankDragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle', 'trackRodCentreLever'] as const);
   if (kind === 'trackRodKnuckle') return { kind: 'trackRod', drive: { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) } };
+  if (kind === 'trackRodCentreLever') {
+    // A lever on a column behind the rod's middle, the short link to a point on the rod's line (x = armX, z = armZ, y = 0).
+    const x = layout.armX;
+    const back = Math.sign(x || 1) * L(u.between(0.03, 0.1));
+    return {
+      kind: 'trackRod',
+      drive: {
+        kind: 'centreLever',
+        pivot: P(x + back, -L(0.08), layout.armZ + L(0.04)),
+        axis: P(u.between(-0.3, 0.3), u.between(-0.2, 0.2), 1),
+        leverJoint: P(x, -L(0.08), layout.armZ + L(0.04)),
+        trackRodJoint: P(x, L(0.3) * (u.next() - 0.5) * 0.2, layout.armZ),
+      },
+    };
+  }
   if (kind === 'trackRodDragLink') {
     // A column on the centre line whose arm pulls an arm on one upright, on the other side of the axis from the steering arm.
     const side = u.pick(['right', 'left'] as const);
@@ -401,9 +416,11 @@ export function wildDesign(values: readonly number[]): DesignFile {
           upper: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
           lower: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
         };
-  const kind = u.pick(['ratio', 'dragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle'] as const);
+  const kind = u.pick(['ratio', 'dragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle', 'trackRodCentreLever'] as const);
   const steering: DesignFile['steering'] =
-    kind === 'trackRodKnuckle'
+    kind === 'trackRodCentreLever'
+      ? { kind: 'trackRod', drive: { kind: 'centreLever', pivot: point(), axis: dir(), leverJoint: point(), trackRodJoint: point() } }
+      : kind === 'trackRodKnuckle'
       ? { kind: 'trackRod', drive: { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) } }
       : kind === 'trackRodDragLink'
         ? { kind: 'trackRod', drive: { kind: 'dragLink', upright: u.pick(['right', 'left'] as const), columnPivot: point(), columnAxis: dir(), columnArmJoint: point(), uprightArmJoint: point() } }
