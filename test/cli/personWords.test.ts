@@ -13,6 +13,8 @@ import { demo } from '../core/analysis/helpers';
 const DESIGNS = join(__dirname, '..', '..', 'assets', 'designs');
 const HERON = join(DESIGNS, 'heron-tilting-velomobile.tiltsheet');
 const WREN = join(DESIGNS, 'wren-rack-trike.tiltsheet');
+const LINNET = join(DESIGNS, 'linnet-track-rod-trike.tiltsheet');
+const FINCH = join(DESIGNS, 'finch-knuckle-steered-trike.tiltsheet');
 
 async function run(argv: string[]) {
   const io: CliIo & { text: string } = {
@@ -59,6 +61,9 @@ describe('words for a person, not identifiers', () => {
       ['pose', HERON, '--speed', '20', '--steer', '4'],
       ['pose', HERON, '--steer', '100'],
       ['pose', WREN, '--steer', '-12'],
+      ['pose', LINNET, '--steer', '30'],
+      ['pose', FINCH, '--lean', '20', '--steer', '10'],
+      ['check', FINCH, '--lean-step', '17.5', '--steer-step', '12.5'],
       ['check', HERON, '--lean-step', '12.5', '--steer-step', '12.5', '--travel-step', '35'],
       ['validate', HERON],
     ];

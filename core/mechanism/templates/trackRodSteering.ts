@@ -170,16 +170,16 @@ function addDragLink(
   b.links.push({ id: link, label: 'drag link', bodyA: column, pointA: v(drive.columnArmJoint), bodyB: u, pointB: v(drive.uprightArmJoint) });
   const pivot = b.addPoint('steering.drive.columnPivot', 'steering column pivot', column, drive.columnPivot);
   const columnArm = b.addPoint('steering.drive.columnArmJoint', 'column arm joint', column, drive.columnArmJoint);
-  const uprightArm = b.addPoint('steering.drive.uprightArmJoint', `${drive.upright} upright drag-link arm joint`, u, drive.uprightArmJoint);
+  const uprightArm = b.addPoint('steering.drive.uprightArmJoint', `${drive.upright} upright drag link arm joint`, u, drive.uprightArmJoint);
 
   const fe = design.frontEnd;
   const kingpinMid: Vec3Mm = (([x, y, z]) => ({ x, y, z }))(mid(fe.upper.outerJoint[drive.upright], fe.lower.outerJoint[drive.upright]));
   b.tube('column', { label: 'steering column arm', part: 'steering', a: pivot, b: columnArm, radius: 9 });
   const linkTube = b.tube('dragLink', { label: 'drag link', part: 'tieRod', a: columnArm, b: uprightArm, radius: design.parts.tieRodRadiusMm });
-  b.tube('dragLinkArm', { label: `${drive.upright} drag-link arm`, part: 'upright', a: b.onBody(u, kingpinMid), b: uprightArm, radius: design.parts.steeringArmRadiusMm });
+  b.tube('dragLinkArm', { label: `${drive.upright} drag link arm`, part: 'upright', a: b.onBody(u, kingpinMid), b: uprightArm, radius: design.parts.steeringArmRadiusMm });
   b.jointAt(pivot, 'steering column pivot', 13);
   b.jointAt(columnArm, 'column arm joint', 12);
-  b.jointAt(uprightArm, `drag-link arm joint, ${drive.upright}`, 12);
+  b.jointAt(uprightArm, `drag link arm joint, ${drive.upright}`, 12);
   b.shows({ kind: 'constraint', constraint: link }, linkTube);
   drawAxis(b, column, drive.columnPivot, drive.columnAxis, 'steering column axis');
 }

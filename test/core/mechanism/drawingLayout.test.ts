@@ -90,6 +90,11 @@ describe('the drawing layout of every template variant', () => {
     expect(labels).toContain('left tie rod');
     expect(labels).toContain('upper outer joint, left');
     for (const l of labels) expect(l).toMatch(/^[a-z][a-z ,]+$/);
+    // and so do the track-rod layouts' own parts, every drive
+    for (const v of variants.filter((x) => x.design.steering.kind === 'trackRod')) {
+      const d = buildMechanism(v.design).drawing;
+      for (const p of [...d.tubes, ...d.joints]) expect(p.label, v.name).toMatch(/^[a-z][a-z ,]+$/);
+    }
   });
 });
 
