@@ -16,6 +16,7 @@
 import fc from 'fast-check';
 import type { DesignFile, Sided, Vec3Mm } from '../../../core/design/types';
 import { clone } from './demoDesigns';
+import { resolveSidedVec } from '../../../core/design/resolveDesign';
 
 export type Family = 'near' | 'plausible' | 'wild';
 
@@ -438,7 +439,7 @@ export function wildDesign(values: readonly number[]): DesignFile {
                 ? { kind: 'ratio', crankDegPerHandlebarDeg: u.pick([-1, 1]) * u.between(0.01, 10) }
                 : { kind: 'dragLink', columnPivot: point(), columnAxis: dir(), columnArmJoint: point(), crankArmJoint: point() },
           };
-  return {
+  const design: DesignFile = {
     tiltsheet: 1,
     name: `wild ${half} mm`,
     vehicle: { wheelbaseMm: u.between(300, 5000), tilting, rear: { kind: 'single' } },
@@ -455,6 +456,19 @@ export function wildDesign(values: readonly number[]): DesignFile {
     joints: jointSpecs(u),
     envelope: envelopeOf(u, tilting),
   };
+  // A track rod's rules across fields would refuse nearly every wild one: mostly keep them, so the
+  // solver sees wild track rods too (the refusals are still drawn, one time in five).
+  if (design.steering.kind === 'trackRod' && u.next() < 0.8) {
+    design.joints.tieRodInner = JSON.parse(JSON.stringify(design.joints.tieRodOuter));
+    const drive = design.steering.drive;
+    if (drive.kind === 'knuckle') design.upright.steeringAxis = 'kingpin';
+    if (drive.kind === 'centreLever') {
+      const arm = resolveSidedVec(design.upright.steeringArmJoint);
+      const t = u.between(0.05, 0.95);
+      drive.trackRodJoint = P(arm.right.x + t * (arm.left.x - arm.right.x), arm.right.y + t * (arm.left.y - arm.right.y), arm.right.z + t * (arm.left.z - arm.right.z));
+    }
+  }
+  return design;
 }
 
 /** Uniform numbers in [0, 1): unbiased, so random geometry is spread evenly, not piled on 0. */
