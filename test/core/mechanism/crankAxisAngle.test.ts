@@ -16,6 +16,13 @@
  * The tie rods keep their length and both wheels steer in every case (a negative control: the
  * horizontal axis really moves the inner ends by tens of mm, so a check that ignored the
  * axis would fail).
+ *
+ * Then what that does: the lean steer (road-wheel angle change from lean 0 to 15 deg, tyres on
+ * the ground) at 20 deg of handlebar either way, against the lean steer at zero handlebar. The
+ * trade's rule of thumb (a crank axis near vertical keeps the inner ends at constant height and
+ * so the toe change with lean nearly independent of steer; near horizontal couples them; from
+ * memory, no source) is checked as a direction only: the coupling grows from the vertical to
+ * the inclined to the horizontal axis, the horizontal one by more than ten times the vertical.
  */
 import { describe, it, expect } from 'vitest';
 import { Quaternion, Vector3 } from 'three';
@@ -111,5 +118,36 @@ describe('bell crank axis angle: the tie rods\' inner ends follow the crank arm\
         }
       }
     }
+  });
+
+  it('steer x lean coupling: the lean steer moves with the handlebar least for the vertical axis, most for the horizontal one', () => {
+    const coupling = (axis: Vec3Mm): number => {
+      const solver = new PoseSolver(buildMechanism(heronWithAxis(axis)));
+      const steer = (leanDeg: number, handlebarDeg: number) => {
+        const res = solver.solve({ ...zeroInputs(), leanDeg, handlebarDeg }, false);
+        expect(res.status, `lean ${leanDeg}, handlebar ${handlebarDeg}: ${res.message}`).toBe('converged');
+        const w = takeSnapshot(solver.mechanism).wheels;
+        return { left: w.left.steerDeg, right: w.right.steerDeg };
+      };
+      const leanSteer = (hb: number) => {
+        const a = steer(0, hb);
+        const b = steer(15, hb);
+        return { left: b.left - a.left, right: b.right - a.right };
+      };
+      const atZero = leanSteer(0);
+      let worst = 0;
+      for (const hb of [-20, 20]) {
+        const here = leanSteer(hb);
+        for (const side of SIDE_LIST) worst = Math.max(worst, Math.abs(here[side] - atZero[side]));
+      }
+      return worst;
+    };
+    const vertical = coupling({ x: 0, y: 0, z: 1 });
+    const inclined = coupling({ x: 1, y: 0, z: 1 });
+    const horizontal = coupling({ x: 1, y: 0, z: 0 });
+    // measured on the Heron: about 0.37, 6.6 and 10.0 deg
+    expect(vertical).toBeLessThan(inclined);
+    expect(inclined).toBeLessThan(horizontal);
+    expect(horizontal).toBeGreaterThan(10 * vertical);
   });
 });
