@@ -57,9 +57,9 @@ td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: now
 .drawing-box p { font-size: 7.5pt; color: #4f5b62; margin: 0.5mm 0 0; }
 .small { font-size: 7.5pt; color: #4f5b62; }
 .pass { color: #1f9e89; } .fail { color: #d8453b; }
-table.limits th, table.limits td { font-size: 6.8pt; padding: 0.25mm 0.8mm; line-height: 1.2; }
-table.limits td:first-child { white-space: nowrap; }
-table.limits td[data-field="where"] { white-space: nowrap; }
+table.limits { table-layout: fixed; }
+table.limits th, table.limits td { overflow: hidden; font-size: 6.5pt; padding: 0.25mm 0.8mm; line-height: 1.2; }
+table.limits td[data-field="where"], table.limits td[data-field="firstOver"] { white-space: nowrap; }
 `;
 
 /** A file-format identifier in words: 'bellCrank' -> 'bell crank'. */
@@ -205,6 +205,7 @@ function limitsSheet(r: ReportData): string {
       td(it.label),
       num(it.worst, worstDigits(it), 'worst') + td(it.unit === 'poses' ? '' : it.unit),
       td(whereText(it), 'data-field="where"'),
+      td(it.firstOver ? whereText({ ...it, where: it.firstOver }) : '', 'data-field="firstOver"'),
       td(it.limit, 'data-field="limit"'),
       verdictCell(it.verdict),
       o ? num(o.worst, worstDigits(o), 'fullWorst') + verdictCell(o.verdict) : td('') + td(''),
@@ -216,7 +217,7 @@ function limitsSheet(r: ReportData): string {
   const region = c.judged === 'operating' ? 'operating region' : 'full rectangle';
   const otherName = c.judged === 'operating' ? 'full rectangle' : 'operating region';
   const table =
-    `<table class="grid limits" id="limits"><thead><tr><th>item</th><th>worst</th><th></th><th>where (lean, handlebar, travel)</th><th>allowed</th><th>${escapeHtml(region)} (judged)</th><th>${escapeHtml(otherName)} worst</th><th></th></tr></thead><tbody>${body}</tbody></table>`;
+    `<table class="grid limits" id="limits"><colgroup>${[48, 11, 6, 24, 22, 33, 14, 13, 15].map((w) => `<col style="width:${w}mm">`).join('')}</colgroup><thead><tr><th>item</th><th>worst</th><th></th><th>where (lean, handlebar, travel)</th><th>first over at</th><th>allowed</th><th>${escapeHtml(region)} (judged)</th><th>${escapeHtml(otherName === 'full rectangle' ? 'full grid' : otherName)} worst</th><th></th></tr></thead><tbody>${body}</tbody></table>`;
   const a = c.axes;
   const grid = `grid: lean ${a.leanDeg.length} x handlebar ${a.handlebarDeg.length} x travel ${a.travelMm.length} values, tyres on the ground; ${judged.poses} poses in the ${region}, ${other.poses} in the ${otherName}.`;
   return sheet('limits-sheet', `Limits: result ${c.passed ? 'PASS' : 'FAIL'}`, `<p class="small">${escapeHtml(grid)} As <code>tiltbench check</code> prints them.</p>${table}`);

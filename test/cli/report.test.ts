@@ -14,7 +14,7 @@ import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { JSDOM } from 'jsdom';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { run, WREN } from './cliHarness';
+import { HERON, run, WREN } from './cliHarness';
 import { SAFETY_CAUTION } from '../../core/cli/io';
 import { ANALYSIS_DEFINITIONS } from '../../core/analysis/definitions';
 import { findChromium } from '../../core/cli/commands/report';
@@ -30,7 +30,7 @@ describe('tiltbench report (HTML), read back', () => {
   let html: string;
   // eslint-disable-next-line @typescript-eslint/no-explicit-any -- JSON read back, walked by field path
   let pose: { analysis: Record<string, any> };
-  let check: { items: { id: string; worst: number | null; verdict: string; unit: string; where: { leanDeg: number; handlebarDeg: number; travelMm: number } | null }[]; passed: boolean };
+  let check: { items: { id: string; worst: number | null; verdict: string; unit: string; where: { leanDeg: number; handlebarDeg: number; travelMm: number } | null; firstOver?: { leanDeg: number; handlebarDeg: number; travelMm: number } | null }[]; passed: boolean };
   let csvRows: string[][];
 
   beforeAll(async () => {
@@ -127,7 +127,9 @@ describe('tiltbench report (HTML), read back', () => {
       }
       expect(tr!.querySelector('[data-verdict]')?.getAttribute('data-verdict'), item.id).toBe(item.verdict);
       const where = tr!.querySelector('[data-field="where"]')?.textContent;
-      if (item.where) expect(where).toBe([item.where.leanDeg, item.where.handlebarDeg, item.where.travelMm].map((x) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1)).join(', '));
+      const triple = (w: { leanDeg: number; handlebarDeg: number; travelMm: number }) => [w.leanDeg, w.handlebarDeg, w.travelMm].map((x) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1)).join(', ');
+      if (item.where) expect(where).toBe(triple(item.where));
+      expect(tr!.querySelector('[data-field="firstOver"]')?.textContent, item.id).toBe(item.firstOver ? triple(item.firstOver) : '');
     }
     expect(doc.getElementById('check-result')?.textContent).toBe(check.passed ? 'PASS' : 'FAIL');
   });
@@ -154,6 +156,27 @@ describe('tiltbench report (HTML), read back', () => {
     expect(map?.textContent).toContain('operating region');
     expect(doc.querySelectorAll('svg.drawing')).toHaveLength(3);
   });
+});
+
+describe('tiltbench report of a design that fails (the Heron, on a coarse grid)', () => {
+  it('its limits rows, with where each item is first over, are check --json\u2019s at the same steps', async () => {
+    const steps = ['--lean-step', '5', '--steer-step', '5', '--travel-step', '40'];
+    const out = join(folder(), 'heron.html');
+    const r = await run(['report', HERON, '--out', out, ...steps, '--map-step', '10']);
+    expect(r.code, r.err).toBe(0);
+    const doc = new JSDOM(readFileSync(out, 'utf8')).window.document;
+    const check = JSON.parse((await run(['check', HERON, ...steps, '--json'])).out) as { passed: boolean; items: { id: string; verdict: string; firstOver: { leanDeg: number; handlebarDeg: number; travelMm: number } | null }[] };
+    expect(check.passed).toBe(false);
+    const triple = (w: { leanDeg: number; handlebarDeg: number; travelMm: number }) => [w.leanDeg, w.handlebarDeg, w.travelMm].map((x) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1)).join(', ');
+    const over = check.items.filter((i) => i.firstOver);
+    expect(over.length).toBeGreaterThan(3);
+    for (const item of check.items) {
+      const tr = doc.querySelector(`#limits tr[data-id="${item.id}"]`);
+      expect(tr?.querySelector('[data-verdict]')?.getAttribute('data-verdict'), item.id).toBe(item.verdict);
+      expect(tr?.querySelector('[data-field="firstOver"]')?.textContent, item.id).toBe(item.firstOver ? triple(item.firstOver) : '');
+    }
+    expect(doc.getElementById('check-result')?.textContent).toBe('FAIL');
+  }, 120_000);
 });
 
 describe('tiltbench report with studies', () => {
