@@ -2,7 +2,7 @@
 // exactly the points it moves and applies them as one undoable edit (nothing on error or
 // cancel); the table and the 3D exports offered as files.
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
-import { afterEach, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { exportHardpointCsv } from '../../core/design/hardpointCsv';
 import { FileMenu } from '../../renderer/app/FileMenu';
 import { FlowProvider } from '../../renderer/app/flowContext';
@@ -138,12 +138,13 @@ describe('exports from the file menu', () => {
     renderMenu(wb, files);
     await choose('file-export-pose-glb');
     await choose('file-export-sweep-glb');
+    // Both exports finish asynchronously (the exporter reads its blobs back): wait for the two offers.
     await act(async () => {
-      await new Promise((r) => setTimeout(r, 50));
+      await vi.waitFor(() => expect(offered).toHaveLength(2), { timeout: 20_000 });
     });
-    expect(offered.map((o) => [o.fileName, o.mime])).toEqual([
-      ['heron-tilting-velomobile.pose.glb', 'model/gltf-binary'],
+    expect(offered.map((o) => [o.fileName, o.mime]).sort()).toEqual([
       ['heron-tilting-velomobile.lean-sweep.glb', 'model/gltf-binary'],
+      ['heron-tilting-velomobile.pose.glb', 'model/gltf-binary'],
     ]);
     for (const o of offered) expect(new TextDecoder().decode((o.data as Uint8Array).subarray(0, 4))).toBe('glTF');
     expect(wb.ui.getState().notice).toBeNull();
