@@ -28,7 +28,7 @@ const CSS = `
 @page { size: A4; margin: 11mm 12mm; }
 * { box-sizing: border-box; }
 body { font-family: "DejaVu Sans", "Liberation Sans", Arial, sans-serif; font-size: 9pt; color: #1d2529; margin: 0; background: #e9ece6; }
-.sheet { background: #fff; width: 186mm; min-height: 10mm; margin: 8mm auto; padding: 0; break-after: page; page-break-after: always; overflow: hidden; }
+.sheet { background: #fff; width: 186mm; min-height: 10mm; margin: 8mm auto; padding: 0; break-after: page; page-break-after: always; }
 .sheet:last-of-type { break-after: auto; page-break-after: auto; }
 @media screen { .sheet { padding: 8mm; width: 202mm; box-shadow: 0 1px 4px rgba(0,0,0,.2); } }
 @media print { body { background: #fff; } .sheet { margin: 0; } }
@@ -58,8 +58,7 @@ td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: now
 .small { font-size: 7.5pt; color: #4f5b62; }
 .pass { color: #1f9e89; } .fail { color: #d8453b; }
 table.limits { table-layout: fixed; }
-table.limits th, table.limits td { overflow: hidden; font-size: 6.5pt; padding: 0.25mm 0.8mm; line-height: 1.2; }
-table.limits td[data-field="where"], table.limits td[data-field="firstOver"] { white-space: nowrap; }
+table.limits th, table.limits td { overflow-wrap: anywhere; font-size: 6.5pt; padding: 0.25mm 0.8mm; line-height: 1.2; }
 `;
 
 /** A file-format identifier in words: 'bellCrank' -> 'bell crank'. */

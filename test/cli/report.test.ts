@@ -8,7 +8,7 @@
  * page per sheet of the HTML.
  */
 import { execFileSync } from 'node:child_process';
-import { copyFileSync, existsSync, linkSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { copyFileSync, existsSync, linkSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
@@ -270,6 +270,29 @@ describe('tiltbench report (PDF)', () => {
     expect(findChromium(undefined, { PATH: '/usr/bin' })).toEqual({ path: '/usr/bin/chromium' });
     expect(findChromium(undefined, { PATH: '/usr/bin', TILTBENCH_CHROMIUM: join(dir, 'x') }).path).toBeNull();
   });
+
+  it('a Chromium that fails to print: exit 74, the old file kept, no temporary files left', async () => {
+    const dir = folder();
+    const pdf = join(dir, 'old.pdf');
+    writeFileSync(pdf, 'the report printed yesterday');
+    const tmp = join(dir, 'tmp');
+    mkdirSync(tmp);
+    const before = process.env.TMPDIR;
+    process.env.TMPDIR = tmp;
+    let r;
+    try {
+      r = await run(['report', WREN, '--out', pdf, '--chromium', '/bin/false', '--lean-step', '30', '--steer-step', '30', '--travel-step', '200', '--map-step', '10']);
+    } finally {
+      if (before === undefined) delete process.env.TMPDIR;
+      else process.env.TMPDIR = before;
+    }
+    expect(r.code).toBe(74);
+    expect(r.err).toContain('Chromium (/bin/false) could not print the report');
+    expect(r.err).toContain('Nothing was written');
+    expect(readFileSync(pdf, 'utf8')).toBe('the report printed yesterday');
+    expect(readdirSync(tmp)).toEqual([]);
+    expect(readdirSync(dir).sort()).toEqual(['old.pdf', 'tmp']);
+  }, 60_000);
 
   it('refuses an output that is the design (a second name for it), an unknown extension and a missing --out', async () => {
     const dir = folder();
