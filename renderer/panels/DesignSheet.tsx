@@ -204,7 +204,13 @@ function SteeringMechanism({ design: d }: { design: DesignFile }) {
           { value: 'direct', label: 'lever on the column' },
           { value: 'trackRod', label: 'one-piece track rod' },
         ]}
-        onPick={(v) => replace([{ path: 'steering', value: starterSteering(d, v) }], `switch the steering to ${v}`)}
+        onPick={(v) =>
+          replace(
+            // A track rod's two ends are both rod ends on the steering arms: the inner joint takes the outer one's spec.
+            [{ path: 'steering', value: starterSteering(d, v) }, ...(v === 'trackRod' ? [{ path: 'joints.tieRodInner', value: d.joints.tieRodOuter }] : [])],
+            `switch the steering to ${v}`,
+          )
+        }
       />
       {(st.kind === 'bellCrank' || st.kind === 'direct') && <Vec path="steering.axis" label={st.kind === 'bellCrank' ? 'Crank pivot axis' : 'Column axis'} unit="" />}
       {st.kind === 'trackRod' && (

@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { validateDesign } from '../../../core/design/validateDesign';
 import type { DesignFile } from '../../../core/design/types';
 import { clone, demo } from '../reliability/demoDesigns';
+import { starterSteering, starterTrackRodDrive } from '../../../renderer/model/designStarters';
 
 const linnet = (): DesignFile => clone(demo('linnet').design);
 
@@ -87,5 +88,25 @@ describe('one-piece track rod validation', () => {
     const e = linnet() as unknown as { steering: { drive: Record<string, unknown> } };
     e.steering.drive.upright = 'middle';
     expect(messages(e as unknown as DesignFile)[0]).toContain('steering.drive.upright');
+  });
+
+  it("the workbench's starting blocks: a track rod on every demo, each drive, and back to tie rods, all valid", () => {
+    for (const name of ['heron', 'swift', 'wren', 'linnet', 'finch']) {
+      const base = clone(demo(name).design);
+      for (const kind of ['dragLink', 'centreLever', 'knuckle'] as const) {
+        const d = clone(base);
+        d.steering = starterSteering(d, 'trackRod');
+        if (d.steering.kind !== 'trackRod') throw new Error('expected a track rod');
+        d.steering.drive = starterTrackRodDrive(d, kind);
+        d.joints.tieRodInner = clone(d.joints.tieRodOuter);
+        if (kind === 'knuckle') d.upright.steeringAxis = 'kingpin';
+        expect(messages(d), `${name}, ${kind}`).toEqual([]);
+      }
+      for (const kind of ['bellCrank', 'rack', 'direct'] as const) {
+        const d = clone(base);
+        d.steering = starterSteering(d, kind);
+        expect(messages(d), `${name} to ${kind}`).toEqual([]);
+      }
+    }
   });
 });
