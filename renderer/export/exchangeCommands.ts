@@ -6,7 +6,6 @@
  */
 import type { Workbench } from '../state/workbench';
 import { exportName, type ExchangeFiles } from '../files/exchangeFiles';
-import { poseGlb, sweepGlb, sweepPoses } from './glbExport';
 import { hardpointTableText, planHardpointImport, type ImportPlan } from './hardpointImport';
 
 /** Poses solved for the sweep animation. */
@@ -53,6 +52,8 @@ export async function exportPoseGlb(wb: Workbench, files: ExchangeFiles): Promis
     fail(wb, 'Could not export the 3D pose', [`The pose asked for does not close (${s.outcome.message}); the drawing shows another pose. Move back to a pose that closes and export again.`]);
     return;
   }
+  // The exporter is loaded on first use (its own chunk), not with the workbench.
+  const { poseGlb } = await import('./glbExport');
   const r = await poseGlb(s.drawing!, s.outcome.snapshot!, wb.document.getState().design.name);
   files.offer(r.bytes, exportName(designBase(wb), '.pose.glb'), GLB);
   if (r.missing.length > 0) wb.actions.showNotice({ kind: 'info', title: 'Exported, with parts left out', lines: [`Not placed in this pose: ${r.missing.join(', ')}.`] });
@@ -61,6 +62,7 @@ export async function exportPoseGlb(wb: Workbench, files: ExchangeFiles): Promis
 export async function exportSweepGlb(wb: Workbench, files: ExchangeFiles): Promise<void> {
   const s = solvedPose(wb, 'the sweep animation');
   if (!s) return;
+  const { sweepGlb, sweepPoses } = await import('./glbExport');
   const sweep = sweepPoses(s.resolved!, s.pose, SWEEP_POSES);
   let r;
   try {
