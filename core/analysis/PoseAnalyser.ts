@@ -235,6 +235,7 @@ export class PoseAnalyser {
       status: 'within',
       checks: noChecks(),
       findings: [],
+      findingSubjects: [],
     };
     // Judged on what one pose gives; relativeMeasures.ts judges again once the neighbours are known.
     return judge ? applyJudgement(analysis, d.tolerances, this.findings) : analysis;

@@ -9,6 +9,7 @@ import type { JointKind, Joints, Side } from '../design/types';
 import type { SolveStatus } from '../solver/PoseSolver';
 import type { XyzMm } from './vec3';
 import type { CheckKind, Verdict } from './tolerance';
+import type { FindingSubject } from './poseVerdict';
 
 export interface XyMm {
   x: number;
@@ -274,6 +275,8 @@ export interface PoseAnalysis {
   checks: Record<CheckKind, Verdict | null>;
   /** Human words for each measure outside its tolerance or in its warning band. */
   findings: string[];
+  /** What each finding is about, in the same order (poseVerdict.ts). */
+  findingSubjects: FindingSubject[];
 }
 
 /** A pose the solver could not reach: no measures, never numbers made up. */

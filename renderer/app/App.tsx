@@ -52,8 +52,8 @@ export function App({ playback }: { playback: PlaybackController }) {
       <aside className="side left-side" aria-label="Pose and readings">
         <PosePanel />
         <PlaybackPanel controller={playback} />
-        <ReadoutPanel />
         <AlertsPanel />
+        <ReadoutPanel />
       </aside>
       <main className="centre">
         <Viewport />

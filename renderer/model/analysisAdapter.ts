@@ -47,6 +47,8 @@ export interface ReadoutTable {
 export interface Alert {
   severity: Severity;
   text: string;
+  /** The hardpoint to select to show what the alert is about (a joint of the part), when there is one. */
+  hardpoint?: string;
 }
 
 export type OutcomeStatus = SolveStatus | 'invalid-design';

@@ -9,7 +9,8 @@ import { NOT_WHILE_PLAYING } from '../../core/analysis/PoseEngine';
 import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from '../../core/analysis/tolerance';
 import { JOINT_WORDS, PART_WORDS } from '../../core/analysis/words';
 import type { SolveStatus } from '../../core/solver/PoseSolver';
-import { drawingPartsFor, type DrawingCheck, type DrawingLayout } from '../../core/mechanism/drawingLayout';
+import { drawingPartsFor, type ClearancePartName, type DrawingCheck, type DrawingLayout, type DrawingPointRef } from '../../core/mechanism/drawingLayout';
+import type { FindingSubject } from '../../core/analysis/poseVerdict';
 import type { PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import { worse, type Severity } from './severity';
 import type { Alert, MechanismLayout, PoseOutcome, ReadoutCell, ReadoutRow, ReadoutTable, Unit } from './analysisAdapter';
@@ -206,6 +207,45 @@ function solverTable(r: Raw): ReadoutTable {
   };
 }
 
+/** The drawing's checks that stand for what a finding is about. */
+export function subjectChecks(subject: FindingSubject): DrawingCheck[] {
+  switch (subject.kind) {
+    case 'joint':
+      return [{ kind: 'joint', joint: subject.joint, side: subject.side }];
+    case 'clearance':
+      // A clearance pair is named 'partA-partB' (core/analysis/clearance.ts).
+      return subject.pair.split('-').map((part) => ({ kind: 'clearance', part: part as ClearancePartName, side: subject.side }));
+    case 'wheel':
+      return [{ kind: 'clearance', part: 'tyre', side: subject.side }];
+    case 'deadCentre':
+      return (['right', 'left'] as const).flatMap((side) => [
+        { kind: 'transmission' as const, link: 'steeringArm' as const, side },
+        { kind: 'transmission' as const, link: 'linkage' as const, side },
+      ]);
+    case 'steering':
+      return [];
+  }
+}
+
+const samePoint = (a: DrawingPointRef, b: DrawingPointRef) => 'point' in a && 'point' in b && a.point === b.point;
+
+/**
+ * A hardpoint that shows what a finding is about: a drawn joint among the parts of its checks,
+ * else a joint at an end of one of its tubes; null when the drawing has none (the overall
+ * steering ratio, a tyre alone).
+ */
+export function subjectHardpoint(drawing: DrawingLayout, subject: FindingSubject): string | null {
+  const parts = new Set(subjectChecks(subject).flatMap((c) => drawingPartsFor(drawing, c)));
+  const joint = drawing.joints.find((j) => parts.has(j.id));
+  if (joint) return joint.hardpoint;
+  for (const t of drawing.tubes) {
+    if (!parts.has(t.id)) continue;
+    const end = drawing.joints.find((j) => samePoint(j.at, t.a) || samePoint(j.at, t.b));
+    if (end) return end.hardpoint;
+  }
+  return null;
+}
+
 export function describePose(design: ResolvedDesign, layout: MechanismLayout, drawing: DrawingLayout, r: Raw): PoseOutcome {
   const alerts: Alert[] = [];
   const parts: Record<string, Severity> = {};
@@ -225,10 +265,12 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, dr
   if (a) {
     const ctx: TableContext = { design, a, tol: design.tolerances, markCheck };
     tables.push(wheelTable(ctx), jointTable(ctx), clearanceTable(ctx), overallTable(ctx));
-    for (const f of a.findings) {
+    a.findings.forEach((f, i) => {
       const m = /^(over|close): (.*)$/.exec(f);
-      alerts.push({ severity: m?.[1] === 'over' ? 'over' : 'close', text: m ? capitalise(m[2]) : f });
-    }
+      const subject = a.findingSubjects[i];
+      const hardpoint = subject ? subjectHardpoint(drawing, subject) : null;
+      alerts.push({ severity: m?.[1] === 'over' ? 'over' : 'close', text: m ? capitalise(m[2]) : f, ...(hardpoint ? { hardpoint } : {}) });
+    });
   }
   tables.push(solverTable(r));
   return {

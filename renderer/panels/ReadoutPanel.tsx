@@ -1,7 +1,7 @@
 /** Every measure of the current pose, per wheel and overall, with units and condition words. */
-import { usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
+import { useActions, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { useThrottledSlice } from '../app/useThrottled';
-import type { ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
+import type { Alert, ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
 import { RIDE_TABLE_ID } from '../model/rideReadout';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
@@ -86,16 +86,9 @@ function Table({ table }: { table: ReadoutTable }) {
 export function ReadoutPanel() {
   const outcome = useThrottledSlice(useWorkbenchApi().pose, (s) => s.outcome, useReadoutInterval());
   const reached = outcome.shown === 'requested';
-  const ps = outcome.poseStatus;
-  const sev = ps ?? undefined;
   return (
     <section className="panel readout-panel" aria-labelledby="readout-title" data-testid="readouts">
       <h2 id="readout-title">Readings</h2>
-      {ps && sev && (
-        <p className={`pose-status sev-${sev}`} data-testid="pose-status" style={{ borderColor: SEVERITY_STYLE[sev].colour }}>
-          <span style={{ color: SEVERITY_STYLE[sev].colour }}>{SEVERITY_STYLE[sev].glyph}</span> This pose: {SEVERITY_STYLE[sev].pose}
-        </p>
-      )}
       {!reached && <p className="hint">No readings: this pose was not reached.</p>}
       {outcome.tables.map((t) => (
         <Table key={t.id} table={t} />
@@ -104,28 +97,59 @@ export function ReadoutPanel() {
   );
 }
 
+/** Groups of alerts, worst first. */
+const ALERT_GROUPS: { severity: Severity; title: string }[] = [
+  { severity: 'broken', title: "Won't assemble or invalid" },
+  { severity: 'over', title: 'Over a limit' },
+  { severity: 'close', title: 'Close to a limit' },
+];
+
+/**
+ * The pose's verdict and its alerts, at the top of the left column: grouped by severity, worst
+ * first; an alert about a part selects one of its joints (the view rings it, the table shows it).
+ */
 export function AlertsPanel() {
-  const alerts = useThrottledSlice(useWorkbenchApi().pose, (s) => s.outcome.alerts, useReadoutInterval());
+  const outcome = useThrottledSlice(useWorkbenchApi().pose, (s) => s.outcome, useReadoutInterval());
   const issues = usePose((s) => s.issues);
-  const count = alerts.length + issues.length;
+  const actions = useActions();
+  const selection = useUi((s) => s.selection);
+  const alerts: Alert[] = [...issues.map((i): Alert => ({ severity: 'broken', text: i.message })), ...outcome.alerts];
+  const ps = outcome.poseStatus;
   return (
     <section className="panel alerts-panel" aria-labelledby="alerts-title" data-testid="alerts">
       <h2 id="alerts-title">
-        Alerts <span className="count">{count === 0 ? 'none' : count}</span>
+        This pose <span className="count">{alerts.length === 0 ? 'no alerts' : `${alerts.length} alert${alerts.length === 1 ? '' : 's'}`}</span>
       </h2>
-      {count === 0 && <p className="hint">Nothing outside tolerance or near it in this pose.</p>}
-      <ul>
-        {issues.map((i, k) => (
-          <li key={`i${k}`} className="alert sev-broken">
-            <span style={{ color: SEVERITY_STYLE.broken.colour }}>{SEVERITY_STYLE.broken.glyph}</span> {i.message}
-          </li>
-        ))}
-        {alerts.map((a, k) => (
-          <li key={`a${k}`} className={`alert sev-${a.severity}`}>
-            <span style={{ color: SEVERITY_STYLE[a.severity].colour }}>{SEVERITY_STYLE[a.severity].glyph}</span> {a.text}
-          </li>
-        ))}
-      </ul>
+      {ps && (
+        <p className={`pose-status sev-${ps}`} data-testid="pose-status" style={{ borderColor: SEVERITY_STYLE[ps].colour }}>
+          <span style={{ color: SEVERITY_STYLE[ps].colour }}>{SEVERITY_STYLE[ps].glyph}</span> This pose: {SEVERITY_STYLE[ps].pose}
+        </p>
+      )}
+      {alerts.length === 0 && <p className="hint">Nothing outside tolerance or near it in this pose.</p>}
+      {ALERT_GROUPS.map((g) => {
+        const of = alerts.filter((a) => a.severity === g.severity);
+        if (of.length === 0) return null;
+        return (
+          <div key={g.severity} className="alert-group" data-testid={`alerts-${g.severity}`}>
+            <h3>
+              <span style={{ color: SEVERITY_STYLE[g.severity].colour }}>{SEVERITY_STYLE[g.severity].glyph}</span> {g.title} ({of.length})
+            </h3>
+            <ul>
+              {of.map((a, k) => (
+                <li key={k} className={`alert sev-${a.severity} ${a.hardpoint && a.hardpoint === selection ? 'is-selected' : ''}`}>
+                  {a.hardpoint ? (
+                    <button type="button" className="alert-button" onClick={() => actions.select(a.hardpoint!)} title="Select the part in the view and the hardpoint table">
+                      {a.text}
+                    </button>
+                  ) : (
+                    a.text
+                  )}
+                </li>
+              ))}
+            </ul>
+          </div>
+        );
+      })}
     </section>
   );
 }
