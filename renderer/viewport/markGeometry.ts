@@ -87,8 +87,9 @@ export function groundMarkPlaces(halfTrack: number, frontReach: number) {
   const arrowLen = 420;
   const arrowX = frontReach + 120 + arrowLen / 2;
   return {
-    left: [0, halfTrack + 240, 60] as [number, number, number],
-    right: [0, -halfTrack - 240, 60] as [number, number, number],
+    // Beside and just behind the front wheels, so in the Side view they do not cover the wheel.
+    left: [-frontReach - 220, halfTrack + 240, 60] as [number, number, number],
+    right: [-frontReach - 220, -halfTrack - 240, 60] as [number, number, number],
     arrowX,
     arrowLen,
     front: [arrowX + arrowLen / 2 + 140, 0, 60] as [number, number, number],
