@@ -6,6 +6,8 @@
 import { describe, it, expect } from 'vitest';
 import { demo } from '../analysis/helpers';
 import { checkDesign } from '../../../core/analysis/designCheck';
+import { resolveDesign } from '../../../core/design/resolveDesign';
+import { demo as demoFile } from '../reliability/demoDesigns';
 
 const failing = (c: ReturnType<typeof checkDesign>['operating']) => c.items.filter((i) => i.verdict === 'over' || i.verdict === 'broken').map((i) => i.label);
 
@@ -29,5 +31,20 @@ describe('the bundled demos pass their own check', () => {
     expect(labels).toMatch(/upper outer joint/);
     expect(labels).toMatch(/slip angle/);
     expect(d.notes).toMatch(/Fault 1/);
+  }, 60_000);
+
+  it('the upright track-rod demo passes over its whole envelope', () => {
+    const c = checkDesign(resolveDesign(demoFile('linnet').design), { judged: 'full' });
+    expect(failing(c.full)).toEqual([]);
+    expect(failing(c.operating)).toEqual([]);
+  }, 60_000);
+
+  it('the knuckle-steered teaching example fails where its notes say: slip only, no lean steer', () => {
+    const d = resolveDesign(demoFile('finch').design);
+    expect(d.name).toMatch(/teaching example/);
+    const labels = failing(checkDesign(d).operating);
+    expect(labels.length).toBeGreaterThan(0);
+    for (const l of labels) expect(l).toMatch(/slip angle/);
+    expect(d.notes).toMatch(/no Ackermann/);
   }, 60_000);
 });
