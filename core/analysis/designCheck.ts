@@ -14,6 +14,7 @@ import { clearancePairs, crownCircleOf, tyreToTyreDistance } from './clearance';
 import { envelopeAxes, runSweep, type SweepAxes, type SweepCell, type SweepContact, type SweepSummary } from './sweep';
 import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from './tolerance';
 import { JOINT_WORDS, PART_WORDS } from './words';
+import type { FindingSubject } from './poseVerdict';
 import { TIE_ROD_SPIN_TREATMENT } from './jointArticulation';
 import { steerLimits, type LeanLimits } from './limits';
 import { PoseEngine } from './PoseEngine';
@@ -45,6 +46,8 @@ export interface CheckItem {
    * null when it never is.
    */
   firstOver: CheckWhere | null;
+  /** What the item is about, to point at it (null for the count of poses that cannot be assembled). */
+  subject: FindingSubject | null;
 }
 
 /** One judged set of poses: the operating region, or the whole lean x handlebar x travel grid. */
@@ -114,22 +117,22 @@ export class CheckAccumulator {
   constructor(design: ResolvedDesign) {
     this.design = design;
     const tol = design.tolerances;
-    const add = (id: string, group: CheckItem['group'], label: string, unit: CheckItem['unit'], limit: string) =>
-      this.accs.set(id, { item: { id, group, label, unit, worst: null, where: null, limit, verdict: 'within', firstOver: null }, score: -Infinity, firstDistance: Infinity });
-    for (const side of ['left', 'right'] as Side[]) add(`selfSteer.${side}`, 'tolerance', `self-steer (lean and bump steer), ${side}`, 'deg', `|x| <= ${tol.selfSteerDeg} deg`);
-    add('ratioChange', 'tolerance', 'steering-ratio change from upright', '%', `|x| <= ${tol.ratioChangePct} %`);
-    for (const side of ['left', 'right'] as Side[]) add(`slip.${side}`, 'tolerance', `slip angle (toe mismatch), ${side}`, 'deg', `|x| <= ${tol.slipDeg} deg`);
+    const add = (id: string, group: CheckItem['group'], label: string, unit: CheckItem['unit'], limit: string, subject: FindingSubject | null) =>
+      this.accs.set(id, { item: { id, group, label, unit, worst: null, where: null, limit, verdict: 'within', firstOver: null, subject }, score: -Infinity, firstDistance: Infinity });
+    for (const side of ['left', 'right'] as Side[]) add(`selfSteer.${side}`, 'tolerance', `self-steer (lean and bump steer), ${side}`, 'deg', `|x| <= ${tol.selfSteerDeg} deg`, { kind: 'wheel', side });
+    add('ratioChange', 'tolerance', 'steering-ratio change from upright', '%', `|x| <= ${tol.ratioChangePct} %`, { kind: 'steering' });
+    for (const side of ['left', 'right'] as Side[]) add(`slip.${side}`, 'tolerance', `slip angle (toe mismatch), ${side}`, 'deg', `|x| <= ${tol.slipDeg} deg`, { kind: 'wheel', side });
     for (const side of ['left', 'right'] as Side[]) {
       for (const name of ['upperOuter', 'lowerOuter', 'tieRodOuter', 'tieRodInner'] as const) {
         const j = design.joints[name];
         const kind = j.kind === 'rodEnd' ? 'rod end' : 'ball joint';
-        add(`joint.${name}.${side}`, 'joint', `${JOINT_WORDS[name]}, ${side} (${kind})`, 'deg', `<= ${j.ratedDeg - tol.jointMarginDeg} deg (rated ${j.ratedDeg}, margin ${tol.jointMarginDeg})`);
+        add(`joint.${name}.${side}`, 'joint', `${JOINT_WORDS[name]}, ${side} (${kind})`, 'deg', `<= ${j.ratedDeg - tol.jointMarginDeg} deg (rated ${j.ratedDeg}, margin ${tol.jointMarginDeg})`, { kind: 'joint', joint: name, side });
       }
     }
-    for (const p of clearancePairs(design)) add(`clearance.${p.id}.${p.side}`, 'clearance', `clearance ${PART_WORDS[p.a]} to ${PART_WORDS[p.b]}, ${p.side}`, 'mm', `>= ${tol.clearanceMm} mm`);
-    add(ACROSS_ID, 'clearance', 'clearance left tyre to right tyre (across the vehicle)', 'mm', `>= ${tol.clearanceMm} mm`);
-    add('deadCentre', 'linkage', 'dead-centre margin (smallest transmission angle)', 'deg', '> 0 deg');
-    add('assembly', 'linkage', 'poses that cannot be assembled', 'poses', '0');
+    for (const p of clearancePairs(design)) add(`clearance.${p.id}.${p.side}`, 'clearance', `clearance ${PART_WORDS[p.a]} to ${PART_WORDS[p.b]}, ${p.side}`, 'mm', `>= ${tol.clearanceMm} mm`, { kind: 'clearance', pair: p.id, side: p.side });
+    add(ACROSS_ID, 'clearance', 'clearance left tyre to right tyre (across the vehicle)', 'mm', `>= ${tol.clearanceMm} mm`, { kind: 'wheel', side: 'left' });
+    add('deadCentre', 'linkage', 'dead-centre margin (smallest transmission angle)', 'deg', '> 0 deg', { kind: 'deadCentre' });
+    add('assembly', 'linkage', 'poses that cannot be assembled', 'poses', '0', null);
   }
 
   private update(id: string, value: number, score: number, where: CheckWhere, verdict?: Verdict): void {

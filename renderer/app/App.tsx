@@ -5,6 +5,7 @@ import { HardpointTable } from '../panels/HardpointTable';
 import { StudiesPanel } from '../studies/StudiesPanel';
 import { AlertsPanel, ReadoutPanel } from '../panels/ReadoutPanel';
 import { PosePanel } from '../panels/PosePanel';
+import { LimitsPanel } from '../panels/LimitsPanel';
 import { PlaybackPanel } from '../panels/PlaybackPanel';
 import type { PlaybackController } from '../panels/playback';
 import { Viewport } from '../viewport/Viewport';
@@ -53,6 +54,7 @@ export function App({ playback }: { playback: PlaybackController }) {
         <PosePanel />
         <PlaybackPanel controller={playback} />
         <AlertsPanel />
+        <LimitsPanel />
         <ReadoutPanel />
       </aside>
       <main className="centre">

@@ -1,7 +1,7 @@
 /** One job of any kind, run where it is called (the worker, or the main thread as a fallback). */
 import { computeCurves, computeMap, type Progress } from './sweepJobs';
 import { computeSensitivity } from './sensitivityJob';
-import { computeFit, computeProposals, computeTolerance, computeTune, computeVariants } from './studyJobs';
+import { computeCheck, computeFit, computeProposals, computeTolerance, computeTune, computeVariants } from './studyJobs';
 import { computeReport } from './reportJob';
 import type { JobKinds, SweepRequest } from './sweepProtocol';
 
@@ -23,6 +23,8 @@ export function runJob(req: SweepRequest, progress?: Progress): JobKinds[SweepRe
       return computeVariants(req.request, progress);
     case 'fit':
       return computeFit(req.request, progress);
+    case 'check':
+      return computeCheck(req.request, progress);
     case 'report':
       return computeReport(req.request, progress);
   }

@@ -11,6 +11,8 @@ import { checkVariables, type TunePlan } from '../../core/studies/tunePlan';
 import { compareVariants, type Variant, type VariantsReport } from '../../core/studies/variants';
 import { runFit, type FitReport } from '../../core/studies/fit';
 import { prepareFit } from '../../core/studies/fitInput';
+import { checkDesign, type CheckItem } from '../../core/analysis/designCheck';
+import { resolveDesign } from '../../core/design/resolveDesign';
 import type { Progress } from './sweepJobs';
 
 export interface TuneRequest {
@@ -69,4 +71,29 @@ export function computeFit(req: FitRequest, progress?: Progress): FitReport {
   const input = prepareFit(req.design, req.csv, req.csvName, req.ids, 'vary');
   if (!input.ok) throw new Error(input.problems.slice(0, 6).join('\n') + (input.problems.length > 6 ? `\n(and ${input.problems.length - 6} more)` : ''));
   return runFit(req.design, input.measurements, input.variables, { onProgress: progress });
+}
+
+/** Grid of the workbench's check: coarser than the CLI's default (1 deg, 10 mm) so it takes a second or two. */
+export const WORKBENCH_CHECK_STEPS = { leanDeg: 2.5, handlebarDeg: 2.5, travelMm: 10 } as const;
+
+export interface CheckRequest {
+  design: DesignFile;
+}
+
+export interface CheckData {
+  /** The operating region's items (core's check), worst verdicts first. */
+  items: CheckItem[];
+  passed: boolean;
+  poses: number;
+  steps: typeof WORKBENCH_CHECK_STEPS;
+  elapsedMs: number;
+}
+
+const VERDICT_ORDER = ['broken', 'over', 'close', 'within'];
+
+export function computeCheck(req: CheckRequest, progress?: Progress): CheckData {
+  const t0 = Date.now();
+  const c = checkDesign(resolveDesign(req.design), { steps: WORKBENCH_CHECK_STEPS, onProgress: progress });
+  const items = [...c.operating.items].sort((a, b) => VERDICT_ORDER.indexOf(a.verdict) - VERDICT_ORDER.indexOf(b.verdict));
+  return { items, passed: c.operating.passed, poses: c.operating.poses, steps: WORKBENCH_CHECK_STEPS, elapsedMs: Date.now() - t0 };
 }

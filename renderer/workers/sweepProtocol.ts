@@ -6,7 +6,7 @@ import type { VariantsReport } from '../../core/studies/variants';
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from './sweepJobs';
 import type { SensitivityData, SensitivityRequest } from './sensitivityJob';
-import type { FitRequest, ProposalsRequest, ToleranceRequest, TuneRequest, VariantsRequest } from './studyJobs';
+import type { CheckData, CheckRequest, FitRequest, ProposalsRequest, ToleranceRequest, TuneRequest, VariantsRequest } from './studyJobs';
 import type { FitReport } from '../../core/studies/fit';
 import type { ReportRequest } from './reportJob';
 
@@ -19,6 +19,7 @@ export interface JobKinds {
   proposals: { request: ProposalsRequest; data: Proposal[] };
   variants: { request: VariantsRequest; data: VariantsReport };
   fit: { request: FitRequest; data: FitReport };
+  check: { request: CheckRequest; data: CheckData };
   /** The workshop report, one HTML document. */
   report: { request: ReportRequest; data: string };
 }
