@@ -117,4 +117,45 @@ describe('the Linnet (one-piece track rod, drag link) through the analysis', () 
     const m = solveAnalyse(a0, { handlebarDeg: -30 }, { contact: 'travel' }).analysis;
     expect(Math.abs(m.wheels.right.toeDeg - a.wheels.left.toeDeg)).toBeGreaterThan(0.01);
   });
+
+  it('driven by a centre lever instead (the rod a body on a universal joint): the grid closes below 1e-9 mm and the mirror matches', () => {
+    const withLever = (mirror: boolean): Doc => {
+      const d = mirror ? mirroredLinnet() : linnetDoc();
+      const a = resolveSidedVec(d.upright.steeringArmJoint).right;
+      const s = mirror ? -1 : 1;
+      // A lever on a vertical column 60 mm behind the rod, off the centre line, the short link to the rod's middle.
+      d.steering.drive = {
+        kind: 'centreLever',
+        pivot: { x: a.x - 60, y: -80 * s, z: a.z + 40 },
+        axis: { x: 0, y: 0, z: 1 },
+        leverJoint: { x: a.x, y: -80 * s, z: a.z + 40 },
+        trackRodJoint: { x: a.x, y: 0, z: a.z },
+      };
+      return d;
+    };
+    const design = resolveDoc(withLever(false));
+    const cells: SweepCell[] = [];
+    const handlebarDeg = [-40, -20, -5, 0, 5, 20, 40];
+    runSweep(design, { leanDeg: [0], handlebarDeg, travelMm: [-8, 0, 15] }, {}, (c) => cells.push(c));
+    expect(cells).toHaveLength(21);
+    for (const c of cells) {
+      if (!c.ok) throw new Error(`handlebar ${c.handlebarDeg}, travel ${c.travelMm}: did not solve`);
+      expect(c.analysis.solver.residualMm!).toBeLessThan(1e-9);
+      expect(nonFinitePaths(c.analysis)).toEqual([]);
+      expect(c.analysis.steering.dragLinkTransmissionDeg).not.toBeNull();
+    }
+    const mirrored = resolveDoc(withLever(true));
+    for (const bar of [15, -30]) {
+      const a = solveAnalyse(design, { handlebarDeg: bar }, { contact: 'travel' }).analysis;
+      const m = solveAnalyse(mirrored, { handlebarDeg: -bar }, { contact: 'travel' }).analysis;
+      for (const [s, o] of [
+        ['left', 'right'],
+        ['right', 'left'],
+      ] as const) {
+        expect(m.wheels[o].toeDeg).toBeCloseTo(a.wheels[s].toeDeg, 7);
+        expect(m.wheels[o].steerDeg).toBeCloseTo(-a.wheels[s].steerDeg, 7);
+      }
+      expect(m.steering.dragLinkTransmissionDeg!).toBeCloseTo(a.steering.dragLinkTransmissionDeg!, 6);
+    }
+  });
 });
