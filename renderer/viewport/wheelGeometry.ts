@@ -19,8 +19,10 @@ export function sectionHeight(w: WheelSize): number {
   return Math.max(8, Math.min(w.width, 0.3 * w.rollingRadius));
 }
 
-const AROUND = 44;
-const CROWN_STEPS = 8;
+/** Segments round the wheel (a modest count: the picture is drawn on the CPU). */
+export const TYRE_SEGMENTS = 32;
+const AROUND = TYRE_SEGMENTS;
+const CROWN_STEPS = 6;
 
 /**
  * The tyre's section in (radius, axial) and turned about the spin axis. The tread is the arc of
@@ -55,13 +57,8 @@ export function wheelGeometry(w: WheelSize): BufferGeometry {
   const hubR = Math.max(12, 0.1 * w.rollingRadius);
   const rimWidth = Math.max(10, 0.8 * w.width);
   const parts: BufferGeometry[] = [];
-  // Rim: an open ring, and a thin flange ring on each face so it reads as a rim from the side.
+  // Rim: an open ring.
   parts.push(new CylinderGeometry(rimR, rimR, rimWidth, AROUND, 1, true).toNonIndexed());
-  for (const y of [-rimWidth / 2, rimWidth / 2]) {
-    const flange = new CylinderGeometry(rimR + 4, rimR + 4, 3, AROUND, 1, true).toNonIndexed();
-    flange.translate(0, y, 0);
-    parts.push(flange);
-  }
   const hub = new CylinderGeometry(hubR, hubR, Math.max(rimWidth * 1.6, 30), 16, 1, false).toNonIndexed();
   parts.push(hub);
   const spokeLen = rimR - hubR;

@@ -25,6 +25,7 @@ import { JOINT_CAPACITY, LINE_CAPACITY, TUBE_CAPACITY, updateScene, type SceneOb
 import { markGeometries } from '../../renderer/viewport/markGeometry';
 import { createWheelSlots, type MadeSlot } from '../../renderer/viewport/wheelSlots';
 import { NEAR_WHEEL_OPACITY } from '../../renderer/viewport/wheelsUpdate';
+import { TYRE_SEGMENTS } from '../../renderer/viewport/wheelGeometry';
 import { demoWorkbench } from './helpers';
 
 const DEMOS = ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike'];
@@ -233,7 +234,7 @@ describe('solid wheels', () => {
         expect(slot.group.position.distanceTo(new Vector3(...wheel.centre))).toBeLessThan(1e-9);
         const axis = new Vector3(0, 0, 1).applyQuaternion(slot.group.quaternion);
         expect(axis.distanceTo(new Vector3(...wheel.spinAxis).normalize())).toBeLessThan(1e-9);
-        // The drawn tread's lowest vertex: on the ground at the contact point (within the tessellation, 44 steps round).
+        // The drawn tread's lowest vertex: on the ground at the contact point (within the tessellation).
         m.copy(slot.tyreMesh.matrixWorld);
         const pos = slot.tyreMesh.geometry.getAttribute('position');
         const v = new Vector3();
@@ -243,10 +244,10 @@ describe('solid wheels', () => {
           if (v.z < low.z) low = v.clone();
         }
         const cp = new Vector3(...wheel.contactPoint);
-        const sag = fw.rollingRadius * (1 - Math.cos(Math.PI / 44));
+        const sag = fw.rollingRadius * (1 - Math.cos(Math.PI / TYRE_SEGMENTS));
         expect(low.z - cp.z).toBeGreaterThan(-0.05);
         expect(low.z - cp.z).toBeLessThan(sag + 0.3);
-        expect(Math.hypot(low.x - cp.x, low.y - cp.y)).toBeLessThan(fw.rollingRadius * Math.sin(Math.PI / 44) + 2);
+        expect(Math.hypot(low.x - cp.x, low.y - cp.y)).toBeLessThan(fw.rollingRadius * Math.sin(Math.PI / TYRE_SEGMENTS) + 2);
         // The contact mark lies on the ground under the contact point.
         expect(Math.hypot(slot.mark.position.x - cp.x, slot.mark.position.y - cp.y)).toBeLessThan(1e-9);
       });
