@@ -17,11 +17,16 @@ export interface SeverityStyle {
   pose: string;
 }
 
-/** Our palette: teal, amber, vermilion and plum on a neutral slate for parts with no check. */
+/**
+ * Our palette: teal, amber, vermilion and plum; every pair of the four verdicts stays at least
+ * 15 CIEDE2000 apart under normal vision and simulated protanopia, deuteranopia and tritanopia
+ * (test/core/report/statusColours.test.ts), and each has its glyph and word besides. 'none' is
+ * slate; nothing is drawn in it (an unchecked part keeps its own colour, renderer/viewport/palette.ts).
+ */
 export const SEVERITY_STYLE: Record<Severity, SeverityStyle> = {
   none: { word: 'not checked', glyph: '·', colour: '#7d8791', meaning: 'no tolerance applies, or the analysis has not run', pose: 'not checked' },
   within: { word: 'within', glyph: '✓', colour: '#1f9e89', meaning: 'inside the design tolerance', pose: 'within every tolerance' },
-  close: { word: 'close', glyph: '!', colour: '#e0a526', meaning: 'inside, but within the last fifth of the tolerance', pose: 'close to a tolerance' },
+  close: { word: 'close', glyph: '!', colour: '#e8b830', meaning: 'inside, but within the last fifth of the tolerance', pose: 'close to a tolerance' },
   over: { word: 'over', glyph: '✕', colour: '#d8453b', meaning: 'outside the design tolerance', pose: 'over a tolerance' },
   broken: { word: "won't assemble", glyph: '⊘', colour: '#7b3fa0', meaning: 'the linkage cannot close in this pose', pose: 'cannot assemble' },
 };
