@@ -10,9 +10,8 @@ import type { WheelAlignment } from '../analysis/analysisTypes';
 import { JOINT_WORDS } from '../analysis/words';
 import { SAFETY_CAUTION } from './caution';
 import { SEVERITY_STYLE } from './severity';
-import { renderOptionToSvg } from './charts/renderSvg';
-import { CURVE_CHARTS, curveOption, type ChartMarker } from './charts/curveOptions';
-import { heatMapOption } from './charts/heatMapOptions';
+import { CURVE_CHARTS } from './charts/curveOptions';
+import { renderPlots } from './plots';
 import { drawView, VIEWS } from './drawings';
 import { escapeHtml, fixed, htmlTable, mm1, num, td } from './html';
 import type { ReportData } from './gatherReport';
@@ -22,7 +21,6 @@ const CONVENTIONS: (keyof typeof ANALYSIS_DEFINITIONS)[] = ['axes', 'lean', 'han
 
 const CONVENTION_WORDS: Partial<Record<keyof typeof ANALYSIS_DEFINITIONS, string>> = { kpi: 'KPI', scrubRadius: 'scrub radius', selfSteer: 'self-steer', ratioChange: 'ratio change', turningCircle: 'turning circle' };
 
-const DESIGN_MARKER: ChartMarker = { leanDeg: 0, handlebarDeg: 0, travelMm: 0, ackermann: null };
 
 const CSS = `
 @page { size: A4; margin: 11mm 12mm; }
@@ -175,15 +173,11 @@ function chartBox(id: string, svg: string, caption: string): string {
 }
 
 function curveSheets(r: ReportData): string[] {
-  const charts = CURVE_CHARTS.map((c) => {
-    const svg = renderOptionToSvg(curveOption(c.id, r.curves, DESIGN_MARKER), 560, 300);
-    return chartBox(c.id, svg, '');
-  });
+  // The standalone plots' renderings (tiltbench report --plots), at a size for half a sheet.
+  const plots = renderPlots(r.curves, r.map, { curve: [560, 300], map: [720, 400] });
+  const charts = CURVE_CHARTS.map((c, k) => chartBox(c.id, plots[k].svg, ''));
   const note = `<p class="small">Curves from core's sweeps (the workbench's charts), marker at design position. Missing curves say why.</p>`;
-  const mapOption = heatMapOption(r.map, 'status', { leanDeg: 0, handlebarDeg: 0 }) as { title?: { subtext?: string } };
-  // The workbench's hint to click a cell means nothing on paper.
-  if (mapOption.title && typeof mapOption.title.subtext === 'string') mapOption.title.subtext = mapOption.title.subtext.replace(/; click a cell to go there$/, '');
-  const mapSvg = renderOptionToSvg(mapOption, 720, 400);
+  const mapSvg = plots[plots.length - 1].svg;
   const m = r.map;
   const mapWords =
     `Envelope map: core's verdict on every pose of lean ${fixed(m.lean[0], 0)}..${fixed(m.lean[m.lean.length - 1], 0)} deg x handlebar ${fixed(m.handlebar[0], 0)}..${fixed(m.handlebar[m.handlebar.length - 1], 0)} deg ` +
