@@ -10,6 +10,8 @@
 // 1.0 (dichromacy), applied to linear sRGB and clipped, as their supplementary page gives them
 // (the same numbers as the colorspacious library's cvd.py).
 // sRGB to CIELAB: IEC 61966-2-1 transfer curve and matrix, D65 white.
+// Outside reference: the culori library (differenceCiede2000 and its Machado filters) agrees
+// pair for pair when the matrices are applied its way, and the thresholds hold its way too.
 import { describe, expect, it } from 'vitest';
 import { SEVERITY_STYLE, type Severity } from '../../renderer/model/severity';
 import { VIEW_COLOUR } from '../../renderer/viewport/palette';
@@ -45,13 +47,24 @@ const linear = (c: number) => (c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) 
 
 function labOf(hex: string, sim: M3): Lab {
   const rgb = [1, 3, 5].map((i) => linear(parseInt(hex.slice(i, i + 2), 16) / 255));
-  const s = sim.map((row) => Math.min(1, Math.max(0, row[0] * rgb[0] + row[1] * rgb[1] + row[2] * rgb[2])));
+  return labFromLinear(sim.map((row) => Math.min(1, Math.max(0, row[0] * rgb[0] + row[1] * rgb[1] + row[2] * rgb[2]))));
+}
+
+function labFromLinear(s: number[]): Lab {
   const X = 0.4124564 * s[0] + 0.3575761 * s[1] + 0.1804375 * s[2];
   const Y = 0.2126729 * s[0] + 0.7151522 * s[1] + 0.072175 * s[2];
   const Z = 0.0193339 * s[0] + 0.119192 * s[1] + 0.9503041 * s[2];
   const f = (t: number) => (t > (6 / 29) ** 3 ? Math.cbrt(t) : t / (3 * (6 / 29) ** 2) + 4 / 29);
   const [fx, fy, fz] = [f(X / 0.95047), f(Y / 1), f(Z / 1.08883)];
   return [116 * fy - 16, 500 * (fx - fy), 200 * (fy - fz)];
+}
+
+/** As labOf, but the matrix applied to the gamma-encoded values without clipping (culori's way). */
+function labOfEncoded(hex: string, sim: M3): Lab {
+  const enc = [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16) / 255);
+  const s = sim.map((row) => row[0] * enc[0] + row[1] * enc[1] + row[2] * enc[2]);
+  const lin = s.map((c) => Math.sign(c) * linear(Math.abs(c)));
+  return labFromLinear(lin);
 }
 
 const rad = (d: number) => (d * Math.PI) / 180;
@@ -162,9 +175,61 @@ describe("the viewport's colours (CIEDE2000, worst case over normal vision and t
     }
   });
 
+  it('the kinds of tube differ from each other under normal vision: at least 9 apart', () => {
+    const kinds = ['frame', 'wishbone', 'upright', 'steering', 'tieRod'] as const;
+    for (const a of kinds) {
+      for (const b of kinds) {
+        if (a >= b) continue;
+        const de = ciede2000(labOf(PART_CLASS_COLOUR[a], SIMULATIONS.normal), labOf(PART_CLASS_COLOUR[b], SIMULATIONS.normal));
+        expect(de, `${a} and ${b}`).toBeGreaterThanOrEqual(9);
+      }
+    }
+  });
+
   it('negative control: the earlier bronze of steering parts was 2.4 from "over" under deuteranopia', () => {
     const w = worst('#a4713a', { over: SEVERITY_STYLE.over.colour });
     expect(w.de).toBeLessThan(10);
     expect(w.sim).toBe('deuteranopia');
+  });
+});
+
+describe('agreement with an outside implementation', () => {
+  // culori applies Machado's matrices to gamma-encoded sRGB (unclipped), this file to linear
+  // sRGB (clipped), as colorspacious does. Applied the same way, the two must agree: that checks
+  // this file's sRGB -> CIELAB -> CIEDE2000 chain against culori's. And the viewport's
+  // thresholds must hold under culori's convention too, so they do not rest on that choice.
+  it('matches the culori library pair for pair when the matrices are applied as culori does, and the thresholds hold there too', async () => {
+    const { differenceCiede2000, filterDeficiencyDeuter, filterDeficiencyProt, filterDeficiencyTrit, parse } = await import('culori');
+    const dE = differenceCiede2000();
+    type C = NonNullable<ReturnType<typeof parse>>;
+    const theirs: Record<string, (c: C) => C> = {
+      normal: (c) => c,
+      protanopia: filterDeficiencyProt(1),
+      deuteranopia: filterDeficiencyDeuter(1),
+      tritanopia: filterDeficiencyTrit(1),
+    };
+    const colours: Record<string, string> = { ...STATUS, ...PART_CLASS_COLOUR, selection: VIEW_COLOUR.selection, path: VIEW_COLOUR.path, ground: VIEW_COLOUR.ground };
+    const theirDe = (a: string, b: string, sim: string) => dE(theirs[sim](parse(a)!), theirs[sim](parse(b)!));
+    let worstGap = 0;
+    let pairs = 0;
+    for (const [sim, m] of Object.entries(SIMULATIONS)) {
+      for (const a of Object.values(colours)) {
+        for (const b of Object.values(colours)) {
+          if (a >= b) continue;
+          const ours = ciede2000(labOfEncoded(a, m), labOfEncoded(b, m));
+          worstGap = Math.max(worstGap, Math.abs(ours - theirDe(a, b, sim)));
+          pairs++;
+        }
+      }
+    }
+    expect(pairs).toBeGreaterThan(100);
+    expect(worstGap).toBeLessThan(0.05);
+    // The thresholds of the checks above, under culori's convention.
+    const least = (hex: string, others: string[]) => Math.min(...Object.keys(theirs).flatMap((sim) => others.map((o) => theirDe(hex, o, sim))));
+    const statusHex = Object.values(STATUS);
+    const partHex = [...Object.values(PART_CLASS_COLOUR), VIEW_COLOUR.joint, VIEW_COLOUR.tyre, VIEW_COLOUR.rim];
+    expect(least(VIEW_COLOUR.selection, [...statusHex, ...partHex])).toBeGreaterThanOrEqual(15);
+    expect(least(VIEW_COLOUR.path, [...statusHex, VIEW_COLOUR.selection, VIEW_COLOUR.ground, VIEW_COLOUR.background, VIEW_COLOUR.gridMajor])).toBeGreaterThanOrEqual(15);
+    for (const p of partHex) expect(least(p, statusHex), p).toBeGreaterThanOrEqual(10);
   });
 });
