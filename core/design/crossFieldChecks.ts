@@ -158,6 +158,13 @@ function checkSteering(d: DesignFile, r: ResolvedDesign, list: IssueList): void 
         'a joint on the pivot axis does not move when the crank turns');
     }
   }
+  if (s.kind === 'bellCrank' && s.input.kind === 'knuckle' && d.upright.steeringAxis !== 'kingpin') {
+    list.expected(
+      'steering.input.kind',
+      `"ratio" or "dragLink", or upright.steeringAxis "kingpin": a handlebar fixed to an upright turns it about its kingpin, and an upright on two ball joints has no single axis to turn about`,
+      `"knuckle" with upright.steeringAxis "${d.upright.steeringAxis}"`,
+    );
+  }
   if (s.kind === 'bellCrank' && s.input.kind === 'dragLink') {
     const input = s.input;
     const columnArm = fixed(input.columnArmJoint, 'steering.input.columnArmJoint');

@@ -86,6 +86,10 @@ const crankInput = discriminatedUnion('How the handlebar turns the bell crank', 
     columnArmJoint: point("Ball joint on the column's arm"),
     crankArmJoint: point("Ball joint on the crank's input arm"),
   }),
+  object('The handlebar fixed to one upright (kingpin uprights only); its tie rod turns the crank, which turns the other upright', {
+    kind: literal('knuckle', 'Handlebar on the upright'),
+    upright: enumOf(['right', 'left'], 'The upright the handlebar is fixed to'),
+  }),
 ]);
 
 const trackRodDrive = discriminatedUnion('How the handlebar turns the uprights joined by the track rod', [

@@ -77,6 +77,7 @@ function copyTrackRodDrive(drive: TrackRodDrive): TrackRodDrive {
 
 function copyCrankInput(input: CrankInput): CrankInput {
   if (input.kind === 'ratio') return { kind: 'ratio', crankDegPerHandlebarDeg: input.crankDegPerHandlebarDeg };
+  if (input.kind === 'knuckle') return { kind: 'knuckle', upright: input.upright };
   return {
     kind: 'dragLink',
     columnPivot: copyVec(input.columnPivot),

@@ -66,8 +66,17 @@ export interface Upright {
   staticCamberDeg: Sided<number>;
 }
 
-/** How the handlebar turns a bell crank. */
+/**
+ * How the handlebar turns a bell crank; or (`knuckle`) the handlebar is fixed to one upright
+ * (kingpin uprights only: the handlebar angle is its turn about its kingpin) and that upright's
+ * tie rod turns the crank, which turns the other upright: knuckle-mounted steering with tie rods.
+ */
 export type CrankInput =
+  | {
+      kind: 'knuckle';
+      /** The upright the handlebar is fixed to. */
+      upright: Side;
+    }
   | {
       kind: 'ratio';
       /** Crank rotation (right-hand rule about its axis) per degree of handlebar. */

@@ -70,6 +70,8 @@ export function starterCrankInput(d: DesignFile, kind: CrankInput['kind']): Cran
   if (s.kind !== 'bellCrank') return null;
   if (kind === s.input.kind) return s.input;
   if (kind === 'ratio') return { kind: 'ratio', crankDegPerHandlebarDeg: 1 };
+  // The handlebar on an upright needs a kingpin upright; the validator says so if it is not one.
+  if (kind === 'knuckle') return { kind: 'knuckle', upright: 'left' };
   // An arm on the crank and one on a vertical column behind it, joined by a drag link.
   const side = Math.abs(s.axis.y) > 0.9 * Math.hypot(s.axis.x, s.axis.y, s.axis.z) ? p(0, 0, 60) : p(0, -60, 0);
   const column = p(s.pivot.x - 250, 0, s.pivot.z + 150);

@@ -190,6 +190,9 @@ function SpringMount({ design: d }: { design: DesignFile }) {
   );
 }
 
+/** A handlebar fixed to an upright turns it about its kingpin: the upright switches to a kingpin in the same step. */
+const kingpinFor = (kind: string) => (kind === 'knuckle' ? [{ path: 'upright.steeringAxis', value: 'kingpin' }] : []);
+
 function SteeringMechanism({ design: d }: { design: DesignFile }) {
   const replace = useReplace();
   const st = d.steering;
@@ -223,7 +226,7 @@ function SteeringMechanism({ design: d }: { design: DesignFile }) {
               { value: 'knuckle', label: 'handlebar on one upright (kingpin)' },
               { value: 'centreLever', label: 'centre lever and short link' },
             ]}
-            onPick={(v) => replace([{ path: 'steering.drive', value: starterTrackRodDrive(d, v) }], `drive the track rod by ${v}`)}
+            onPick={(v) => replace([{ path: 'steering.drive', value: starterTrackRodDrive(d, v) }, ...kingpinFor(v)], `drive the track rod by ${v}`)}
           />
           {st.drive.kind === 'dragLink' && <Vec path="steering.drive.columnAxis" label="Column axis" unit="" />}
           {st.drive.kind === 'centreLever' && <Vec path="steering.drive.axis" label="Lever axis" unit="" />}
@@ -243,10 +246,11 @@ function SteeringMechanism({ design: d }: { design: DesignFile }) {
             options={[
               { value: 'ratio', label: 'fixed ratio (tiller, gears)' },
               { value: 'dragLink', label: 'drag link from a column' },
+              { value: 'knuckle', label: 'handlebar on one upright (kingpin)' },
             ]}
             onPick={(v) => {
               const input = starterCrankInput(d, v);
-              if (input) replace([{ path: 'steering.input', value: input }], `switch the crank input to ${v}`);
+              if (input) replace([{ path: 'steering.input', value: input }, ...kingpinFor(v)], `switch the crank input to ${v}`);
             }}
           />
           {st.input.kind === 'ratio' && <Num path="steering.input.crankDegPerHandlebarDeg" label="Crank turn per handlebar degree" unit="deg/deg" />}

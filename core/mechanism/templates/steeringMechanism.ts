@@ -5,7 +5,7 @@
  * road-wheel angle is the input, is solved and reported.
  */
 
-import type { ResolvedDesign, Vec3Mm } from '../../design/types';
+import type { ResolvedDesign, Side, Vec3Mm } from '../../design/types';
 import type { Vec3 } from '../MechanismGraph';
 import type { DrawingPointRef } from '../drawingLayout';
 import type { PoseMode } from './buildMechanism';
@@ -41,7 +41,13 @@ export function addSteering(b: MechanismBuilder, design: ResolvedDesign, frame: 
   const handlebar: HandlebarBinding = (gain) =>
     mode.steerBy !== 'handlebar' ? { reportsInput: { input: 'handlebarDeg', gain } } : { driver: { input: 'handlebarDeg', gain } };
   const steer =
-    st.kind === 'bellCrank' ? addBellCrank(b, design, st, frame, handlebar) : st.kind === 'rack' ? addRack(b, st, frame, handlebar) : addLever(b, st, frame, handlebar);
+    st.kind === 'bellCrank'
+      ? st.input.kind === 'knuckle'
+        ? addIdlerCrank(b, st, st.input.upright, frame, uprights, handlebar)
+        : addBellCrank(b, design, st, frame, handlebar)
+      : st.kind === 'rack'
+        ? addRack(b, st, frame, handlebar)
+        : addLever(b, st, frame, handlebar);
   addTieRods(b, design, steer, uprights);
   if (steer.pivot) drawPivotAxis(b, st as Exclude<Steering, { kind: 'rack' }>, steer);
   const fe = design.frontEnd;
@@ -61,7 +67,8 @@ function addBellCrank(b: MechanismBuilder, design: ResolvedDesign, st: BellCrank
       ...handlebar(st.input.crankDegPerHandlebarDeg * DEG),
     });
   } else {
-    const inp = st.input;
+    // The knuckle input is built by addIdlerCrank, never here.
+    const inp = st.input as Extract<BellCrank['input'], { kind: 'dragLink' }>;
     const column = addColumn(b, frame, inp.columnPivot, inp.columnAxis, handlebar);
     body = b.addBody('bellCrank', 'bell crank', { kind: 'revolute', parent: frame, origin: v(st.pivot), axis: v(st.axis) });
     const dragLink = b.addConstraint({
@@ -93,6 +100,21 @@ function addBellCrank(b: MechanismBuilder, design: ResolvedDesign, st: BellCrank
   }
   const pivot = b.addPoint('steering.pivot', 'bell crank pivot', body, st.pivot);
   return { body, word: 'bell crank', pivot, handlebarX: handlebarAt.x, handlebarZ: handlebarAt.z };
+}
+
+/**
+ * Knuckle-mounted steering with tie rods: the handlebar drives the chosen upright's own joint
+ * (yoke to upright, about its kingpin, kingpinYoke.ts; validation refuses ball-joint uprights),
+ * and the crank is an idler on the frame that the tie rods turn.
+ */
+function addIdlerCrank(b: MechanismBuilder, st: BellCrank, side: Side, frame: number, uprights: Uprights, handlebar: HandlebarBinding): SteeringBody {
+  const u = uprights.body[side];
+  const joint = b.joints[u];
+  if (joint.kind !== 'revolute') throw new Error(`a handlebar on the ${side} upright needs a kingpin upright (found a ${joint.kind} joint)`);
+  b.joints[u] = { ...joint, ...handlebar(DEG) };
+  const body = b.addBody('bellCrank', 'bell crank', { kind: 'revolute', parent: frame, origin: v(st.pivot), axis: v(st.axis) });
+  const pivot = b.addPoint('steering.pivot', 'bell crank pivot', body, st.pivot);
+  return { body, word: 'bell crank', pivot, handlebarX: joint.origin[0], handlebarZ: null };
 }
 
 function addRack(b: MechanismBuilder, st: Extract<Steering, { kind: 'rack' }>, frame: number, handlebar: HandlebarBinding): SteeringBody {

@@ -39,7 +39,7 @@ describe('the drawing layout of every template variant', () => {
   it('covers each front-end kind and each steering kind', () => {
     const sub = (s: ResolvedDesign['steering']) => (s.kind === 'bellCrank' ? s.input.kind : s.kind === 'trackRod' ? s.drive.kind : '');
     const kinds = new Set(variants.map((v) => `${v.design.frontEnd.kind}/${v.design.steering.kind}/${sub(v.design.steering)}`));
-    expect(kinds.size).toBe(14);
+    expect(kinds.size).toBe(16);
   });
 
   for (const mode of MODES) {

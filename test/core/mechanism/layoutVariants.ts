@@ -1,7 +1,8 @@
 /**
  * Every layout the template can build, from the bundled demos and the minimal fixture: each
  * front-end kind, each steering kind (a bell crank at a fixed ratio or by drag link, a rack,
- * a lever, a one-piece track rod driven by a drag link or by a handlebar on one upright), with
+ * a lever, a handlebar on one upright turning an idler crank through the tie rods, a one-piece
+ * track rod driven by a drag link, a centre lever or a handlebar on one upright), with
  * and without a spring, one rear wheel or a pair. Variants are made with the workbench's own
  * starting blocks (what a user gets by switching the layout), so they are designs a user can
  * reach; the track-rod drives, which have no starting block yet, are built here from the
@@ -18,8 +19,8 @@ export interface LayoutVariant {
   design: ResolvedDesign;
 }
 
-type Steer = 'bellCrank:ratio' | 'bellCrank:dragLink' | 'rack' | 'direct' | 'trackRod:dragLink' | 'trackRod:knuckle' | 'trackRod:centreLever';
-const STEERS: readonly Steer[] = ['bellCrank:ratio', 'bellCrank:dragLink', 'rack', 'direct', 'trackRod:dragLink', 'trackRod:knuckle', 'trackRod:centreLever'];
+type Steer = 'bellCrank:ratio' | 'bellCrank:dragLink' | 'bellCrank:knuckle' | 'rack' | 'direct' | 'trackRod:dragLink' | 'trackRod:knuckle' | 'trackRod:centreLever';
+const STEERS: readonly Steer[] = ['bellCrank:ratio', 'bellCrank:dragLink', 'rack', 'direct', 'trackRod:dragLink', 'trackRod:knuckle', 'trackRod:centreLever', 'bellCrank:knuckle'];
 
 /**
  * A one-piece track rod on the design's steering arms. The drag link pulls an arm 80 mm ahead
@@ -62,10 +63,12 @@ function centreLeverOver(r: ReturnType<typeof resolveDesign>): Extract<DesignFil
 
 function withSteering(d: DesignFile, steer: Steer): DesignFile {
   if (steer.startsWith('trackRod:')) return withTrackRod(d, steer.slice('trackRod:'.length) as 'dragLink' | 'knuckle' | 'centreLever');
-  const [kind, input] = steer.split(':') as [Exclude<DesignFile['steering']['kind'], 'trackRod'>, 'ratio' | 'dragLink' | undefined];
+  const [kind, input] = steer.split(':') as [Exclude<DesignFile['steering']['kind'], 'trackRod'>, 'ratio' | 'dragLink' | 'knuckle' | undefined];
   const out = clone(d);
   out.steering = starterSteering(out, kind);
   if (input && out.steering.kind === 'bellCrank') out.steering.input = starterCrankInput(out, input) ?? out.steering.input;
+  // A handlebar on an upright turns it about its kingpin.
+  if (input === 'knuckle') out.upright.steeringAxis = 'kingpin';
   return out;
 }
 

@@ -262,7 +262,7 @@ function tyreOf(u: Uniform, rolling: number): DesignFile['wheels']['front'] {
 }
 
 function steeringOf(u: Uniform, layout: { armZ: number; innerY: number; armX: number; armY: number }, L: (s: number) => number): DesignFile['steering'] {
-  const kind = u.pick(['bellCrank', 'bellCrankDragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle', 'trackRodCentreLever'] as const);
+  const kind = u.pick(['bellCrank', 'bellCrankDragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle', 'trackRodCentreLever', 'bellCrankKnuckle'] as const);
   if (kind === 'trackRodKnuckle') return { kind: 'trackRod', drive: { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) } };
   if (kind === 'trackRodCentreLever') {
     // A lever on a column behind the rod's middle, the short link to a point on the rod's line (x = armX, z = armZ, y = 0).
@@ -304,7 +304,9 @@ function steeringOf(u: Uniform, layout: { armZ: number; innerY: number; armX: nu
   if (Math.hypot(axis.x, axis.y, axis.z) < 0.05) axis.z = 1;
   if (kind === 'direct') return { kind: 'direct', pivot, axis, tieRodJoint: inner };
   const input: Extract<DesignFile['steering'], { kind: 'bellCrank' }>['input'] =
-    kind === 'bellCrankDragLink'
+    kind === 'bellCrankKnuckle'
+      ? { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) }
+      : kind === 'bellCrankDragLink'
       ? {
           kind: 'dragLink',
           columnPivot: P(pivot.x - L(0.3), 0, pivot.z + L(0.2)),
@@ -383,6 +385,8 @@ export function plausibleDesign(values: readonly number[]): DesignFile {
     joints: jointSpecs(u),
     envelope: envelopeOf(u, tilting),
   };
+  // A handlebar on an upright (with tie rods or a track rod) turns it about its kingpin.
+  if (design.steering.kind === 'bellCrank' && design.steering.input.kind === 'knuckle') design.upright.steeringAxis = 'kingpin';
   if (design.steering.kind === 'trackRod') {
     // Both ends of a one-piece track rod are its joints on the steering arms; a handlebar on an upright needs a kingpin.
     design.joints.tieRodInner = JSON.parse(JSON.stringify(design.joints.tieRodOuter));
@@ -417,7 +421,7 @@ export function wildDesign(values: readonly number[]): DesignFile {
           upper: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
           lower: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
         };
-  const kind = u.pick(['ratio', 'dragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle', 'trackRodCentreLever'] as const);
+  const kind = u.pick(['ratio', 'dragLink', 'rack', 'direct', 'trackRodDragLink', 'trackRodKnuckle', 'trackRodCentreLever', 'knuckle'] as const);
   const steering: DesignFile['steering'] =
     kind === 'trackRodCentreLever'
       ? { kind: 'trackRod', drive: { kind: 'centreLever', pivot: point(), axis: dir(), leverJoint: point(), trackRodJoint: point() } }
@@ -437,7 +441,9 @@ export function wildDesign(values: readonly number[]): DesignFile {
             input:
               kind === 'ratio'
                 ? { kind: 'ratio', crankDegPerHandlebarDeg: u.pick([-1, 1]) * u.between(0.01, 10) }
-                : { kind: 'dragLink', columnPivot: point(), columnAxis: dir(), columnArmJoint: point(), crankArmJoint: point() },
+                : kind === 'knuckle'
+                  ? { kind: 'knuckle', upright: u.pick(['right', 'left'] as const) }
+                  : { kind: 'dragLink', columnPivot: point(), columnAxis: dir(), columnArmJoint: point(), crankArmJoint: point() },
           };
   const design: DesignFile = {
     tiltsheet: 1,
