@@ -7,14 +7,14 @@
  * headless Chromium and turned into pages by pdftoppm (Debian poppler-utils): one non-blank
  * page per sheet of the HTML.
  */
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawn } from 'node:child_process';
 import { copyFileSync, existsSync, linkSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { JSDOM } from 'jsdom';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { HERON, run, WREN } from './cliHarness';
+import { BIN, HERON, run, WREN } from './cliHarness';
 import { SAFETY_CAUTION } from '../../core/cli/io';
 import { ANALYSIS_DEFINITIONS } from '../../core/analysis/definitions';
 import { findChromium } from '../../core/cli/commands/report';
@@ -293,6 +293,33 @@ describe('tiltbench report (PDF)', () => {
     expect(readdirSync(tmp)).toEqual([]);
     expect(readdirSync(dir).sort()).toEqual(['old.pdf', 'tmp']);
   }, 60_000);
+
+  it.each([
+    ['SIGTERM during the analyses', 'SIGTERM', 143, (work: string[]) => work.length > 0],
+    ['Ctrl-C while Chromium prints', 'SIGINT', 130, (work: string[], tmp: string) => work.some((w) => existsSync(join(tmp, w, 'report.html')))],
+  ] as const)('%s (%s): exit %i, nothing written, Chromium and the working folder gone', async (_what, signal, code, ready) => {
+    const dir = folder();
+    const tmp = join(dir, 'tmp');
+    mkdirSync(tmp);
+    const pdf = join(dir, 'never.pdf');
+    const child = spawn(process.execPath, [BIN, 'report', WREN, '--out', pdf, '--chromium', '/usr/bin/chromium'], { stdio: ['ignore', 'ignore', 'pipe'], env: { ...process.env, TMPDIR: tmp } });
+    let err = '';
+    child.stderr!.on('data', (d) => (err += String(d)));
+    const done = new Promise<number | null>((resolve) => child.on('exit', (c) => resolve(c)));
+    const t0 = Date.now();
+    while (!ready(readdirSync(tmp).filter((f) => f.startsWith('tiltbench-report-')), tmp) && Date.now() - t0 < 60_000) await new Promise((r) => setTimeout(r, 20));
+    child.kill(signal);
+    expect(await done, err).toBe(code);
+    expect(err).toContain('nothing was written');
+    expect(existsSync(pdf)).toBe(false);
+    expect(readdirSync(tmp).filter((f) => f.startsWith('tiltbench-report-'))).toEqual([]); // (tsx keeps its cache there too)
+    expect(readdirSync(dir)).toEqual(['tmp']);
+    // No process left that names the working folder (Chromium's profile is in it).
+    const lingering = () => execFileSync('ps', ['-eo', 'args'], { encoding: 'utf8' }).split('\n').filter((l) => l.includes(tmp));
+    const t1 = Date.now();
+    while (lingering().length > 0 && Date.now() - t1 < 5000) await new Promise((r) => setTimeout(r, 100));
+    expect(lingering()).toEqual([]);
+  }, 90_000);
 
   it('refuses an output that is the design (a second name for it), an unknown extension and a missing --out', async () => {
     const dir = folder();

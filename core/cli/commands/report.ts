@@ -10,7 +10,8 @@ import { tmpdir } from 'node:os';
 import { delimiter, isAbsolute, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { CliIo } from '../io';
-import { EXIT_BAD_INPUT, EXIT_CANNOT_WRITE, EXIT_CODES_HELP, EXIT_OK } from '../io';
+import { EXIT_BAD_INPUT, EXIT_CANNOT_WRITE, EXIT_CODES_HELP, EXIT_INTERRUPTED, EXIT_OK } from '../io';
+import { nextTurn, watchInterrupts } from '../interrupts';
 import { ArgError, parseArgs } from '../args';
 import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { checkOutputPath, writeWholeOutput, type OutputTarget } from '../outputFile';
@@ -81,9 +82,14 @@ function chromiumArgs(profileDir: string): string[] {
 }
 
 /** Run Chromium on a page; resolves to the file it was to write, when that begins with `magic`. */
-function runChromium(chromium: string, args: string[], outPath: string, magic: Buffer, what: string): Promise<Buffer> {
+function runChromium(chromium: string, args: string[], outPath: string, magic: Buffer, what: string, stopped: () => boolean = () => false): Promise<Buffer> {
   return new Promise((resolve, reject) => {
-    execFile(chromium, args, { timeout: PDF_TIMEOUT_MS, killSignal: 'SIGKILL', maxBuffer: 4 * 1024 * 1024 }, (error, _stdout, stderr) => {
+    // A Ctrl-C or SIGTERM seen while Chromium works ends it too.
+    const abort = new AbortController();
+    const poll = setInterval(() => stopped() && abort.abort(), 50);
+    execFile(chromium, args, { timeout: PDF_TIMEOUT_MS, killSignal: 'SIGKILL', maxBuffer: 4 * 1024 * 1024, signal: abort.signal }, (error, _stdout, stderr) => {
+      clearInterval(poll);
+      if (abort.signal.aborted) return reject(new Error('stopped'));
       let bytes: Buffer | null = null;
       try {
         bytes = readFileSync(outPath);
@@ -99,9 +105,9 @@ function runChromium(chromium: string, args: string[], outPath: string, magic: B
 }
 
 /** Print an HTML file to PDF with headless Chromium; resolves to the PDF's bytes. */
-export function printToPdf(chromium: string, htmlPath: string, pdfPath: string, profileDir: string): Promise<Uint8Array> {
+export function printToPdf(chromium: string, htmlPath: string, pdfPath: string, profileDir: string, stopped?: () => boolean): Promise<Uint8Array> {
   const args = [...chromiumArgs(profileDir), '--no-pdf-header-footer', `--print-to-pdf=${pdfPath}`, pathToFileURL(htmlPath).href];
-  return runChromium(chromium, args, pdfPath, Buffer.from('%PDF-'), 'print the report');
+  return runChromium(chromium, args, pdfPath, Buffer.from('%PDF-'), 'print the report', stopped);
 }
 
 /** Pixels per SVG unit in the PNG plots (twice the workbench's size, for print). */
@@ -111,7 +117,7 @@ export const PNG_SCALE = 2;
  * The plots as PNG: every SVG on one page, one above the other, photographed once by headless
  * Chromium at PNG_SCALE and cut into one picture per plot.
  */
-export async function plotsToPng(chromium: string, plots: readonly { svg: string; width: number; height: number }[], work: string): Promise<Buffer[]> {
+export async function plotsToPng(chromium: string, plots: readonly { svg: string; width: number; height: number }[], work: string, stopped?: () => boolean): Promise<Buffer[]> {
   const width = Math.max(...plots.map((p) => p.width));
   const height = plots.reduce((h, p) => h + p.height, 0);
   const page =
@@ -122,7 +128,7 @@ export async function plotsToPng(chromium: string, plots: readonly { svg: string
   writeFileSync(htmlPath, page);
   const shot = join(work, 'plots.png');
   const args = [...chromiumArgs(join(work, 'profile')), '--hide-scrollbars', '--default-background-color=ffffffff', `--force-device-scale-factor=${PNG_SCALE}`, `--window-size=${width},${height}`, `--screenshot=${shot}`, pathToFileURL(htmlPath).href];
-  const picture = decodePng(await runChromium(chromium, args, shot, Buffer.from([0x89, 0x50, 0x4e, 0x47]), 'draw the plots'));
+  const picture = decodePng(await runChromium(chromium, args, shot, Buffer.from([0x89, 0x50, 0x4e, 0x47]), 'draw the plots', stopped));
   if (picture.width < width * PNG_SCALE || picture.height < height * PNG_SCALE) throw new Error(`Chromium drew the plots at ${picture.width} x ${picture.height} pixels, not ${width * PNG_SCALE} x ${height * PNG_SCALE}`);
   let y = 0;
   return plots.map((p) => {
@@ -218,8 +224,21 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
   }
   const name = clip(loaded.file.name, MAX_ECHOED_NAME);
   const progress = (s: string) => io.isTty && io.err(`\rreport: ${s}...`.padEnd(40));
+  const clearProgress = () => io.isTty && io.err('\r' + ' '.repeat(40) + '\r');
+  // Ctrl-C or SIGTERM: seen between the steps (the analyses run synchronously), it ends Chromium
+  // if it runs, removes the working folder and writes nothing.
+  const watch = watchInterrupts();
+  const stopped = () => watch.received() !== null;
+  const stop = (): number => {
+    const signal = watch.received()!;
+    clearProgress();
+    io.err(`tiltbench report: stopped by ${signal === 'SIGINT' ? 'Ctrl-C (SIGINT)' : 'SIGTERM'}; nothing was written\n`);
+    return EXIT_INTERRUPTED[signal];
+  };
   const work = mkdtempSync(join(tmpdir(), 'tiltbench-report-'));
   try {
+    await nextTurn();
+    if (stopped()) return stop();
     // The plots first (their sweeps are the report's), all made before anything is written.
     let report: { text: string | Uint8Array; words: string } | null = null;
     let curves, map;
@@ -234,6 +253,8 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
         { sensitivity, tolerance, checkSteps, mapStepDeg, onStage: progress },
       );
       ({ curves, map } = data);
+      await nextTurn();
+      if (stopped()) return stop();
       const html = reportHtml(data);
       if (!pdf) report = { text: html, words: `${(html.length / 1024).toFixed(0)} kB of HTML` };
       else {
@@ -241,10 +262,11 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
         writeFileSync(htmlPath, html);
         progress('printing');
         try {
-          const bytes = await printToPdf(chromium!, htmlPath, join(work, 'report.pdf'), join(work, 'profile'));
+          const bytes = await printToPdf(chromium!, htmlPath, join(work, 'report.pdf'), join(work, 'profile'), stopped);
           report = { text: bytes, words: `${(bytes.length / 1024).toFixed(0)} kB of PDF, printed by ${chromium}` };
         } catch (e) {
-          if (io.isTty) io.err('\r' + ' '.repeat(40) + '\r');
+          if (stopped()) return stop();
+          clearProgress();
           io.err(`tiltbench report: ${(e as Error).message}. Nothing was written.\n`);
           return EXIT_CANNOT_WRITE;
         }
@@ -258,19 +280,24 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
       curves ??= computeCurves({ design: loaded.file });
       map ??= computeMap({ design: loaded.file, angleStepDeg: mapStepDeg });
       const plots = renderPlots(curves, map);
+      await nextTurn();
+      if (stopped()) return stop();
       let pngs: Buffer[] = [];
       if (png) {
         try {
-          pngs = await plotsToPng(chromium!, plots, work);
+          pngs = await plotsToPng(chromium!, plots, work, stopped);
         } catch (e) {
-          if (io.isTty) io.err('\r' + ' '.repeat(40) + '\r');
+          if (stopped()) return stop();
+          clearProgress();
           io.err(`tiltbench report: ${(e as Error).message}. Nothing was written.\n`);
           return EXIT_CANNOT_WRITE;
         }
       }
       plotFiles = plots.flatMap((p, k) => [p.svg, ...(png ? [pngs[k]] : [])]);
     }
-    if (io.isTty) io.err('\r' + ' '.repeat(40) + '\r');
+    await nextTurn();
+    if (stopped()) return stop();
+    clearProgress();
     if (target && report) {
       writeWholeOutput(target, report.text);
       io.out(`${name}: wrote the report (${report.words}) to ${target.given}\n`);
@@ -280,5 +307,6 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
     return EXIT_OK;
   } finally {
     rmSync(work, { recursive: true, force: true });
+    watch.release();
   }
 }
