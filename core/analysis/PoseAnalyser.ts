@@ -30,7 +30,7 @@ import { slipMeasures } from './scrub';
 import { designSign, overallSteeringRatio, rawTransmission, transmissionDeg } from './steeringLinkage';
 import { suspensionGeometry } from './suspensionGeometry';
 import { applyJudgement, noChecks } from './poseVerdict';
-import { turningCircle, type PlanTyre } from './turningCircle';
+import { turningCircle, turningCircleWithinSlip, type PlanTyre } from './turningCircle';
 import { RAD, normalize, sub } from './vec3';
 import { wheelHeading } from '../mechanism/wheelAxis';
 
@@ -180,14 +180,14 @@ export class PoseAnalyser {
     const pr = planWheel(right, g.right);
     const ack = ackermann(pl, pr, rearX, this.straightDeg);
     const slip = slipMeasures(pl, pr, rearX);
-    const tc = turningCircle({
+    const tc = turningCircleWithinSlip(turningCircle({
       left: { x: pl.x, y: pl.y, heading: pl.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
       right: { x: pr.x, y: pr.y, heading: pr.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
       rear: this.rear,
       rearAxleX: rearX,
       bodyOutline: d.vehicle.bodyOutline,
       straightAheadDeg: this.straightDeg,
-    });
+    }), slip.worstSlipDeg, d.tolerances.slipDeg);
 
     const steering = this.steering(g, inputs, left.steerDeg, right.steerDeg);
     const { joints, spin } = this.joints(g);

@@ -92,3 +92,14 @@ export function turningCircle(p: TurningCircleInputs): TurningCircle {
     centreMm: centre,
   };
 }
+
+/**
+ * The turning circle as shown beside the slip: absent, with the reason, when the front wheels
+ * disagree about the turn centre by more than the slip tolerance (each wheel's axis line meets
+ * the rear axle at another place; the vehicle scrubs round some circle between them, and the
+ * outer wheel's circle alone would be a figure that only looks precise).
+ */
+export function turningCircleWithinSlip(tc: TurningCircle, worstSlipDeg: number, slipToleranceDeg: number): TurningCircle {
+  if (tc.turningDiameterMm === null || !(Math.abs(worstSlipDeg) > slipToleranceDeg)) return tc;
+  return none(`the front wheels disagree on the turn centre (slip ${Math.abs(worstSlipDeg).toFixed(1)} deg, over the ${slipToleranceDeg} deg tolerance): no single turning circle`);
+}
