@@ -158,6 +158,28 @@ describe('tiltbench report (HTML), read back', () => {
   });
 });
 
+describe('tiltbench report of a hostile design file', () => {
+  it('prints a name and notes made of markup as text: no element, script or handler gets into the document', async () => {
+    const dir = folder();
+    const design = JSON.parse(readFileSync(WREN, 'utf8'));
+    design.name = '<img src=x onerror="alert(1)"> & <script>alert(2)</script>';
+    design.notes = 'line one\n</p><script>alert(3)</script><a href="javascript:alert(4)">x</a>';
+    const file = join(dir, 'hostile.tiltsheet');
+    writeFileSync(file, JSON.stringify(design));
+    const out = join(dir, 'hostile.html');
+    const r = await run(['report', file, '--out', out, '--lean-step', '30', '--steer-step', '30', '--travel-step', '200', '--map-step', '10']);
+    expect(r.code, r.err).toBe(0);
+    const html = readFileSync(out, 'utf8');
+    expect(html).not.toMatch(/<script|<img|<a\s/i); // the words are there, escaped: &lt;img ... onerror=&quot;
+    const doc = new JSDOM(html).window.document;
+    expect(doc.querySelector('h1')?.textContent).toBe(`Workshop report: ${design.name}`);
+    expect(doc.getElementById('notes')?.textContent).toBe(design.notes);
+    expect(doc.querySelectorAll('script, img, a')).toHaveLength(0);
+    const handlers = [...doc.querySelectorAll('*')].flatMap((el) => [...el.attributes].filter((a) => /^on/i.test(a.name) || /javascript:/i.test(a.value)).map((a) => `${el.tagName} ${a.name}`));
+    expect(handlers).toEqual([]);
+  }, 60_000);
+});
+
 describe('tiltbench report of a design that fails (the Heron, on a coarse grid)', () => {
   it('its limits rows, with where each item is first over, are check --json\u2019s at the same steps', async () => {
     const steps = ['--lean-step', '5', '--steer-step', '5', '--travel-step', '40'];
