@@ -56,6 +56,7 @@ export function CameraRig() {
 
   useEffect(() => {
     const v = new Vector3();
+    renderStats.camera = active instanceof OrthographicCamera ? 'orthographic' : 'perspective';
     renderStats.project = (x, y, z) => {
       v.set(x, y, z).project(active);
       return [((v.x + 1) / 2) * size.width, ((1 - v.y) / 2) * size.height];

@@ -55,6 +55,8 @@ export interface RenderStats {
   glRenderer: string;
   /** Where a world point (mm) appears in the canvas, CSS pixels from its top left (for tests). */
   project: (x: number, y: number, z: number) => [number, number];
+  /** The kind of camera on screen (elevations are orthographic). */
+  camera: 'perspective' | 'orthographic';
 }
 
-export const renderStats: RenderStats = { frames: 0, lastRenderAt: 0, sceneSerial: 0, renderedSerial: 0, dpr: 1, glRenderer: '', project: () => [NaN, NaN] };
+export const renderStats: RenderStats = { frames: 0, lastRenderAt: 0, sceneSerial: 0, renderedSerial: 0, dpr: 1, glRenderer: '', project: () => [NaN, NaN], camera: 'perspective' };
