@@ -12,6 +12,8 @@ import { pathToFileURL } from 'node:url';
 import type { CliIo } from '../io';
 import { EXIT_BAD_INPUT, EXIT_CANNOT_WRITE, EXIT_CODES_HELP, EXIT_INTERRUPTED, EXIT_OK } from '../io';
 import { nextTurn, watchInterrupts } from '../interrupts';
+import { SweepInputError } from '../../analysis/sweep';
+import { StudyInputError } from '../../studies/studyPoses';
 import { ArgError, parseArgs } from '../args';
 import { loadDesignOrReport, reportArgError, unreadableDesign } from '../commandSupport';
 import { checkOutputPath, writeWholeOutput, type OutputTarget } from '../outputFile';
@@ -305,6 +307,14 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
     plotTargets.forEach((t, k) => writeWholeOutput(t, plotFiles[k]));
     if (plotsDir !== null) io.out(`${name}: wrote ${PLOT_FILES.length} plots as SVG${png ? ' and PNG' : ''} to ${plotsDir} (${PLOT_FILES.map((n) => n).join(', ')})\n`);
     return EXIT_OK;
+  } catch (e) {
+    // A design the analyses refuse (an envelope or riding block a sweep cannot take): bad input, as for check.
+    if (e instanceof SweepInputError || e instanceof StudyInputError) {
+      clearProgress();
+      io.err(`tiltbench report: ${e.message}; nothing was written\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw e;
   } finally {
     rmSync(work, { recursive: true, force: true });
     watch.release();

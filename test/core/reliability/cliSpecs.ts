@@ -41,6 +41,8 @@ export const COMMAND_SPECS: CommandSpec[] = [
   { mode: 'fit text', argv: (d, dir) => ['fit', d, '--measurements', MEASUREMENTS, '--vary', 'steering.tieRodJoint:y', '--out', join(dir, 'fitted.tiltsheet')] },
   { mode: 'hardpoints table', argv: (d, dir) => ['hardpoints', d, '--out', join(dir, 'table.csv')] },
   { mode: 'tune suggest written', argv: (d, dir) => ['tune', d, '--suggest', 'tie-rods', '--out', join(dir, 'proposed.tiltsheet')] },
+  // The whole report on a coarse check grid and map (the default grid is the check's: seconds a demo).
+  { mode: 'report html', argv: (d, dir) => ['report', d, '--out', join(dir, 'report.html'), '--lean-step', '30', '--steer-step', '30', '--travel-step', '200', '--map-step', '15'] },
 ];
 
 const NUMBERS = ['0', '5', '-5', '90', '-90', '91', '1080', '-1081', '1e300', '-1e-300', '1e400', 'NaN', 'Infinity', '', ' ', '12mm', '0x10', '1,5', '--5'];
