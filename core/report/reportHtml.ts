@@ -89,7 +89,7 @@ function coverSheet(r: ReportData): string {
     ['file', escapeHtml(s.fileName)],
     ['SHA-256 of the file', `<span class="hash" id="sha256">${escapeHtml(s.sha256)}</span>`],
     ['made', `<span id="made-at">${escapeHtml(s.madeAt)}</span>`],
-    ['units', 'millimetres and degrees throughout'],
+    ['units', 'millimetres and degrees throughout (turning circles in metres)'],
     ['vehicle', escapeHtml(`${r.design.vehicle.tilting ? 'tilting' : 'not tilting'}, wheelbase ${mm1(r.design.vehicle.wheelbaseMm)} mm, front end ${words(r.design.frontEnd.kind)}, steering ${words(r.design.steering.kind)}`)],
     [
       'check',
