@@ -13,6 +13,9 @@ import { Dialogs } from './Dialogs';
 import { SafetyCaution } from './SafetyCaution';
 import { TopBar } from './TopBar';
 import { useActions } from './workbenchContext';
+import { Splitter } from './Splitter';
+import { usePanelSizes } from './usePanelSizes';
+import { sizeStyle } from '../model/panelSizes';
 
 /** The charts (ECharts) load after the workbench is up, in their own chunk. */
 const PlotsPanel = lazy(() => import('../charts/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
@@ -47,8 +50,11 @@ export function App({ playback }: { playback: PlaybackController }) {
     return () => window.removeEventListener('keydown', onKey);
   }, [actions]);
 
+  const layout = usePanelSizes();
+  const measure = (selector: string, dim: 'offsetWidth' | 'offsetHeight') => () => (document.querySelector(selector) as HTMLElement | null)?.[dim] ?? 0;
+
   return (
-    <div className="app">
+    <div className="app" style={sizeStyle(layout.sizes)}>
       <TopBar />
       <aside className="side left-side" aria-label="Pose and readings">
         <PosePanel />
@@ -57,12 +63,15 @@ export function App({ playback }: { playback: PlaybackController }) {
         <LimitsPanel />
         <ReadoutPanel />
       </aside>
+      <Splitter orientation="vertical" label="Width of the left column" size={measure('.left-side', 'offsetWidth')} sign={1} onSize={(px) => layout.setSide('leftPx', px)} onReset={() => layout.reset('leftPx')} testId="split-left" />
       <main className="centre">
         <Viewport />
+        <Splitter orientation="horizontal" label="Height of the plots" size={measure('.plots', 'offsetHeight')} sign={-1} onSize={layout.setPlots} onReset={() => layout.reset('plotsPx')} testId="split-plots" />
         <Suspense fallback={<section className="plots" aria-label="Plots" aria-busy="true" />}>
           <PlotsPanel />
         </Suspense>
       </main>
+      <Splitter orientation="vertical" label="Width of the right column" size={measure('.right-side', 'offsetWidth')} sign={-1} onSize={(px) => layout.setSide('rightPx', px)} onReset={() => layout.reset('rightPx')} testId="split-right" />
       <aside className="side right-side" aria-label="Design">
         <HardpointTable />
         <StudiesPanel />
