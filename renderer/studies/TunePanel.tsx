@@ -60,10 +60,12 @@ export function TunePanel() {
         </table>
       )}
       {gone.length > 0 && <p className="hint is-stale">Struck-out rows no longer name a coordinate of this design (linked or unlinked since) and are left out.</p>}
+      {design.steering.kind !== 'trackRod' && (
       <label className="study-line">
         <input type="checkbox" checked={form.tieRodLengthMm !== null} onChange={(e) => setForm((f) => ({ ...f, tieRodLengthMm: e.target.checked ? 5 : null }))} /> also the tie-rod length, ±
         <input type="number" className="small-number" min={0.5} max={100} step={0.5} value={form.tieRodLengthMm ?? 5} disabled={form.tieRodLengthMm === null} onChange={(e) => setForm((f) => ({ ...f, tieRodLengthMm: Number(e.target.value) }))} aria-label="tie-rod length range, mm" /> mm
       </label>
+      )}
 
       <h3>Aim for</h3>
       <table className="study-table" data-testid="tune-objectives">
