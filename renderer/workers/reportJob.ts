@@ -18,6 +18,11 @@ export interface ReportRequest {
   madeAt: string;
 }
 
+// ECharts' init reads `global` where there is no `window` (its server-side path, written for
+// Node); a worker has neither, so the worker's global object is named `global` for it.
+const scope = globalThis as { global?: unknown };
+scope.global ??= globalThis;
+
 /** The report's stages, in order (for the progress count). */
 const STAGES = ['design pose', 'curves', 'envelope map', 'check', 'full lock'];
 
