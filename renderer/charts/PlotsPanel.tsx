@@ -14,6 +14,7 @@ import { ChartView } from './ChartView';
 import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
 import { heatMapOption, MAP_METRICS } from '../../core/report/charts/heatMapOptions';
 import { sameGrid, withReference, withReferenceMap } from '../../core/report/charts/referenceOverlay';
+import { heldRanges, withHeldRanges } from '../../core/report/charts/axisRange';
 import { useReferenceCurves, useReferenceMap } from '../studies/useReferenceCurves';
 
 /** Quiet time after an edit before the charts are recomputed, ms. */
@@ -183,7 +184,11 @@ function PlotBody({ running }: { running: boolean }) {
   const referenceMap = useReferenceMap(tab === 'map' && mapRequest ? mapRequest.angleStepDeg : null, mapRequest?.travelMm);
   const mapsComparable = map !== null && referenceMap !== null && sameGrid(map, referenceMap.map);
 
-  const option = useMemo(() => {
+  // "Hold the y-axis": the curves as they were when the hold began; each chart keeps the y range
+  // it had then, through edits.
+  const [heldCurves, setHeldCurves] = useState<typeof curves>(null);
+
+  const shown = useMemo(() => {
     if (tab === 'map') {
       if (!map) return null;
       const own = heatMapOption(map, metric, marker.leanDeg !== null && marker.handlebarDeg !== null ? { leanDeg: marker.leanDeg, handlebarDeg: marker.handlebarDeg } : null);
@@ -193,6 +198,8 @@ function PlotBody({ running }: { running: boolean }) {
     const own = curveOption(tab, curves, marker);
     return reference ? withReference(own, curveOption(tab, reference.curves), reference.label) : own;
   }, [tab, curves, map, metric, marker, reference, referenceMap, mapsComparable]);
+  const ranges = useMemo(() => (heldCurves && tab !== 'map' ? heldRanges(curveOption(tab, heldCurves)) : null), [heldCurves, tab]);
+  const option = shown && ranges ? withHeldRanges(shown, ranges) : shown;
   const stale = slot.result !== null && slot.resultRevision !== revision;
 
   return (
@@ -200,6 +207,17 @@ function PlotBody({ running }: { running: boolean }) {
       {slot.error && <p className="field-error">The sweep failed: {slot.error}</p>}
       {!valid && <p className="hint">The design has errors; the plots wait until it is valid.</p>}
       {stale && !running && <p className="hint stale">The design changed; these plots are from before the change.</p>}
+      {tab !== 'map' && curves && (
+        <label className="hint hold-axis" title="Keep each chart's y range as it is now while you edit, so changes are seen against a fixed scale">
+          <input
+            type="checkbox"
+            checked={heldCurves !== null}
+            onChange={(e) => setHeldCurves(e.target.checked ? curves : null)}
+            data-testid="hold-y"
+          />{' '}
+          hold the y-axis
+        </label>
+      )}
       {reference && tab !== 'map' && (
         <p className="hint reference-note" data-testid="reference-note">
           Dotted: {reference.label}

@@ -6,6 +6,7 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import { CURVE_KINDS, sweepsLean, type Curve, type CurveKind, type CurveSeries } from '../../analysis/curves';
 import type { CurveSet } from './chartData';
+import { keepLimitsInView } from './axisRange';
 import { CHART_COLOURS, axis, base, line, nowLine, toleranceLines, type Pair } from './chartStyle';
 
 export interface ChartMarker {
@@ -247,6 +248,11 @@ export function frontLiftOption(set: CurveSet, m: ChartMarker = NO_MARKER): ECha
 }
 
 export function curveOption(id: CurveChartId, set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
+  // Limit lines stay in view whatever the curves do (an edit never rescales a tolerance away).
+  return keepLimitsInView(chartOption(id, set, m));
+}
+
+function chartOption(id: CurveChartId, set: CurveSet, m: ChartMarker): EChartsCoreOption {
   switch (id) {
     case 'leanSteer':
       return leanSteerOption(set, m);
