@@ -60,7 +60,7 @@ it('Print workshop report prints the report from a hidden frame, styled, and rem
   expect(printed.sheets).toBe(7);
   // The caution's red border (core/report's stylesheet, #d8453b) is applied inside the frame.
   expect(printed.cautionBorder).toBe('rgb(216, 69, 59)');
-  await page.evaluate(() => document.querySelector('iframe[data-testid="report-print-frame"]')?.contentWindow?.dispatchEvent(new Event('afterprint')));
+  await page.evaluate(() => document.querySelector<HTMLIFrameElement>('iframe[data-testid="report-print-frame"]')?.contentWindow?.dispatchEvent(new Event('afterprint')));
   await expect.poll(() => page.evaluate(() => document.querySelectorAll('iframe[data-testid="report-print-frame"]').length)).toBe(0);
   expect(problems).toEqual([]);
 }, 120_000);
