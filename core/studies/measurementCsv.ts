@@ -13,6 +13,7 @@
  * comments. Every error names line and column; a file with any error gives no measurements.
  */
 import type { StudyPose } from './studyPoses';
+import { readCsvRecords } from '../design/csvRecords';
 
 export type MeasuredQuantity = 'toe_deg' | 'camber_deg' | 'road_wheel_angle_deg';
 export const MEASURED_QUANTITIES: readonly MeasuredQuantity[] = ['toe_deg', 'camber_deg', 'road_wheel_angle_deg'];
@@ -35,36 +36,12 @@ export type MeasurementRead = { ok: true; measurements: Measurement[] } | { ok: 
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
-/** Fields of one CSV line with the 1-based column each starts at; null when a quote is unclosed. */
-function splitLine(text: string): { value: string; column: number }[] | null {
-  const out: { value: string; column: number }[] = [];
-  let i = 0;
-  for (;;) {
-    const column = i + 1;
-    let value = '';
-    if (text[i] === '"') {
-      i++;
-      for (;;) {
-        if (i >= text.length) return null;
-        if (text[i] === '"') {
-          if (text[i + 1] === '"') {
-            value += '"';
-            i += 2;
-            continue;
-          }
-          i++;
-          break;
-        }
-        value += text[i++];
-      }
-      while (i < text.length && text[i] !== ',') value += text[i++];
-    } else {
-      while (i < text.length && text[i] !== ',') value += text[i++];
-    }
-    out.push({ value: value.trim(), column });
-    if (i >= text.length) return out;
-    i++; // the comma
-  }
+/** Comment lines (starting with #) blanked, so line numbers stay those of the file. */
+function withoutComments(text: string): string {
+  return text
+    .split(/\r\n|\n|\r/)
+    .map((l) => (l.trimStart().startsWith('#') ? '' : l))
+    .join('\n');
 }
 
 const RANGES: Record<string, [number, number, string]> = {
@@ -78,19 +55,14 @@ const RANGES: Record<string, [number, number, string]> = {
 export function readMeasurementCsv(csv: string, fileName: string): MeasurementRead {
   const errors: string[] = [];
   const at = (line: number, column: number, message: string) => errors.push(`${fileName}:${line}:${column}: ${message}`);
-  const text = csv.startsWith('\uFEFF') ? csv.slice(1) : csv;
-  const lines = text.split(/\r\n|\n|\r/);
+  const read = readCsvRecords(withoutComments(csv.startsWith('\uFEFF') ? csv.slice(1) : csv));
+  if (!read.ok) return { ok: false, errors: [`${fileName}:${read.line}:${read.column}: ${read.reason}`] };
   let header: string[] | null = null;
   const measurements: Measurement[] = [];
-  for (let k = 0; k < lines.length && errors.length < 50; k++) {
-    const line = k + 1;
-    const raw = lines[k];
-    if (raw.trim() === '' || raw.trimStart().startsWith('#')) continue;
-    const fields = splitLine(raw);
-    if (!fields) {
-      at(line, raw.indexOf('"') + 1, 'a quoted field is not closed');
-      continue;
-    }
+  for (const record of read.records) {
+    if (errors.length >= 50) break;
+    const line = record.fields[0].line;
+    const fields = record.fields.map((f) => ({ value: f.text.trim(), column: f.column }));
     if (!header) {
       header = fields.map((f) => f.value.toLowerCase());
       fields.forEach((f, i) => {
@@ -102,7 +74,7 @@ export function readMeasurementCsv(csv: string, fileName: string): MeasurementRe
       continue;
     }
     if (fields.length !== header.length) {
-      at(line, raw.length + 1, `expected ${header.length} fields as in the header, found ${fields.length}`);
+      at(record.end.line, record.end.column, `expected ${header.length} fields as in the header, found ${fields.length}`);
       continue;
     }
     const get = (name: string) => {

@@ -9,7 +9,7 @@ import { useMemo, useRef, useState } from 'react';
 import type { FitReport } from '../../core/studies/fit';
 import { tuneVariableIds } from '../../core/studies/tunePlan';
 import { useActions, useDocument, useStudies, useWorkbenchApi } from '../app/workbenchContext';
-import { adoptDesign } from '../model/designActions';
+import { adoptResult, previewResult } from './adoptResult';
 import { fmt } from '../model/format';
 import { fitIdsOf } from '../model/tunePicks';
 import { StaleNote, StudyProgress } from './StudyProgress';
@@ -64,13 +64,9 @@ export function FitPanel() {
         <FitResult
           report={job.state.data}
           stale={job.stale}
-          onPreview={() => studies.setState({ reference: { label: 'fitted to the measurements', design: (job.state as { data: FitReport }).data.fitted } })}
+          onPreview={() => previewResult(studies, (job.state as { data: FitReport }).data.fitted, 'fitted to the measurements')}
           onApply={() => {
-            const before = design;
-            if (actions.perform(adoptDesign, { design: (job.state as { data: FitReport }).data.fitted, label: 'apply the fit to the measurements' })) {
-              studies.setState({ reference: { label: 'before the fit', design: before } });
-              job.reset();
-            }
+            if (adoptResult(actions, studies, design, (job.state as { data: FitReport }).data.fitted, 'apply the fit to the measurements', 'before the fit')) job.reset();
           }}
         />
       )}

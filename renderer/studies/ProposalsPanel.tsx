@@ -10,7 +10,7 @@ import type { Proposal } from '../../core/studies/geometricSuggestion';
 import { useActions, useDocument, useStudies, useWorkbenchApi } from '../app/workbenchContext';
 import type { WorkbenchActions } from '../state/workbench';
 import type { StudyStore } from '../state/studyStore';
-import { adoptDesign } from '../model/designActions';
+import { adoptResult, previewResult } from './adoptResult';
 import { fmt } from '../model/format';
 import { useEffect } from 'react';
 import { StaleNote, StudyProgress } from './StudyProgress';
@@ -49,9 +49,7 @@ export function ProposalsPanel() {
 
 /** Apply a proposal as one undo step; the design before it becomes the reference. */
 export function acceptProposal(actions: WorkbenchActions, studies: StudyStore, before: DesignFile, p: Proposal): void {
-  if (p.design && actions.perform(adoptDesign, { design: p.design, label: `accept the proposal: ${p.title}` })) {
-    studies.setState({ reference: { label: 'before the proposal', design: before }, proposals: null });
-  }
+  if (p.design) adoptResult(actions, studies, before, p.design, `accept the proposal: ${p.title}`, 'before the proposal', { proposals: null });
 }
 
 export function dismissProposal(studies: StudyStore, id: string): void {
@@ -60,7 +58,7 @@ export function dismissProposal(studies: StudyStore, id: string): void {
 }
 
 export function previewProposal(studies: StudyStore, p: Proposal): void {
-  if (p.design) studies.setState({ reference: { label: `proposal: ${p.title}`, design: p.design } });
+  if (p.design) previewResult(studies, p.design, `proposal: ${p.title}`);
 }
 
 export function ProposalCard({ proposal: p, stale }: { proposal: Proposal; stale: boolean }) {

@@ -9,7 +9,8 @@ import { useMemo, useState } from 'react';
 import type { TuneReport, TuneSummaryItem } from '../../core/studies/tune';
 import { MEASURE_WORDS, TUNE_MEASURES, tuneVariableIds, type TuneMeasure } from '../../core/studies/tunePlan';
 import { useActions, useDocument, useStudies, useWorkbenchApi } from '../app/workbenchContext';
-import { adoptDesign, describeRow } from '../model/designActions';
+import { describeRow } from '../model/designActions';
+import { adoptResult, previewResult } from './adoptResult';
 import { fmt } from '../model/format';
 import { stalePicks } from '../model/tunePicks';
 import { defaultTuneForm, tunePlanOf, type TuneForm } from '../model/tuneForm';
@@ -142,14 +143,11 @@ export function TunePanel() {
         <TuneResult
           report={job.state.data}
           stale={job.stale}
-          onPreview={() => studies.setState({ reference: { label: 'tune result', design: (job.state as { data: TuneReport }).data.tuned } })}
+          onPreview={() => previewResult(studies, (job.state as { data: TuneReport }).data.tuned, 'tune result')}
           onApply={() => {
-            const before = design;
             const report = (job.state as { data: TuneReport }).data;
-            if (actions.perform(adoptDesign, { design: report.tuned, label: `apply the tune (${report.variables.filter((v) => Math.abs(v.movedMm) > 0.005).length} coordinates moved)` })) {
-              studies.setState({ reference: { label: 'before the tune', design: before } });
-              job.reset();
-            }
+            const moved = report.variables.filter((v) => Math.abs(v.movedMm) > 0.005).length;
+            if (adoptResult(actions, studies, design, report.tuned, `apply the tune (${moved} coordinates moved)`, 'before the tune')) job.reset();
           }}
         />
       )}

@@ -128,7 +128,7 @@ describe('measurement CSV', () => {
     [`${header}\n0,10,0,left,toe_deg\n`, /m\.csv:2:\d+: expected 7 fields/],
     [`lean_deg,handlebar_deg,travel_mm,side,quantity,valu\n`, /m\.csv:1:\d+: unknown column "valu"/],
     [`${header}\n`, /no measurements/],
-    [`${header}\n0,10,0,left,toe_deg,"0.25,1\n`, /m\.csv:2:\d+: a quoted field is not closed/],
+    [`${header}\n0,10,0,left,toe_deg,"0.25,1\n`, /m\.csv:2:\d+: a quoted field is never closed/],
     [`${header}\n0,10,0,left,toe_deg,1e400,1\n`, /m\.csv:2:\d+: value: 1e400 is outside/],
   ])('refuses %j naming line and column', (text, says) => {
     const r = readMeasurementCsv(text, 'm.csv');
