@@ -1,6 +1,7 @@
-/** The safety caution, always visible at the foot of the window (and in the About box). */
-export const SAFETY_CAUTION =
-  'Tiltbench is a design aid. Confirm every result by measurement and testing; local vehicle regulations and licensed engineering practice come first.';
+/** The safety caution, always visible at the foot of the window (and in the About box): core's one wording, as the CLI and the report print it. */
+import { SAFETY_CAUTION } from '../../core/report/caution';
+
+export { SAFETY_CAUTION };
 
 export function SafetyCaution() {
   return (
