@@ -15,6 +15,8 @@ import type { MechanismGraph, Vec3 } from '../mechanism/MechanismGraph';
 import type { DrawingLayout } from '../mechanism/drawingLayout';
 import { runSensitivity, type SensitivityReport } from '../studies/sensitivity';
 import { runToleranceSpread, type ToleranceReport } from '../studies/toleranceSpread';
+import { runTune, type TuneReport } from '../studies/tune';
+import type { ResolvedVariable, TunePlan } from '../studies/tunePlan';
 import { computeCurves, computeMap } from './chartSweeps';
 import type { CurveSet, EnvelopeMapData } from './charts/chartData';
 import type { DrawingFigures, KeyedPoint } from './drawings';
@@ -39,6 +41,8 @@ export interface ReportOptions {
   sensitivity?: boolean;
   /** Run the tolerance spread (Monte Carlo, +-0.5 mm on every coordinate unless bandMm is given). */
   tolerance?: { samples: number; seed: number; bandMm?: number };
+  /** Run a tune with this plan (checked by readTunePlan) and report what it would change; the report stays of the design as drawn. */
+  tune?: { plan: TunePlan; variables: ResolvedVariable[]; planName: string };
   /** Which stage is running, for a progress line. */
   onStage?: (stage: string) => void;
 }
@@ -67,6 +71,7 @@ export interface ReportData {
   figures: DrawingFigures | null;
   sensitivity: SensitivityReport | null;
   tolerance: ToleranceReport | null;
+  tune: (TuneReport & { planName: string }) | null;
 }
 
 /** The request `tiltbench pose` makes by default: lean 0, handlebar 0, on the ground. */
@@ -136,6 +141,11 @@ export function gatherReport(src: ReportSource, options: ReportOptions = {}): Re
     stage('tolerance study');
     tolerance = runToleranceSpread(src.file, { samples: options.tolerance.samples, seed: options.tolerance.seed, bands: { defaultMm: options.tolerance.bandMm ?? 0.5 } });
   }
+  let tune: ReportData['tune'] = null;
+  if (options.tune) {
+    stage('tune');
+    tune = { ...runTune(src.file, options.tune.plan, options.tune.variables), planName: options.tune.planName };
+  }
   return {
     source: { fileName: src.fileName, sha256: src.sha256, madeAt: src.madeAt, name: src.file.name, notes: src.file.notes ?? '' },
     design: d,
@@ -150,5 +160,6 @@ export function gatherReport(src: ReportSource, options: ReportOptions = {}): Re
     figures,
     sensitivity,
     tolerance,
+    tune,
   };
 }

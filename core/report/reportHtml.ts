@@ -254,7 +254,7 @@ function turningSheet(r: ReportData): string {
   return `<h3>Turning circles (SAE J695)</h3>${table}${info ? `<p class="small">From the check, the tightest inside the steering limit:</p><ul class="small">${info}</ul>` : ''}`;
 }
 
-/** One sheet per study run (sensitivity, tolerance spread); none when no study was asked for. */
+/** One sheet per study run (sensitivity, tolerance spread, tune); none when no study was asked for. */
 function studySheets(r: ReportData): string[] {
   const parts: string[] = [];
   if (r.sensitivity) {
@@ -287,6 +287,27 @@ function studySheets(r: ReportData): string[] {
       `<p id="tolerance">${escapeHtml(t.methodWords)}; ${escapeHtml(t.distributionWords)}; seed ${t.seed}; ${t.samplesMeasured} of ${t.samplesAsked} samples measured.</p>` +
         htmlTable(['over the poses', 'as drawn', 'mean', 'std', 'p5', 'p95', 'unit', 'within %'], rows, 'grid') +
         `<p class="small">Within every tolerance: ${t.withinAll === null ? '\u2013' : fixed(t.withinAll * 100, 1) + ' %'} of the samples measured.</p>`),
+    );
+  }
+  if (r.tune) {
+    const t = r.tune;
+    const kept = (k: boolean | null) => (k === null ? '\u2013' : k ? 'kept' : 'NOT KEPT');
+    const rows = t.summary.map((i) => [
+      td(`${i.label}${i.group === 'constraint' ? ' (kept)' : ''}`, `data-id="${escapeHtml(`${i.group}.${i.id}`)}"`),
+      num(i.before, 3, 'before'),
+      num(i.after, 3, 'after'),
+      td(i.unit),
+      td(i.limit === null ? '\u2013' : `${i.kind === 'worst' ? 'at most' : 'at least'} ${i.limit} ${i.unit}`.trim()),
+      td(`${kept(i.keptBefore)} / ${kept(i.keptAfter)}`),
+    ]);
+    const moves = t.variables.map((v) => [td(v.words, `data-id="${escapeHtml(v.id)}"`), num(v.movedMm, 2, 'movedMm'), td(`${v.rangeMm[0]} .. ${v.rangeMm[1]}`), td(v.atBound ? `at the ${v.atBound === 'low' ? 'lowest' : 'highest'} end` : '')]);
+    parts.push(
+      sheet('tune-sheet', 'Study: tune (not applied)',
+      `<p id="tune">Plan ${escapeHtml(t.planName)}: ${escapeHtml(t.method)}; ${t.poses.length} poses (${escapeHtml(t.posesFrom)}); ${t.iterations} iterations, ${t.evaluations} designs solved, best of ${t.starts.length} starts. Everything else in this report is the design as drawn; this sheet says what the tune would change.</p>` +
+        htmlTable(['measure over the poses', 'before', 'after', 'unit', 'allowed', 'limit before / after'], rows, 'grid') +
+        `<h3>Moves (mm from the design as drawn)</h3>` +
+        htmlTable(['coordinate', 'moved', 'range', ''], moves, 'grid') +
+        (t.notAssembledAfter.length > 0 ? `<p class="small">The tuned design does not assemble at: ${escapeHtml(t.notAssembledAfter.join('; '))}</p>` : '')),
     );
   }
   return parts;

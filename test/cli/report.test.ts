@@ -237,6 +237,42 @@ describe('tiltbench report with studies', () => {
   }, 120_000);
 });
 
+describe('tiltbench report with a tune', () => {
+  it('the tune sheet holds what `tiltbench tune --json` prints for the same plan; a bad plan is refused by its field', async () => {
+    const dir = folder();
+    const plan = join(dir, 'plan.json');
+    writeFileSync(plan, JSON.stringify({ variables: [{ id: 'steering.tieRodJoint:z', rangeMm: [-5, 5] }, { id: 'steering.tieRodJoint:x', rangeMm: [-5, 5] }], objectives: [{ measure: 'selfSteer', weight: 1 }], starts: 1, maxIterations: 4 }));
+    const out = join(dir, 'tune.html');
+    const coarse = ['--lean-step', '25', '--steer-step', '25', '--travel-step', '200', '--map-step', '10'];
+    const r = await run(['report', HERON, '--out', out, '--with-tune', plan, ...coarse]);
+    expect(r.code, r.err).toBe(0);
+    const doc = new JSDOM(readFileSync(out, 'utf8')).window.document;
+    const t = await run(['tune', HERON, '--plan', plan, '--out', join(dir, 'tuned.tiltsheet'), '--json']);
+    // 1: the teaching example's joints stay over their ratings (a constraint not kept); the figures are printed all the same.
+    expect([0, 1], t.err).toContain(t.code);
+    const tune = JSON.parse(t.out) as { summary: { id: string; group: string; before: number | null; after: number | null }[]; variables: { id: string; movedMm: number }[] };
+    for (const i of tune.summary) {
+      const row = doc.querySelector(`#tune-sheet td[data-id="${i.group}.${i.id}"]`)?.parentElement;
+      expect(row, i.id).not.toBeNull();
+      for (const f of ['before', 'after'] as const) {
+        const cell = row!.querySelector(`[data-field="${f}"]`)!;
+        if (i[f] === null) expect(cell.textContent).toBe('\u2013');
+        else expect(Number(cell.getAttribute('data-value')), `${i.id} ${f}`).toBe(i[f]);
+      }
+    }
+    const moved = tune.variables.find((v) => Math.abs(v.movedMm) > 0.01);
+    expect(moved).toBeDefined();
+    const cell = doc.querySelector(`#tune-sheet td[data-id="${moved!.id}"]`)?.parentElement?.querySelector('[data-field="movedMm"]');
+    expect(Number(cell?.getAttribute('data-value'))).toBe(moved!.movedMm);
+    // A plan with a mistake is refused, naming the field, and nothing is written.
+    writeFileSync(plan, JSON.stringify({ variables: [{ id: 'no.such:x', rangeMm: [-1, 1] }], objectives: [{ measure: 'selfSteer' }] }));
+    const bad = await run(['report', HERON, '--out', join(dir, 'bad.html'), '--with-tune', plan, ...coarse]);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/variables\[0\]\.id/);
+    expect(existsSync(join(dir, 'bad.html'))).toBe(false);
+  }, 120_000);
+});
+
 /** Gray pixels of a binary PGM (P5, 8-bit), as pdftoppm -gray writes them. */
 function pgmPixels(bytes: Buffer): { width: number; height: number; data: Buffer } {
   const header = bytes.subarray(0, 64).toString('latin1');

@@ -7,7 +7,7 @@ import { execFile } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { accessSync, constants, mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { delimiter, isAbsolute, join } from 'node:path';
+import { basename, delimiter, isAbsolute, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import type { CliIo } from '../io';
 import { EXIT_BAD_INPUT, EXIT_CANNOT_WRITE, EXIT_CODES_HELP, EXIT_INTERRUPTED, EXIT_OK } from '../io';
@@ -33,7 +33,7 @@ export const MAX_MAP_STEP_DEG = 30;
 /** Names tried on the PATH when neither --chromium nor TILTBENCH_CHROMIUM names a browser. */
 export const CHROMIUM_NAMES = ['chromium', 'chromium-browser', 'google-chrome', 'google-chrome-stable'];
 
-export const reportHelp = `tiltbench report <design.tiltsheet> --out REPORT.html|REPORT.pdf [--plots FOLDER [--png]] [--chromium PATH] [--with-sensitivity] [--with-tolerance N [--seed S]] [--lean-step DEG] [--steer-step DEG] [--travel-step MM] [--map-step DEG]
+export const reportHelp = `tiltbench report <design.tiltsheet> --out REPORT.html|REPORT.pdf [--plots FOLDER [--png]] [--chromium PATH] [--with-sensitivity] [--with-tolerance N [--seed S]] [--with-tune PLAN.json] [--lean-step DEG] [--steer-step DEG] [--travel-step MM] [--map-step DEG]
   The workshop report of the design, one document: name, SHA-256 of the design file, date,
   units, axes and sign conventions; the hardpoint table; alignment at design position; the
   curves and the envelope map with the operating region (the workbench's charts, as SVG); the
@@ -51,6 +51,9 @@ export const reportHelp = `tiltbench report <design.tiltsheet> --out REPORT.html
   --with-sensitivity    add the sensitivity study (as 'tiltbench sensitivity' by default)
   --with-tolerance N    add the tolerance spread of N Monte Carlo samples (+-0.5 mm on every
                         coordinate, normal; at most ${MAX_REPORT_SAMPLES}); --seed S (default 1)
+  --with-tune PLAN.json add what a tune with that plan (as 'tiltbench tune --plan') would change:
+                        every objective and constraint before and after, and the moves; the
+                        rest of the report stays the design as drawn
   --lean-step DEG, --steer-step DEG, --travel-step MM
                         grid of the limits table, as 'tiltbench check' (default 1, 1, 10)
   --map-step DEG        cell size of the envelope map (default ${DEFAULT_MAP_STEP_DEG}, at most ${MAX_MAP_STEP_DEG})
@@ -149,10 +152,11 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
   let chromiumFlag: string | undefined;
   let sensitivity: boolean;
   let tolerance: { samples: number; seed: number } | undefined;
+  let tunePlanPath: string | undefined;
   let checkSteps: { leanDeg: number; handlebarDeg: number; travelMm: number };
   let mapStepDeg: number;
   try {
-    const args = parseArgs(argv, { flags: ['with-sensitivity', 'png'], values: ['out', 'plots', 'chromium', 'with-tolerance', 'seed', 'lean-step', 'steer-step', 'travel-step', 'map-step'] });
+    const args = parseArgs(argv, { flags: ['with-sensitivity', 'png'], values: ['out', 'plots', 'chromium', 'with-tolerance', 'with-tune', 'seed', 'lean-step', 'steer-step', 'travel-step', 'map-step'] });
     if (args.positionals.length !== 1) throw new ArgError(`expected one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
     const outPath = args.options.get('out');
@@ -173,14 +177,17 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
     if (args.options.has('with-tolerance')) {
       tolerance = { samples: countOption(args, 'with-tolerance', 'samples', undefined, 1, MAX_REPORT_SAMPLES), seed: countOption(args, 'seed', 'seed', 1, 0, 0xffffffff) };
     } else if (args.options.has('seed')) throw new ArgError('option --seed is for --with-tolerance N');
-    if (outPath === undefined && (sensitivity || tolerance)) throw new ArgError('the studies go into the report: give --out REPORT.html or REPORT.pdf');
+    const tp = args.options.get('with-tune');
+    if (tp === true) throw new ArgError('option --with-tune needs a plan file (as tiltbench tune --plan takes)');
+    tunePlanPath = tp;
+    if (outPath === undefined && (sensitivity || tolerance || tunePlanPath)) throw new ArgError('the studies go into the report: give --out REPORT.html or REPORT.pdf');
     checkSteps = {
       leanDeg: boundedOption(args, 'lean-step', 'degrees', 1, 0, 90),
       handlebarDeg: boundedOption(args, 'steer-step', 'degrees', 1, 0, 90),
       travelMm: boundedOption(args, 'travel-step', 'mm', 10, 0, 1000),
     };
     mapStepDeg = boundedOption(args, 'map-step', 'degrees', DEFAULT_MAP_STEP_DEG, 0.1, MAX_MAP_STEP_DEG);
-    target = outPath === undefined ? null : checkOutputPath(outPath, '--out', [{ path: designPath, what: 'design' }]);
+    target = outPath === undefined ? null : checkOutputPath(outPath, '--out', [{ path: designPath, what: 'design' }, ...(tunePlanPath ? [{ path: tunePlanPath, what: 'plan' }] : [])]);
     plotsDir = plots ?? null;
     if (plotsDir !== null) {
       let isFolder = false;
@@ -197,6 +204,23 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
   }
   const loaded = loadDesignOrReport(designPath, io);
   if (!loaded) return EXIT_BAD_INPUT;
+  let tune: { plan: import('../../studies/tunePlan').TunePlan; variables: import('../../studies/tunePlan').ResolvedVariable[]; planName: string } | undefined;
+  if (tunePlanPath !== undefined) {
+    const { readPlan } = await import('./tune');
+    const { readTunePlan, TunePlanError } = await import('../../studies/tunePlan');
+    const read = readPlan(tunePlanPath);
+    if (!read.ok) {
+      io.err(`tiltbench report: ${read.message}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    try {
+      tune = { ...readTunePlan(read.json, loaded.file), planName: basename(tunePlanPath) };
+    } catch (e) {
+      if (!(e instanceof TunePlanError)) throw e;
+      io.err(`tiltbench report: ${tunePlanPath}: ${e.message}\n`);
+      return EXIT_BAD_INPUT;
+    }
+  }
   const { checkGridPoses } = await import('../../analysis/designCheck');
   const { PLOT_FILES } = await import('../../report/plots');
   let plotTargets: OutputTarget[] = [];
@@ -252,7 +276,7 @@ export async function runReportCommand(argv: string[], io: CliIo): Promise<numbe
       const { reportHtml } = await import('../../report/reportHtml');
       const data = gatherReport(
         { file: loaded.file, design: loaded.design, fileName: designPath, sha256, madeAt: new Date().toISOString().replace(/\.\d{3}Z$/, 'Z') },
-        { sensitivity, tolerance, checkSteps, mapStepDeg, onStage: progress },
+        { sensitivity, tolerance, ...(tune ? { tune } : {}), checkSteps, mapStepDeg, onStage: progress },
       );
       ({ curves, map } = data);
       await nextTurn();

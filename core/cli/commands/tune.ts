@@ -47,7 +47,8 @@ tiltbench tune <design.tiltsheet> --suggest [tie-rods|ackermann --out PROPOSED.t
 
 
 
-function readPlan(path: string): { ok: true; json: unknown } | { ok: false; message: string } {
+/** A plan file read as JSON (size-limited; syntax errors by line and column). */
+export function readPlan(path: string): { ok: true; json: unknown } | { ok: false; message: string } {
   const read = readInputFile(path, MAX_PLAN_BYTES, 'a plan');
   if (!read.ok) return read;
   const r = readJsonText(read.text, path);
