@@ -17,8 +17,11 @@ import { sameGrid, withReference, withReferenceMap } from '../../core/report/cha
 import { heldRanges, withHeldRanges } from '../../core/report/charts/axisRange';
 import { useReferenceCurves, useReferenceMap } from '../studies/useReferenceCurves';
 
-/** Quiet time after an edit before the charts are recomputed, ms. */
-const RECOMPUTE_DELAY_MS = 350;
+/**
+ * Quiet time after an edit before the charts are recomputed, ms: short, so the plots follow a
+ * typed edit at once (a gizmo drag recomputes when the drag ends, not on each move).
+ */
+const RECOMPUTE_DELAY_MS = 40;
 /** The charts' marker follows the pose once it has been still this long, ms. */
 const MARKER_SETTLE_MS = 250;
 
@@ -71,13 +74,14 @@ function useRecompute(): void {
   const { open, tab, resolution } = useUi((s) => s.plots);
   const revision = useDocument((s) => s.revision);
   const valid = usePose((s) => s.resolved !== null);
+  const dragging = useUi((s) => s.dragging);
   // The revision last asked for: a job running, done, failed or cancelled for it is not asked again.
   const asked = useJobs((s) => (tab === 'map' ? s.map : s.curves).request?.revision);
   useEffect(() => {
-    if (!valid || !open || asked === revision) return;
+    if (!valid || !open || dragging || asked === revision) return;
     const t = setTimeout(() => (tab === 'map' ? jobs.runMap(resolution) : jobs.runCurves()), RECOMPUTE_DELAY_MS);
     return () => clearTimeout(t);
-  }, [jobs, revision, tab, valid, open, asked, resolution]);
+  }, [jobs, revision, tab, valid, open, dragging, asked, resolution]);
 }
 
 /**

@@ -2,6 +2,10 @@
  * Runs sweeps in a Web Worker with progress and cancel. One job per client at a time: a new
  * job, or cancel(), stops the running one (the worker is terminated and replaced). Where no
  * worker can be started, the job runs on the main thread after a paint (slower, no cancel).
+ *
+ * Speed: a worker that was terminated mid-job is replaced by a spare that has already loaded
+ * its module (started while the client was idle), so the job after a cancel does not wait for
+ * a module load; a worker that is idle when a job is cancelled is kept (nothing to stop).
  */
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from './sweepJobs';
@@ -28,10 +32,16 @@ type Pending = {
 
 export type WorkerFactory = () => Worker;
 
+/** Quiet time after a job before the spare worker is started, ms. */
+const SPARE_DELAY_MS = 200;
+
 export const defaultWorkerFactory: WorkerFactory = () => new Worker(new URL('./sweepWorker.ts', import.meta.url), { type: 'module', name: 'tiltbench-sweeps' });
 
 export class SweepClient {
   private worker: Worker | null = null;
+  /** A worker started ahead, idle, to replace one terminated mid-job. */
+  private spare: Worker | null = null;
+  private spareTimer: ReturnType<typeof setTimeout> | null = null;
   private pending: Pending | null = null;
   private nextId = 1;
   private workerBroken = false;
@@ -63,43 +73,86 @@ export class SweepClient {
   cancel(): void {
     const p = this.pending;
     this.pending = null;
-    if (this.worker) {
+    // Only a worker busy with a job needs stopping; an idle one stays warm.
+    if (this.worker && p) {
       this.worker.terminate();
-      this.worker = null;
+      this.worker = this.takeSpare();
     }
     p?.reject(new CancelledError());
   }
 
   dispose(): void {
     this.cancel();
+    if (this.spareTimer) clearTimeout(this.spareTimer);
+    this.spareTimer = null;
+    this.spare?.terminate();
+    this.spare = null;
+    this.worker?.terminate();
+    this.worker = null;
+  }
+
+  /** The spare worker wired as the current one, or null (a new one is then made on demand). */
+  private takeSpare(): Worker | null {
+    const w = this.spare;
+    this.spare = null;
+    if (w) this.wire(w);
+    return w;
+  }
+
+  /**
+   * Starts a spare worker shortly after a job ends (not while one runs: the machine may have
+   * two cores, and the job comes first). Its module loads in the background.
+   */
+  private prepareSpare(): void {
+    if (this.spare || this.spareTimer || !this.factory || this.workerBroken) return;
+    this.spareTimer = setTimeout(() => {
+      this.spareTimer = null;
+      if (this.spare || this.pending || !this.factory || this.workerBroken) return;
+      try {
+        const w = this.factory();
+        // A spare that fails to load is dropped (the next worker is then made on demand, and
+        // its failure handled as any other's).
+        w.onerror = (e) => {
+          e.preventDefault?.();
+          if (this.spare === w) this.spare = null;
+          w.terminate();
+        };
+        this.spare = w;
+      } catch {
+        // No spare: the next worker is made on demand.
+      }
+    }, SPARE_DELAY_MS);
   }
 
   private ensureWorker(): Worker | null {
     if (this.worker || !this.factory || this.workerBroken) return this.worker;
     try {
-      const w = this.factory();
-      w.onmessage = (e: MessageEvent<SweepResponse>) => this.onMessage(e.data);
-      w.onerror = (e) => {
-        // A worker that cannot load (a file:// page, a policy): run on the main thread from now on,
-        // starting with the job it did not take.
-        e.preventDefault?.();
-        this.workerBroken = true;
-        this.worker?.terminate();
-        this.worker = null;
-        const p = this.pending;
-        if (!p) return;
-        if (p.heard) {
-          this.pending = null;
-          p.reject(new Error(`the sweep worker failed: ${e.message || 'unknown error'}`));
-        } else {
-          this.runHere(p);
-        }
-      };
-      this.worker = w;
+      this.worker = this.takeSpare() ?? this.wire(this.factory());
     } catch {
       this.workerBroken = true;
     }
     return this.worker;
+  }
+
+  private wire(w: Worker): Worker {
+    w.onmessage = (e: MessageEvent<SweepResponse>) => this.onMessage(e.data);
+    w.onerror = (e) => {
+      // A worker that cannot load (a file:// page, a policy): run on the main thread from now on,
+      // starting with the job it did not take.
+      e.preventDefault?.();
+      this.workerBroken = true;
+      this.worker?.terminate();
+      this.worker = null;
+      const p = this.pending;
+      if (!p) return;
+      if (p.heard) {
+        this.pending = null;
+        p.reject(new Error(`the sweep worker failed: ${e.message || 'unknown error'}`));
+      } else {
+        this.runHere(p);
+      }
+    };
+    return w;
   }
 
   private run(req: SweepRequest, progress?: (done: number, total: number) => void): Promise<unknown> {
@@ -137,6 +190,7 @@ export class SweepClient {
       return;
     }
     this.pending = null;
+    this.prepareSpare();
     if (m.type === 'error') p.reject(new Error(m.message));
     else p.resolve(m.data);
   }
