@@ -18,6 +18,7 @@ export const IPC = {
   appRecent: 'app:recent',
   designOpenRecent: 'design:openRecent',
   designOpenRequest: 'design:openRequest',
+  reportPdf: 'report:pdf',
 } as const;
 
 export type IpcChannel = (typeof IPC)[keyof typeof IPC];
@@ -57,6 +58,13 @@ export interface TiltbenchApi {
   openRecentDesign(path: string): Promise<DesignFile | null>;
   /** Waits for the next design a later launch of the app asks this window to open. */
   nextOpenRequest(): Promise<OpenRequest>;
+  /**
+   * The workshop report (a self-contained HTML document, no scripts) printed to PDF: a save
+   * dialog first, then the HTML loaded in a hidden window with JavaScript off, printed by
+   * Chromium's own printToPDF and written atomically. Resolves to the path written, or null
+   * when the dialog was cancelled.
+   */
+  saveReportPdf(html: string, suggestedName?: string): Promise<string | null>;
 }
 
 declare global {

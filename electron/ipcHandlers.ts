@@ -6,6 +6,8 @@
 import { BrowserWindow, dialog, ipcMain } from 'electron';
 import type { IpcMainInvokeEvent } from 'electron';
 import { existsSync } from 'node:fs';
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import os from 'node:os';
 import path from 'node:path';
 import { IPC, type DesignFile, type OpenRequest } from './api';
 import { atomicWrite, resolveWriteTarget, SaveRefusedError } from './atomicWrite';
@@ -18,6 +20,8 @@ import {
   parseNoArgs,
   parseOpenRecentArgs,
   parseRecoveryWriteArgs,
+  parseReportPdfArgs,
+  PDF_EXTENSION,
   parseSaveArgs,
   parseSaveAsArgs,
   validateDesignPath,
@@ -161,6 +165,16 @@ export function registerIpc(state: ShellState): void {
     return readDesign(IPC.designOpenRecent, wanted, 'read');
   });
 
+  on(IPC.reportPdf, async (args) => {
+    const { html, suggestedName } = parseReportPdfArgs(IPC.reportPdf, args);
+    const options = { title: 'Save the workshop report as PDF', filters: [{ name: 'PDF', extensions: ['pdf'] }], defaultPath: path.join(state.documentsFolder, suggestedName) };
+    const result = await showTitledSaveDialog(BrowserWindow.getFocusedWindow(), options);
+    if (result.canceled || !result.filePath) return null;
+    const target = result.filePath.toLowerCase().endsWith(PDF_EXTENSION) ? result.filePath : result.filePath + PDF_EXTENSION;
+    await atomicWrite(await resolveWriteTarget(target), await printHtmlToPdf(html));
+    return target;
+  });
+
   on(IPC.designOpenRequest, async (args): Promise<OpenRequest> => {
     parseNoArgs(IPC.designOpenRequest, args);
     const requested = await state.openRequests.next();
@@ -171,4 +185,23 @@ export function registerIpc(state: ShellState): void {
       return { path: requested, problem: messageOf(error) };
     }
   });
+}
+
+/**
+ * Chromium's own print of an HTML document to PDF (A4 from the report's CSS page size,
+ * backgrounds printed): loaded from a private temporary folder into a hidden window with
+ * JavaScript, Node and the preload off, then the window and the folder are removed.
+ */
+async function printHtmlToPdf(html: string): Promise<Uint8Array> {
+  const dir = await mkdtemp(path.join(os.tmpdir(), 'tiltbench-report-'));
+  const win = new BrowserWindow({ show: false, webPreferences: { javascript: false, sandbox: true, contextIsolation: true, nodeIntegration: false } });
+  try {
+    const file = path.join(dir, 'report.html');
+    await writeFile(file, html, { mode: 0o600 });
+    await win.loadFile(file);
+    return await win.webContents.printToPDF({ printBackground: true, preferCSSPageSize: true });
+  } finally {
+    win.destroy();
+    await rm(dir, { recursive: true, force: true });
+  }
 }

@@ -145,3 +145,22 @@ export function parseOpenRecentArgs(channel: string, args: readonly unknown[]): 
   expectArgCount(channel, args, 1);
   return validateDesignPath(channel, args[0]);
 }
+
+export const PDF_EXTENSION = '.pdf';
+
+/**
+ * `report:pdf` takes `{ html, suggestedName? }`: the report as the renderer made it (a whole
+ * HTML document, at most MAX_TEXT_BYTES) and a bare file name, given the `.pdf` extension.
+ */
+export function parseReportPdfArgs(channel: string, args: readonly unknown[]): { html: string; suggestedName: string } {
+  expectArgCount(channel, args, 1);
+  const record = expectPlainObject(channel, args[0], ['html'], ['suggestedName']);
+  const html = validateText(channel, record.html);
+  if (!/^\s*<!doctype html>/i.test(html)) throw new IpcValidationError(channel, 'html must be a whole HTML document');
+  let suggestedName = 'report.pdf';
+  if (record.suggestedName !== undefined) {
+    const bare = validateSuggestedName(channel, record.suggestedName).slice(0, -DESIGN_EXTENSION.length);
+    suggestedName = bare.toLowerCase().endsWith(PDF_EXTENSION) ? bare : bare + PDF_EXTENSION;
+  }
+  return { html, suggestedName };
+}

@@ -17,6 +17,7 @@ const api: TiltbenchApi = {
   recentDesigns: () => ipcRenderer.invoke(IPC.appRecent),
   openRecentDesign: (path: string) => ipcRenderer.invoke(IPC.designOpenRecent, path),
   nextOpenRequest: () => ipcRenderer.invoke(IPC.designOpenRequest),
+  saveReportPdf: (html, suggestedName) => ipcRenderer.invoke(IPC.reportPdf, suggestedName === undefined ? { html } : { html, suggestedName }),
 };
 
 contextBridge.exposeInMainWorld('tiltbench', Object.freeze(api));

@@ -24,6 +24,7 @@ export interface WebPreferences {
   experimentalFeatures?: boolean;
   webviewTag?: boolean;
   navigateOnDragDrop?: boolean;
+  javascript?: boolean;
   spellcheck?: boolean;
 }
 
@@ -49,6 +50,7 @@ export interface WebContents {
   setWindowOpenHandler(handler: (details: HandlerDetails) => { action: 'deny' } | { action: 'allow' }): void;
   on(event: 'will-navigate' | 'will-redirect', listener: (event: PreventableEvent, url: string) => void): this;
   on(event: 'will-attach-webview', listener: (event: PreventableEvent) => void): this;
+  printToPDF(options: { printBackground?: boolean; preferCSSPageSize?: boolean }): Promise<Uint8Array>;
 }
 
 export class BrowserWindow {
@@ -59,6 +61,7 @@ export class BrowserWindow {
   once(event: 'ready-to-show', listener: () => void): this;
   show(): void;
   loadFile(filePath: string): Promise<void>;
+  destroy(): void;
 }
 
 export interface WebFrameMain {

@@ -35,7 +35,7 @@ export function FileMenu({ exchange, reports }: { exchange?: ExchangeFiles; repo
     ['Export 3D at this pose (.glb)', 'The mechanism at the pose on screen, glTF 2.0 binary, metres', 'file-export-pose-glb', () => exportPoseGlb(wb, files)],
     ['Export lean sweep animation (.glb)', 'A sweep of lean across the envelope (handlebar if the vehicle does not lean), animated', 'file-export-sweep-glb', () => exportSweepGlb(wb, files)],
     ['Workshop report (HTML)…', 'One document for the workshop: hardpoints, alignment, drawings, curves, limits, turning circles (as tiltbench report)', 'file-export-report', () => exportReport(wb, files, reportRunner())],
-    ['Print workshop report…', 'The same report through the print dialog (Save as PDF there)', 'file-print-report', () => printReport(wb, reportRunner())],
+    ['Print workshop report…', 'The same report as PDF (in the desktop app) or through the print dialog (Save as PDF there)', 'file-print-report', () => printReport(wb, reportRunner())],
   ];
 
   useEffect(() => {

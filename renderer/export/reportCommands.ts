@@ -1,7 +1,8 @@
 /**
  * The workshop report from the workbench: the same HTML document `tiltbench report` writes
  * (core/report), made in the sweep worker for the design on screen, then offered as a file or
- * printed through the browser's print dialog (in Electron, the system's, with Save as PDF).
+ * printed: to PDF by Electron's own printToPDF in the shell, through the browser's print dialog
+ * in a plain browser.
  */
 import type { Workbench } from '../state/workbench';
 import { exportName, type ExchangeFiles } from '../files/exchangeFiles';
@@ -68,8 +69,25 @@ export function printHtml(html: string, doc: Document = document): HTMLIFrameEle
   return frame;
 }
 
-/** Makes the report and opens the print dialog on it. */
-export async function printReport(wb: Workbench, runner: ReportRunner, doc: Document = document): Promise<void> {
+/** What the Electron shell offers for the report (window.tiltbench); absent in a plain browser. */
+export type ShellPdf = { saveReportPdf(html: string, suggestedName?: string): Promise<string | null> } | undefined;
+
+/**
+ * Makes the report, then: in the Electron shell, Chromium's own print to PDF in main (a save
+ * dialog, then the PDF written atomically); in a plain browser, the print dialog (Save as PDF
+ * there).
+ */
+export async function printReport(wb: Workbench, runner: ReportRunner, doc: Document = document, shell: ShellPdf = typeof window === 'undefined' ? undefined : window.tiltbench): Promise<void> {
   const html = await makeReport(wb, runner);
-  if (html !== null) printHtml(html, doc);
+  if (html === null) return;
+  if (!shell) {
+    printHtml(html, doc);
+    return;
+  }
+  try {
+    const written = await shell.saveReportPdf(html, exportName(wb.document.getState().doc.fileName, '.report.pdf'));
+    if (written !== null) wb.actions.showNotice({ kind: 'info', title: 'Workshop report saved', lines: [`Written to ${written}.`] });
+  } catch (e) {
+    wb.actions.showNotice({ kind: 'error', title: 'Could not save the report as PDF', lines: [e instanceof Error ? e.message : String(e), 'Nothing was written.'] });
+  }
 }

@@ -33,6 +33,8 @@ const fake = vi.hoisted(() => ({
   messageBox: null as null | ((options: { detail?: string }) => { response: number }),
   messageBoxCalls: [] as { detail?: string; buttons?: string[] }[],
   opened: [] as string[],
+  /** Hidden windows made to print: their options, the file each loaded (and its text then), destroyed or not. */
+  printWindows: [] as { options: unknown; loaded: string | null; loadedText: string | null; destroyed: boolean }[],
 }));
 
 vi.mock('electron', () => {
@@ -43,9 +45,21 @@ vi.mock('electron', () => {
     minimized = false;
     restored = 0;
     focused = 0;
-    webContents = {};
-    constructor() {
+    webContents: Record<string, unknown> = {};
+    private printed: { options: unknown; loaded: string | null; loadedText: string | null; destroyed: boolean } | null = null;
+    constructor(options?: { show?: boolean; webPreferences?: { javascript?: boolean } }) {
       fake.windows.push(this);
+      // The report's print window is the one with JavaScript off (the app's own window keeps it).
+      if (options?.webPreferences?.javascript === false) {
+        const record = { options, loaded: null as string | null, loadedText: null as string | null, destroyed: false };
+        this.printed = record;
+        fake.printWindows.push(record);
+        // Chromium's print: a stand-in PDF that names the text it was given.
+        this.webContents = { printToPDF: async () => new TextEncoder().encode(`%PDF-stand-in ${record.loadedText?.length ?? 0}`) };
+      }
+    }
+    destroy(): void {
+      if (this.printed) this.printed.destroyed = true;
     }
     static getFocusedWindow(): null {
       return null;
@@ -57,8 +71,12 @@ vi.mock('electron', () => {
       return this;
     }
     show(): void {}
-    loadFile(): Promise<void> {
-      return Promise.resolve();
+    async loadFile(file: string): Promise<void> {
+      if (this.printed) {
+        const { readFileSync } = await import('node:fs');
+        this.printed.loaded = file;
+        this.printed.loadedText = readFileSync(file, 'utf8');
+      }
     }
     isMinimized(): boolean {
       return this.minimized;
@@ -167,6 +185,7 @@ beforeEach(async () => {
     messageBox: null,
     messageBoxCalls: [],
     opened: [],
+    printWindows: [],
   });
 });
 afterEach(async () => {
@@ -420,5 +439,35 @@ describe('main process: links to web pages', () => {
     await new Promise((resolve) => setTimeout(resolve, 10));
     expect(fake.messageBoxCalls).toHaveLength(2);
     expect(fake.opened).toEqual(['https://example.org/docs']);
+  });
+});
+
+describe('main process: the workshop report as PDF', () => {
+  const html = '<!DOCTYPE html><html><body><h1>Report</h1></body></html>';
+
+  it('asks where, prints the HTML in a hidden window with JavaScript off, writes the PDF and removes the window and its folder', async () => {
+    const app = await startInstance();
+    const chosen = path.join(dir, 'documents', 'wren report');
+    fake.saveDialog = () => ({ canceled: false, filePath: chosen });
+    const written = await app.invoke(IPC.reportPdf, { html, suggestedName: 'wren.report' });
+    expect(written).toBe(`${chosen}.pdf`);
+    expect(fake.saveDialogCalls[0].defaultPath).toBe(path.join(fake.documents, 'wren.report.pdf'));
+    expect(await readFile(`${chosen}.pdf`, 'utf8')).toBe(`%PDF-stand-in ${html.length}`);
+    const w = fake.printWindows[0];
+    expect(w.loadedText).toBe(html);
+    expect(w.options).toMatchObject({ show: false, webPreferences: { javascript: false, sandbox: true, contextIsolation: true, nodeIntegration: false } });
+    expect(w.destroyed).toBe(true);
+    expect(existsSync(path.dirname(w.loaded!))).toBe(false);
+  });
+
+  it('writes nothing when the dialog is cancelled, and refuses what is not a whole HTML document', async () => {
+    const app = await startInstance();
+    fake.saveDialog = () => ({ canceled: true, filePath: '' });
+    expect(await app.invoke(IPC.reportPdf, { html })).toBeNull();
+    expect(fake.printWindows).toHaveLength(0);
+    await expect(app.invoke(IPC.reportPdf, { html: 'just text' })).rejects.toThrow(/whole HTML document/);
+    await expect(app.invoke(IPC.reportPdf, { html, extra: 1 })).rejects.toThrow();
+    await expect(app.invoke(IPC.reportPdf, { html, suggestedName: '../../etc/x' })).rejects.toThrow(/bare file name/);
+    await expect(app.invokeFrom('https://evil.example/', IPC.reportPdf, { html })).rejects.toThrow(/unexpected page/);
   });
 });
