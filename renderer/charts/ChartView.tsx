@@ -2,6 +2,7 @@
 import { useEffect, useRef } from 'react';
 import type { EChartsCoreOption } from 'echarts/core';
 import { echarts } from './echartsSetup';
+import { fitToSize } from '../../core/report/charts/fitLayout';
 
 export interface ChartClick {
   seriesType?: string;
@@ -15,6 +16,8 @@ export function ChartView({ option, onClick, testId }: { option: EChartsCoreOpti
   // The latest click handler, for the chart's listener made once below (kept current after
   // each render, never written during one).
   const click = useRef(onClick);
+  // The option last given, fitted again to each new size.
+  const shown = useRef<EChartsCoreOption | null>(null);
   useEffect(() => {
     click.current = onClick;
   }, [onClick]);
@@ -25,7 +28,14 @@ export function ChartView({ option, onClick, testId }: { option: EChartsCoreOpti
     const c = echarts.init(node, null, { renderer: 'svg' });
     chart.current = c;
     c.on('click', (p) => click.current?.(p as ChartClick));
-    const ro = typeof ResizeObserver === 'undefined' ? null : new ResizeObserver(() => c.resize());
+    // A new size re-fits the option (legend lines, axis names, cell numbers) before resizing.
+    const ro =
+      typeof ResizeObserver === 'undefined'
+        ? null
+        : new ResizeObserver(() => {
+            if (shown.current) c.setOption(fitToSize(shown.current, node.clientWidth, node.clientHeight), { notMerge: true });
+            c.resize();
+          });
     ro?.observe(node);
     return () => {
       ro?.disconnect();
@@ -35,7 +45,9 @@ export function ChartView({ option, onClick, testId }: { option: EChartsCoreOpti
   }, []);
 
   useEffect(() => {
-    chart.current?.setOption(option, { notMerge: true, lazyUpdate: true });
+    shown.current = option;
+    const node = el.current;
+    chart.current?.setOption(node ? fitToSize(option, node.clientWidth, node.clientHeight) : option, { notMerge: true, lazyUpdate: true });
   }, [option]);
 
   return <div ref={el} className="chart" data-testid={testId} />;

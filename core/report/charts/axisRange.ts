@@ -46,6 +46,17 @@ function mapYAxes(option: EChartsCoreOption, f: (axis: Obj, index: number) => Ob
   return { ...option, yAxis: Array.isArray(y) ? y.map(f) : f(y, 0) };
 }
 
+/**
+ * `v` rounded away from the middle (`dir` +1 up, -1 down) to half its order of magnitude, so
+ * the axis ends on a readable number (40, 0.3, 1.5), not on 39.11914239064057.
+ */
+export function niceOut(v: number, dir: 1 | -1): number {
+  if (v === 0 || !Number.isFinite(v)) return v;
+  const step = 10 ** Math.floor(Math.log10(Math.abs(v))) / 2;
+  const r = (dir > 0 ? Math.ceil(v / step) : Math.floor(v / step)) * step;
+  return Number(r.toPrecision(12));
+}
+
 /** Every y axis widened, where needed, to show its limit lines with a little room for their labels. */
 export function keepLimitsInView(option: EChartsCoreOption): EChartsCoreOption {
   return mapYAxes(option, (axis, i) => {
@@ -57,8 +68,8 @@ export function keepLimitsInView(option: EChartsCoreOption): EChartsCoreOption {
     const fixedMin = typeof axis.min === 'number' ? axis.min : null;
     return {
       ...axis,
-      min: fixedMin ?? ((v: { min: number }) => Math.min(v.min, lo)),
-      max: (v: { max: number }) => Math.max(v.max, hi),
+      min: fixedMin ?? ((v: { min: number }) => niceOut(Math.min(v.min, lo), -1)),
+      max: (v: { max: number }) => niceOut(Math.max(v.max, hi), 1),
     };
   });
 }

@@ -38,7 +38,8 @@ export function base(title: string, subtitle: string): EChartsCoreOption {
     backgroundColor: '#fbfbf8',
     textStyle: { fontFamily: 'system-ui, DejaVu Sans, sans-serif', color: CHART_COLOURS.ink },
     title: { text: title, subtext: subtitle, left: 8, top: 4, textStyle: { fontSize: 13 }, subtextStyle: { fontSize: 11, color: '#4f5b62' } },
-    legend: { type: 'scroll', top: 40, left: 56, right: 8, itemWidth: 18, itemHeight: 8, textStyle: { fontSize: 10.5 } },
+    // Never paged: fitToSize (fitLayout.ts) wraps it and moves the grid down to make room.
+    legend: { type: 'plain', top: 40, left: 56, right: 8, itemWidth: 18, itemHeight: 8, textStyle: { fontSize: 10.5 } },
     grid: { left: 60, right: 24, top: 66, bottom: 42 },
     tooltip: { trigger: 'axis', confine: true, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(3) : '—') },
   };

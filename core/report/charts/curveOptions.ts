@@ -153,6 +153,9 @@ export function ackermannOption(set: CurveSet, m: ChartMarker = NO_MARKER): ECha
   };
 }
 
+/** A camber series' legend words: the title says camber, the axis its sign. */
+export const camberLegendName = (name: string) => name.replace(/^camber /, '').replace(/\s*\(top out \+\)/, '');
+
 export function camberOption(set: CurveSet, m: ChartMarker = NO_MARKER): EChartsCoreOption {
   const lean = set.curves.camberLean;
   const travel = set.curves.camberTravel;
@@ -174,6 +177,7 @@ export function camberOption(set: CurveSet, m: ChartMarker = NO_MARKER): ECharts
   if (panels.length === 0) return unavailable('Camber', set.missing.camberLean ?? 'not computed');
   return {
     ...base('Camber', 'to ground (solid) and to frame (dashed); against lean and against wheel travel'),
+    legend: { ...(base('', '').legend as Record<string, unknown>), formatter: camberLegendName },
     grid: grids,
     xAxis: xAxes,
     yAxis: yAxes,
@@ -183,28 +187,56 @@ export function camberOption(set: CurveSet, m: ChartMarker = NO_MARKER): ECharts
 
 const JOINT_OF = (id: string) => id.split('.')[1] ?? '';
 
+/** A joint series' legend words: its rating is on the limit lines, not repeated in the legend. */
+export const jointLegendName = (name: string) => name.replace(/\s*\(rated [^)]*\)/, '');
+
+/** Where each limit line's words go, in turn from the lowest line up (the ends: the middle is where the 'now' line's word is): neighbouring lines never share an end. */
+const LABEL_SPOTS = ['insideEndTop', 'insideStartTop'] as const;
+
+/**
+ * The joints' rating lines and required-margin lines: one line per distinct value (a 25 deg
+ * rating and "28 − 3 margin" are the same line, written once with both words), their words
+ * at alternating ends so neighbouring lines do not print on top of each other.
+ */
+export function jointLimitLines(ratings: number[], margin: number): Record<string, unknown> {
+  const byValue = new Map<number, { words: string[]; rated: boolean }>();
+  const add = (v: number, words: string, rated: boolean) => {
+    const e = byValue.get(v) ?? { words: [], rated: false };
+    if (!e.words.includes(words)) e.words.push(words);
+    e.rated ||= rated;
+    byValue.set(v, e);
+  };
+  for (const r of [...new Set(ratings)].sort((a, b) => b - a)) {
+    add(r, `rated ${r} deg`, true);
+    add(r - margin, `${r} − ${margin} margin`, false);
+  }
+  const values = [...byValue.keys()].sort((a, b) => a - b);
+  return {
+    silent: true,
+    symbol: 'none',
+    data: values.map((v, i) => {
+      const e = byValue.get(v)!;
+      const colour = e.rated ? CHART_COLOURS.limit : CHART_COLOURS.warn;
+      return {
+        yAxis: v,
+        name: e.words.join('; '),
+        lineStyle: { color: colour, type: e.rated ? 'solid' : 'dashed' },
+        label: { position: LABEL_SPOTS[i % LABEL_SPOTS.length], color: colour },
+      };
+    }),
+    label: { formatter: '{b}', fontSize: 10, position: 'insideEndTop', backgroundColor: 'rgba(251,251,248,0.85)', padding: [0, 2] },
+  };
+}
+
 function jointsOption(set: CurveSet, kind: 'jointsLean' | 'jointsSteer', title: string, x: number | null, sign: string): EChartsCoreOption {
   const c = set.curves[kind];
   if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
   const series: Record<string, unknown>[] = c.series.map((s) => line(s.label, points(c, s), CHART_COLOURS.joints[JOINT_OF(s.id)] ?? CHART_COLOURS.ink, sideOf(s.id) === 'right'));
   const margin = set.tolerances.jointMarginDeg;
-  const ratings = [...new Set(Object.values(set.ratedDeg))];
-  series.push({
-    type: 'line',
-    name: 'rating and required margin',
-    data: [],
-    markLine: {
-      silent: true,
-      symbol: 'none',
-      data: ratings.flatMap((r) => [
-        { yAxis: r, name: `rated ${r} deg`, lineStyle: { color: CHART_COLOURS.limit, type: 'solid' } },
-        { yAxis: r - margin, name: `${r} − ${margin} margin`, lineStyle: { color: CHART_COLOURS.warn, type: 'dashed' } },
-      ]),
-      label: { formatter: '{b}', fontSize: 10, position: 'insideEndTop' },
-    },
-  });
+  series.push({ type: 'line', name: 'rating and required margin', data: [], lineStyle: { color: CHART_COLOURS.limit, width: 1 }, itemStyle: { color: CHART_COLOURS.limit }, markLine: jointLimitLines(Object.values(set.ratedDeg), margin) });
   return {
     ...base(title, 'articulation of each ball joint and rod end (solid left, dashed right)' + failuresNote(c)),
+    legend: { ...(base('', '').legend as Record<string, unknown>), formatter: jointLegendName },
     xAxis: axis(xName(c, sign)),
     yAxis: axis('articulation (deg)', { min: 0 }),
     series: withNow(series, x),

@@ -1,0 +1,128 @@
+// @vitest-environment node
+// Plots a designer can read: every chart of every demo, drawn by ECharts itself (its SSR SVG,
+// the report's rendering) at the report's size and at a small strip's size: no legend paged
+// ("1/2") or cut, no two texts on top of each other (boxes from the SVG's own text positions,
+// glyph widths as the layout counts them, EM_WIDTH), the joints' limit lines written once each.
+import { describe, expect, it } from 'vitest';
+import { renderOptionToSvg } from '../../../core/report/charts/renderSvg';
+import { CURVE_CHARTS, curveOption, jointLimitLines, camberLegendName, jointLegendName } from '../../../core/report/charts/curveOptions';
+import { EM_WIDTH, fitAxisName, fitToSize, legendLines } from '../../../core/report/charts/fitLayout';
+import { computeCurves } from '../../../core/report/chartSweeps';
+import { demoDesign } from '../../renderer/helpers';
+
+export interface Box {
+  text: string;
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+}
+
+/** The box of each <text> in an ECharts SVG (translate or rotation matrix, anchor, central baseline). */
+export function textBoxes(svg: string): Box[] {
+  const out: Box[] = [];
+  for (const m of svg.matchAll(/<text([^>]*)>([^<]*)<\/text>/g)) {
+    const attrs = m[1];
+    const text = m[2].replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>');
+    if (!text.trim()) continue;
+    const size = Number(/font-size:([\d.]+)px/.exec(attrs)?.[1] ?? 12);
+    const anchor = /text-anchor="(\w+)"/.exec(attrs)?.[1] ?? 'start';
+    const dx = Number(/ x="([-\d.e]+)"/.exec(attrs)?.[1] ?? 0);
+    const dy = Number(/ y="([-\d.e]+)"/.exec(attrs)?.[1] ?? 0);
+    const central = /dominant-baseline="central"/.test(attrs);
+    const w = text.length * size * EM_WIDTH;
+    // In the text's own frame.
+    const lx0 = dx - (anchor === 'middle' ? w / 2 : anchor === 'end' ? w : 0);
+    const ly0 = central ? dy - size / 2 : dy - size * 0.8;
+    const t = /transform="translate\(([-\d.e]+)[ ,]([-\d.e]+)\)"/.exec(attrs);
+    const mx = /transform="matrix\(([^)]*)\)"/.exec(attrs);
+    const [a, b, c, d, e, f] = t ? [1, 0, 0, 1, Number(t[1]), Number(t[2])] : mx ? mx[1].split(',').map(Number) : [1, 0, 0, 1, 0, 0];
+    const corners = [
+      [lx0, ly0],
+      [lx0 + w, ly0],
+      [lx0, ly0 + size],
+      [lx0 + w, ly0 + size],
+    ].map(([x, y]) => [a * x + c * y + e, b * x + d * y + f]);
+    out.push({ text, x0: Math.min(...corners.map((p) => p[0])), x1: Math.max(...corners.map((p) => p[0])), y0: Math.min(...corners.map((p) => p[1])), y1: Math.max(...corners.map((p) => p[1])) });
+  }
+  return out;
+}
+
+/** Pairs of boxes that overlap by more than `slack` px each way. */
+export function overlaps(boxes: Box[], slack = 1): [string, string][] {
+  const out: [string, string][] = [];
+  for (let i = 0; i < boxes.length; i++)
+    for (let j = i + 1; j < boxes.length; j++) {
+      const p = boxes[i];
+      const q = boxes[j];
+      if (Math.min(p.x1, q.x1) - Math.max(p.x0, q.x0) > slack && Math.min(p.y1, q.y1) - Math.max(p.y0, q.y0) > slack) out.push([p.text, q.text]);
+    }
+  return out;
+}
+
+const DEMOS = ['heron-tilting-velomobile', 'wren-rack-trike', 'swift-parallelogram-trike', 'linnet-track-rod-trike', 'finch-knuckle-steered-trike'];
+const SIZES: [number, number][] = [
+  [720, 360],
+  [560, 300],
+];
+
+describe('curve charts a designer can read', () => {
+  for (const demo of DEMOS) {
+    it(`${demo}: no paged or cut legend, no two texts overlapping, at ${SIZES.map((s) => s.join('x')).join(' and ')}`, () => {
+      const set = computeCurves({ design: demoDesign(demo) });
+      for (const { id } of CURVE_CHARTS) {
+        const opt = curveOption(id, set, { leanDeg: 0, handlebarDeg: 0, travelMm: 0, ackermann: null });
+        for (const [w, h] of SIZES) {
+          const svg = renderOptionToSvg(opt, w, h);
+          const boxes = textBoxes(svg);
+          const where = `${demo} ${id} ${w}x${h}`;
+          // No pager ("1/2") and no name cut with an ellipsis.
+          expect(boxes.filter((b) => /^\d+\/\d+$/.test(b.text) || b.text.includes('…')).map((b) => b.text), where).toEqual([]);
+          // Every series' legend words written whole.
+          const legend = (fitToSize(opt, w, h) as { legend?: { formatter?: (n: string) => string } }).legend;
+          const fmt = legend?.formatter ?? ((n: string) => n);
+          for (const s of (opt as { series: { name?: string; type: string }[] }).series) if (s.name) expect(boxes.map((b) => b.text), `${where}: ${s.name}`).toContain(fmt(s.name));
+          // Nothing out of the picture, nothing on top of anything else.
+          for (const b of boxes) {
+            expect(b.x0, `${where}: ${b.text}`).toBeGreaterThanOrEqual(-1);
+            expect(b.x1, `${where}: ${b.text}`).toBeLessThanOrEqual(w + 1);
+            expect(b.y0, `${where}: ${b.text}`).toBeGreaterThanOrEqual(-1);
+            expect(b.y1, `${where}: ${b.text}`).toBeLessThanOrEqual(h + 1);
+          }
+          expect(overlaps(boxes), where).toEqual([]);
+        }
+      }
+    });
+  }
+
+  it('the overlap check finds what printed on top of each other before (negative control)', () => {
+    const boxes = textBoxes(
+      '<text dominant-baseline="central" text-anchor="end" style="font-size:10px;" transform="translate(700 120)">rated 28 deg</text>' +
+        '<text dominant-baseline="central" text-anchor="end" style="font-size:10px;" transform="translate(700 124)">28 − 3 margin</text>' +
+        '<text dominant-baseline="central" text-anchor="end" style="font-size:10px;" transform="translate(700 160)">25 − 3 margin</text>',
+    );
+    expect(overlaps(boxes)).toEqual([['rated 28 deg', '28 − 3 margin']]);
+  });
+
+  it("joints' limit lines: one line per value, both words on a shared one, neighbours written at different places", () => {
+    const ml = jointLimitLines([28, 25, 25], 3) as { data: { yAxis: number; name: string; label: { position: string } }[] };
+    expect(ml.data.map((d) => d.yAxis)).toEqual([22, 25, 28]);
+    expect(ml.data[1].name).toBe('28 − 3 margin; rated 25 deg');
+    for (let i = 1; i < ml.data.length; i++) expect(ml.data[i].label.position).not.toBe(ml.data[i - 1].label.position);
+  });
+
+  it('short legend words where the title and axis already say it', () => {
+    expect(camberLegendName('camber to ground (top out +), left')).toBe('to ground, left');
+    expect(jointLegendName('tie rod, outer end, right (rated 28 deg)')).toBe('tie rod, outer end, right');
+  });
+
+  it('legend lines and y-axis names fitted to the room', () => {
+    const opts = { itemWidth: 18, itemGap: 10, fontSize: 10 };
+    expect(legendLines(['a'.repeat(10), 'b'.repeat(10)], 1000, opts)).toBe(1);
+    // Each item is 18 + 5 + 62 = 85 px: two fit in 180 px, the third wraps.
+    expect(legendLines(['a'.repeat(10), 'b'.repeat(10), 'c'.repeat(10)], 180, opts)).toBe(2);
+    expect(fitAxisName('self-steer (deg, left +)', 400)).toBe('self-steer (deg, left +)');
+    expect(fitAxisName('self-steer (deg, left +)', 130)).toBe('self-steer (deg)');
+    expect(fitAxisName('ratio (deg/deg)', 60)).toBe('deg/deg');
+  });
+});
