@@ -18,7 +18,20 @@
  * Frames per second are measured in three windows of N seconds and the median reported (this
  * machine is shared; the load average is printed so a reader can judge the figures).
  *
- * Usage: tsx test/bench/viewport.ts [--no-build | --dir BUILT_RENDERER] [--seconds N] [--trials N] [--config brief|software]
+ * Responsiveness (issue 11), in the "brief flags" browser, each figure the median of several:
+ *   first frame        ms from navigation start to the viewport's first rendered frame (a fresh
+ *                      page each time, the bundle from the local server)
+ *   edit to plots      ms from a typed hardpoint edit (the Enter key) to the frame after the open
+ *                      chart has drawn the curves of the edited design: once on a curve tab, once
+ *                      on the envelope map at its coarse resolution
+ * Targets: first frame within 2000 ms, plots within 150 ms of an edit.
+ *
+ * With --baseline BUILT_RENDERER the same figures are measured for that build too (e.g. one
+ * built from an earlier commit with `git archive` + buildRenderer), interleaved in the same run
+ * so both meet the same machine load, and printed side by side.
+ *
+ * Usage: tsx test/bench/viewport.ts [--no-build | --dir BUILT_RENDERER] [--baseline BUILT_RENDERER]
+ *          [--seconds N] [--trials N] [--config brief|software] [--only speed|frames]
  */
 import os from 'node:os';
 import { chromium, type Browser, type Page } from 'playwright-core';
@@ -28,6 +41,14 @@ import { serveStatic } from '../e2e/support/staticServer';
 
 const TARGET_FPS = 30;
 const TARGET_LATENCY_MS = 50;
+const TARGET_FIRST_FRAME_MS = 2000;
+const TARGET_EDIT_TO_PLOTS_MS = 150;
+/** Loads and edits per build for the responsiveness figures. */
+const SPEED_LOADS = 3;
+const SPEED_EDITS = 6;
+/** The hardpoint edited (typed into its table cell), and by how much, mm. */
+const EDIT_FIELD = 'hp-steering.pivot-z';
+const EDIT_STEP_MM = 2;
 const WIDTH = 1280;
 const HEIGHT = 800;
 
@@ -38,17 +59,26 @@ interface Args {
   seconds: number;
   configs: string[];
   trials: number;
+  /** A second build measured beside the first (first frame, edit to plots). */
+  baseline: string | null;
+  /** Only the responsiveness figures, or only the frames and slider latency. */
+  only: 'speed' | 'frames' | null;
 }
 
 function parseArgs(argv: string[]): Args {
-  const a: Args = { build: true, dir: null, seconds: 5, configs: ['brief', 'software'], trials: 20 };
+  const a: Args = { build: true, dir: null, seconds: 5, configs: ['brief', 'software'], trials: 20, baseline: null, only: null };
   for (let i = 0; i < argv.length; i++) {
     if (argv[i] === '--no-build') a.build = false;
     else if (argv[i] === '--seconds') a.seconds = Number(argv[++i]);
     else if (argv[i] === '--trials') a.trials = Number(argv[++i]);
     else if (argv[i] === '--config') a.configs = [argv[++i]];
     else if (argv[i] === '--dir') a.dir = argv[++i];
-    else throw new Error(`unknown argument ${argv[i]}`);
+    else if (argv[i] === '--baseline') a.baseline = argv[++i];
+    else if (argv[i] === '--only') {
+      const o = argv[++i];
+      if (o !== 'speed' && o !== 'frames') throw new Error(`--only takes speed or frames, not ${o}`);
+      a.only = o;
+    } else throw new Error(`unknown argument ${argv[i]}`);
   }
   return a;
 }
@@ -177,18 +207,143 @@ async function measure(browser: Browser, url: string, args: Args): Promise<Figur
   return { renderer, ceilingFps: ceiling, ceilingTextFps: ceilingText, fps: fps.fps, fpsWindows: windows.map((w) => w.fps), movingDpr: fps.dpr, latency };
 }
 
+/**
+ * Records in the page, before its scripts run: when the first frame was rendered (polled each
+ * animation frame from navigation on) and when the Enter key went down (the edit's start).
+ */
+const SPEED_INIT = `(() => {
+  const m = (window.__speedBench = { firstFrame: null, editStart: null });
+  const tick = () => {
+    const s = window.__tiltbenchStats;
+    if (s && s.frames > 0) m.firstFrame = performance.now();
+    else requestAnimationFrame(tick);
+  };
+  requestAnimationFrame(tick);
+  document.addEventListener('keydown', (e) => { if (e.key === 'Enter') m.editStart = performance.now(); }, true);
+})()`;
+
+/**
+ * In the page: resolves with ms from the edit's Enter to the frame after the open chart drew the
+ * result for the design's current revision (the jobs store's slot for the tab, then the chart's
+ * SVG changing, then the next animation frame). Armed before the edit is typed.
+ */
+const ARM_EDIT = (slot: 'curves' | 'map', chart: string) => `(() => {
+  const wb = window.__tiltbench;
+  const m = window.__speedBench;
+  m.editMs = null;
+  m.editStart = null;
+  const node = document.querySelector('[data-testid=${chart}]');
+  let drawnAfterResult = false;
+  let resultSeen = false;
+  const finish = () => requestAnimationFrame(() => { m.editMs = performance.now() - m.editStart; });
+  const mo = new MutationObserver(() => {
+    if (resultSeen && !drawnAfterResult) { drawnAfterResult = true; mo.disconnect(); finish(); }
+  });
+  mo.observe(node, { subtree: true, childList: true, attributes: true, characterData: true });
+  const off = wb.jobs.store.subscribe((s) => {
+    if (m.editStart === null || resultSeen) return;
+    if (s.${slot}.resultRevision === wb.document.getState().revision && s.${slot}.resultRevision > m.revision0) {
+      resultSeen = true;
+      off();
+    }
+  });
+  m.revision0 = wb.document.getState().revision;
+})()`;
+
+interface Speed {
+  firstFrameMs: number[];
+  curvesMs: number[];
+  mapMs: number[];
+}
+
+async function waitPlotsIdle(page: Page): Promise<void> {
+  await waitFor(page, `(() => { const j = window.__tiltbench.jobs.store.getState(); return j.curves.progress === null && j.map.progress === null && !document.querySelector('[data-testid=sweep-progress]'); })()`);
+}
+
+/** One load: its first-frame time, and (with `edits`) edit-to-plots times on the curves tab and the coarse map. */
+async function speedRound(browser: Browser, url: string, edits: number, into: Speed): Promise<void> {
+  const page = await browser.newPage({ viewport: { width: WIDTH, height: HEIGHT } });
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.addInitScript(SPEED_INIT);
+  await page.goto(url);
+  await waitFor(page, 'window.__speedBench && window.__speedBench.firstFrame !== null');
+  into.firstFrameMs.push(await js<number>(page, 'window.__speedBench.firstFrame'));
+  if (edits > 0) {
+    await waitFor(page, `window.__tiltbench.jobs.store.getState().curves.resultRevision >= 0`);
+    await waitPlotsIdle(page);
+    await page.waitForTimeout(1500);
+    const field = page.getByTestId(EDIT_FIELD);
+    const v0 = Number(await field.inputValue());
+    const tab = await js<string>(page, 'window.__tiltbench.ui.getState().plots.tab');
+    for (const [slot, out] of [['curves', into.curvesMs], ['map', into.mapMs]] as const) {
+      if (slot === 'map') {
+        await page.getByTestId('tab-map').click();
+        await waitFor(page, `window.__tiltbench.jobs.store.getState().map.resultRevision === window.__tiltbench.document.getState().revision`);
+        await waitPlotsIdle(page);
+        await page.waitForTimeout(1500);
+      }
+      const chart = slot === 'map' ? 'chart-map' : `chart-${tab}`;
+      for (let k = 0; k < edits; k++) {
+        await js(page, ARM_EDIT(slot, chart));
+        await field.fill((v0 + (k % 2 === 0 ? EDIT_STEP_MM : 0)).toFixed(1));
+        await field.press('Enter');
+        await waitFor(page, 'window.__speedBench.editMs !== null', 20_000);
+        out.push(await js<number>(page, 'window.__speedBench.editMs'));
+        await waitPlotsIdle(page);
+        await page.waitForTimeout(700); // a designer's pause between edits
+      }
+    }
+  }
+  if (errors.length) throw new Error(`page errors: ${errors.join('; ')}`);
+  await page.close();
+}
+
+const med = (xs: number[]) => (xs.length ? quantile(xs, 0.5) : NaN);
+const spread = (xs: number[]) => `${med(xs).toFixed(0).padStart(5)} ms (${Math.min(...xs).toFixed(0)}-${Math.max(...xs).toFixed(0)}, n=${xs.length})`;
+
+async function speedFigures(args: Args, builds: { label: string; url: string }[]): Promise<void> {
+  const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: CONFIGS.brief.args });
+  try {
+    const figures = builds.map(() => ({ firstFrameMs: [], curvesMs: [], mapMs: [] }) as Speed);
+    // Interleaved, so both builds meet the same load: loads first, then the edits.
+    for (let r = 0; r < SPEED_LOADS; r++) for (let b = 0; b < builds.length; b++) await speedRound(browser, builds[b].url, 0, figures[b]);
+    for (let b = 0; b < builds.length; b++) await speedRound(browser, builds[b].url, SPEED_EDITS, figures[b]);
+    console.log(`== responsiveness (${CONFIGS.brief.label}), median (min-max, n)`);
+    const rows: [string, (f: Speed) => number[], number][] = [
+      ['first frame after load', (f) => f.firstFrameMs, TARGET_FIRST_FRAME_MS],
+      ['edit to plots, curve tab', (f) => f.curvesMs, TARGET_EDIT_TO_PLOTS_MS],
+      ['edit to plots, coarse map', (f) => f.mapMs, TARGET_EDIT_TO_PLOTS_MS],
+    ];
+    console.log(`   ${''.padEnd(28)}${builds.map((b) => b.label.padEnd(34)).join('')}target`);
+    for (const [name, pick, target] of rows) {
+      const cells = figures.map((f) => `${spread(pick(f))} ${verdict(med(pick(f)) <= target)}`.padEnd(34)).join('');
+      console.log(`   ${name.padEnd(28)}${cells}<= ${target} ms`);
+    }
+    console.log('');
+  } finally {
+    await browser.close();
+  }
+}
+
 const verdict = (ok: boolean) => (ok ? 'PASS' : 'MISS');
 
 async function main(): Promise<void> {
   const args = parseArgs(process.argv.slice(2));
   const dir = args.dir ?? (args.build ? await buildRenderer() : BUILD_DIR);
   const server = await serveStatic(dir, DESIGNS_DIR);
+  const baseServer = args.baseline ? await serveStatic(args.baseline, DESIGNS_DIR) : null;
   console.log(`Viewport benchmark: ${WIDTH} x ${HEIGHT}, demo design playing a lean sweep, headless ${CHROMIUM_PATH}`);
   console.log(`targets: >= ${TARGET_FPS} fps while playing; < ${TARGET_LATENCY_MS} ms from a slider change to updated readouts and picture`);
   const load = () => os.loadavg().map((x) => x.toFixed(2)).join(' ');
   console.log(`machine: ${os.cpus().length} cores, load average ${load()} (1, 5, 15 min)\n`);
   try {
-    for (const name of args.configs) {
+    if (args.only !== 'frames') {
+      const builds = [{ label: `this build (${args.dir ?? 'built now'})`, url: server.url }];
+      if (baseServer) builds.push({ label: `baseline (${args.baseline})`, url: baseServer.url });
+      await speedFigures(args, builds);
+    }
+    for (const name of args.only === 'speed' ? [] : args.configs) {
       const cfg = CONFIGS[name];
       if (!cfg) throw new Error(`unknown config ${name}`);
       const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, headless: true, args: cfg.args });
@@ -210,6 +365,7 @@ async function main(): Promise<void> {
     }
   } finally {
     await server.close();
+    await baseServer?.close();
   }
   console.log(`load average at the end: ${os.loadavg().map((x) => x.toFixed(2)).join(' ')}`);
 }
