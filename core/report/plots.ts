@@ -25,8 +25,9 @@ export const plotName = (id: CurveChartId | 'envelopeMap') => id.replace(/([a-z]
 
 /** The envelope map's option, without the workbench's hint to click a cell. */
 export function mapOptionForPaper(map: EnvelopeMapData): ReturnType<typeof heatMapOption> {
-  const option = heatMapOption(map, 'status', { leanDeg: 0, handlebarDeg: 0 }) as { title?: { subtext?: string } };
-  if (option.title && typeof option.title.subtext === 'string') option.title.subtext = option.title.subtext.replace(/; click a cell to go there$/, '');
+  const option = heatMapOption(map, 'status', { leanDeg: 0, handlebarDeg: 0 }) as { title?: { subtext?: string } | { subtext?: string }[] };
+  const main = Array.isArray(option.title) ? option.title[0] : option.title;
+  if (main && typeof main.subtext === 'string') main.subtext = main.subtext.replace(/; click a cell to go there$/, '');
   return option as ReturnType<typeof heatMapOption>;
 }
 

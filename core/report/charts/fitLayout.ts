@@ -77,7 +77,8 @@ export function fitToSize(option: EChartsCoreOption, width: number, height: numb
   const out: Obj = { ...o };
   // A subtitle longer than the box wraps; what is below it moves down by its extra lines.
   let shift = 0;
-  const title = o.title as Obj | undefined;
+  const titles = asArray(o.title as Obj | Obj[]);
+  const title = titles[0];
   if (title && typeof title.subtext === 'string') {
     const left = num(title.left, width) ?? 0;
     const room = width - left - 8;
@@ -85,13 +86,28 @@ export function fitToSize(option: EChartsCoreOption, width: number, height: numb
     const fontSize = (st.fontSize as number | undefined) ?? 12;
     const lines = Math.max(1, Math.ceil(textWidth(title.subtext, fontSize) / room));
     shift = (lines - 1) * SUBTITLE_LINE_PX;
-    out.title = { ...title, subtextStyle: { ...st, width: room, overflow: 'break', lineHeight: SUBTITLE_LINE_PX } };
+    const first = { ...title, subtextStyle: { ...st, width: room, overflow: 'break', lineHeight: SUBTITLE_LINE_PX } };
+    // Further titles (the map's scale heading) placed in px move down with the rest.
+    const rest = titles.slice(1).map((t) => (typeof t.top === 'number' ? { ...t, top: t.top + shift } : t));
+    out.title = Array.isArray(o.title) ? [first, ...rest] : first;
   }
   const legend0 = o.legend as Obj | undefined;
   const legend = legend0 && typeof legend0.top === 'number' ? { ...legend0, top: legend0.top + shift } : legend0;
   if (legend && legend.orient === 'vertical') out.legend = legend;
   const vm = o.visualMap as Obj | undefined;
-  if (vm && typeof vm.top === 'number') out.visualMap = { ...vm, top: vm.top + shift };
+  if (vm && typeof vm.top === 'number') {
+    out.visualMap = { ...vm, top: vm.top + shift };
+    // A continuous scale's bar shortened in a low box, the legend under it moved up with it.
+    if (vm.type === 'continuous' && typeof vm.itemHeight === 'number' && legend && typeof legend.top === 'number') {
+      const items = asArray(legend.data as unknown[]).length;
+      // Under the bar: its two end numbers (a line of text and a gap each), then the legend's items.
+      const ends = 2 * 15 + 10;
+      const free = height - (vm.top + shift) - ends - items * 17 - 8;
+      const bar = Math.max(40, Math.min(vm.itemHeight, free));
+      out.visualMap = { ...(out.visualMap as Obj), itemHeight: bar };
+      out.legend = { ...legend, top: vm.top + shift + bar + ends };
+    }
+  }
   let top: number | null = null;
   if (legend && legend.orient !== 'vertical') {
     const left = num(legend.left, width) ?? 0;
@@ -127,11 +143,16 @@ export function fitToSize(option: EChartsCoreOption, width: number, height: numb
     const g = grids[0];
     const xs = asArray(o.xAxis as Obj[] | Obj)[0]?.data as unknown[] | undefined;
     const ys = asArray(o.yAxis as Obj[] | Obj)[0]?.data as unknown[] | undefined;
-    const cw = (width - ((num(g.left, width) ?? 0) + (num(g.right, width) ?? 0))) / Math.max(1, xs?.length ?? 1);
+    const gw = typeof g.width === 'number' ? g.width : width - ((num(g.left, width) ?? 0) + (num(g.right, width) ?? 0));
+    const cw = gw / Math.max(1, xs?.length ?? 1);
     const ch = (height - ((g.top as number) ?? 0) - ((g.bottom as number) ?? 0)) / Math.max(1, ys?.length ?? 1);
     const cl = heat.cellLabel as { chars: number; fontSize: number };
-    const fits = cw >= textWidth('0'.repeat(cl.chars), cl.fontSize) + 4 && ch >= cl.fontSize + 3;
-    out.series = series.map((s) => (s === heat ? { ...s, label: { ...(s.label as Obj), show: fits } } : s));
+    const fits = cw >= textWidth('0'.repeat(cl.chars), cl.fontSize) + 6 && ch >= cl.fontSize + 6;
+    out.series = series.map((s) => {
+      if (s !== heat) return s;
+      const { cellLabel: _hint, ...rest } = s;
+      return { ...rest, label: { ...(s.label as Obj), show: fits } };
+    });
   }
   return out as EChartsCoreOption;
 }

@@ -14,6 +14,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import { SEVERITY_STYLE, type Severity } from '../severity';
 import type { EnvelopeMapData, MapBalancedLine, MapCell, MapMetric } from './chartData';
 import { CHART_COLOURS } from './chartStyle';
+import { EM_WIDTH } from './fitLayout';
 import { bandEdges, regionOutline } from './regionOutline';
 
 export const MAP_METRICS: { id: MapMetric; label: string; unit: string }[] = [
@@ -30,6 +31,9 @@ const LEVELS: Severity[] = ['none', 'within', 'close', 'over', 'broken'];
 /** Series names, also the legend's words. */
 export const REGION_SERIES = 'operating region';
 export const BALANCED_SERIES = 'balanced turn';
+
+/** Width of the colour key's words at the right of the map, px. */
+const KEY_WIDTH = 156;
 
 /** Opacity of the cells outside the operating region. */
 const OUTSIDE_OPACITY = 0.4;
@@ -189,15 +193,40 @@ export function balancedLineSeries(map: EnvelopeMapData): Record<string, unknown
   ];
 }
 
+/**
+ * The continuous scale of a numeric measure, light to dark, the darker the worse: lightness
+ * falls steadily along it, so it reads the same under every colour-vision deficiency and in
+ * grey print (the same principle as the viridis and cividis scales; our own stops).
+ */
+export const VALUE_RAMP = ['#f6f2cf', '#b9dca0', '#5fae93', '#2f7d86', '#2d4f7e', '#2b2352'];
+
+/** Measures where a smaller number is the worse one (the ramp runs the other way). */
+const SMALLER_IS_WORSE: ReadonlySet<MapMetric> = new Set<MapMetric>(['jointMargin', 'clearance']);
+
+/** Significant figures a cell's number is written with. */
+const cellNumber = (v: number) => (Math.abs(v) >= 100 ? v.toFixed(0) : Math.abs(v) >= 10 ? v.toFixed(1) : v.toFixed(2));
+
+/** The colour of a cell that has no number on a numeric measure (it cannot be assembled, or it was not measured). */
+function noValueStyle(c: MapCell): { color: string; word: string } {
+  return c.status === 'broken' ? { color: SEVERITY_STYLE.broken.colour, word: `${SEVERITY_STYLE.broken.glyph} ${SEVERITY_STYLE.broken.word}` } : { color: '#d5d9d2', word: `${SEVERITY_STYLE.none.glyph} no value` };
+}
+
 export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: { leanDeg: number; handlebarDeg: number } | null = null): EChartsCoreOption {
   const meta = MAP_METRICS.find((m) => m.id === metric)!;
-  const data = map.cells.map((c) => ({
-    value: [c.leanIndex, c.handlebarIndex, LEVELS.indexOf(c.severity[metric])],
-    ...(c.inRegion ? {} : { itemStyle: { opacity: OUTSIDE_OPACITY } }),
-  }));
+  const numeric = metric !== 'status';
+  const valueOf = (c: MapCell): number | null => (metric === 'status' ? null : c.values[metric]);
+  const faded = (c: MapCell) => (c.inRegion ? {} : { itemStyle: { opacity: OUTSIDE_OPACITY } });
+  const withValue = numeric ? map.cells.filter((c) => valueOf(c) !== null && Number.isFinite(valueOf(c))) : [];
+  const data = numeric
+    ? withValue.map((c) => ({ value: [c.leanIndex, c.handlebarIndex, valueOf(c)!], ...faded(c) }))
+    : map.cells.map((c) => ({ value: [c.leanIndex, c.handlebarIndex, LEVELS.indexOf(c.severity[metric])], ...faded(c) }));
+  const values = withValue.map((c) => valueOf(c)!);
+  const lo = values.length ? Math.min(...values) : 0;
+  const hi = values.length ? Math.max(...values) : 1;
   const xs = bandEdges(map.lean);
   const ys = bandEdges(map.handlebar);
-  const clamp = (v: number, e: number[]) => Math.min(e[e.length - 1], Math.max(e[0], v));
+  // The marker stays at least half a cell inside the map (its circle never cut by the grid's edge).
+  const clampIn = (v: number, centres: number[]) => Math.min(centres[centres.length - 1], Math.max(centres[0], v));
   const series: Record<string, unknown>[] = [
     {
       type: 'heatmap',
@@ -205,8 +234,30 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
       data,
       itemStyle: { borderColor: '#fbfbf8', borderWidth: 0.5 },
       emphasis: { itemStyle: { borderColor: CHART_COLOURS.ink, borderWidth: 1 } },
+      // Each cell's number, written when the cells are big enough (fitLayout.ts turns it on).
+      ...(numeric
+        ? {
+            label: { show: false, formatter: (p: { value: number[] }) => cellNumber(p.value[2]), fontSize: 10, color: CHART_COLOURS.ink, textBorderColor: 'rgba(251,251,248,0.9)', textBorderWidth: 2 },
+            cellLabel: { chars: Math.max(...values.map((v) => cellNumber(v).length), 1), fontSize: 10 },
+          }
+        : {}),
     },
   ];
+  if (numeric) {
+    // Cells without a number keep their category colour (won't assemble, no value) in a series of their own.
+    const none = map.cells.filter((c) => !withValue.includes(c));
+    const words = [...new Set(none.map((c) => noValueStyle(c).word))];
+    for (const w of words) {
+      const cells = none.filter((c) => noValueStyle(c).word === w);
+      const colour = noValueStyle(cells[0]).color;
+      series.push({
+        type: 'heatmap',
+        name: w,
+        data: cells.map((c) => ({ value: [c.leanIndex, c.handlebarIndex, 0], itemStyle: { color: colour, ...(c.inRegion ? {} : { opacity: OUTSIDE_OPACITY }) } })),
+        itemStyle: { color: colour, borderColor: '#fbfbf8', borderWidth: 0.5 },
+      });
+    }
+  }
   const region = regionOutlineSeries(map);
   if (region) series.push(region);
   series.push(...balancedLineSeries(map));
@@ -216,9 +267,10 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
       name: 'now',
       xAxisIndex: 1,
       yAxisIndex: 1,
-      data: [[clamp(marker.leanDeg, xs), clamp(marker.handlebarDeg, ys)]],
+      data: [[clampIn(marker.leanDeg, map.lean), clampIn(marker.handlebarDeg, map.handlebar)]],
       symbol: 'circle',
       symbolSize: 14,
+      clip: false,
       itemStyle: { color: 'transparent', borderColor: CHART_COLOURS.marker, borderWidth: 3 },
       z: 10,
       tooltip: { show: false },
@@ -228,19 +280,87 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
   const label = (v: number) => (Number.isInteger(v) ? String(v) : v.toFixed(1));
   const hidden = (edges: number[]) => ({ type: 'value', min: edges[0], max: edges[edges.length - 1], show: false });
   const leans = map.balancedLines.length ? '' : '; the vehicle does not lean';
+  const oneColumn = map.lean.length === 1;
+  const grid = oneColumn ? { left: 62, width: 56, top: 58, bottom: 44 } : { left: 62, right: 170, top: 58, bottom: 44 };
+  const smallerWorse = SMALLER_IS_WORSE.has(metric);
+  const extraTitles: Record<string, unknown>[] = [];
+  // The scale's heading: the measure and its unit (wrapped to the key's width), then which end is worse.
+  const headingLines = numeric ? [`${meta.label} (${meta.unit})`, 'darker is worse'] : [];
+  const headingPx = headingLines.reduce((n, l) => n + Math.ceil((l.length * 11 * EM_WIDTH) / KEY_WIDTH), 0) * 14 + 8;
+  if (numeric) {
+    extraTitles.push({
+      text: headingLines.join('\n'),
+      right: 8,
+      top: 58,
+      textStyle: { fontSize: 11, fontWeight: 'normal', color: CHART_COLOURS.ink, lineHeight: 14, width: KEY_WIDTH, overflow: 'break' },
+    });
+  }
+  if (oneColumn) {
+    extraTitles.push({
+      text: 'One column: this vehicle does not lean, so the map is its handlebar range at lean 0 (top: full left lock).',
+      left: 140,
+      top: 'middle',
+      textStyle: { fontSize: 12, fontWeight: 'normal', color: '#4f5b62', lineHeight: 16, width: 300, overflow: 'break' },
+    });
+  }
+  const noValueWords = series.filter((x, i) => i > 0 && x.type === 'heatmap').map((x) => x.name as string);
+  const legendItems = [
+    { name: REGION_SERIES, icon: 'path://M0,0h6v2h-6zM9,0h6v2h-6zM18,0h6v2h-6z' },
+    ...(map.balancedLines.length ? [{ name: BALANCED_SERIES, icon: 'path://M0,0h24v2h-24z' }] : []),
+    ...noValueWords.map((name) => ({ name, icon: 'rect', itemStyle: { opacity: 1 } })),
+  ];
+  const fmt = (v: number) => cellNumber(v);
+  const visualMap = numeric
+    ? {
+        type: 'continuous',
+        dimension: 2,
+        seriesIndex: 0,
+        min: lo,
+        max: hi > lo ? hi : lo + 1,
+        calculable: false,
+        orient: 'vertical',
+        right: 96,
+        top: 58 + headingPx,
+        itemWidth: 14,
+        itemHeight: 120,
+        text: [`${fmt(hi)} ${meta.unit}`, `${fmt(lo)} ${meta.unit}`],
+        textGap: 4,
+        textStyle: { fontSize: 11 },
+        inRange: { color: smallerWorse ? [...VALUE_RAMP].reverse() : VALUE_RAMP },
+      }
+    : {
+        type: 'piecewise',
+        dimension: 2,
+        seriesIndex: 0,
+        orient: 'vertical',
+        right: 8,
+        top: 58,
+        itemGap: 4,
+        itemWidth: 14,
+        itemHeight: 10,
+        textStyle: { fontSize: 11 },
+        pieces: LEVELS.map((s, i) => ({
+          value: i,
+          label: `${SEVERITY_STYLE[s].glyph} ${s === 'none' ? 'no value' : SEVERITY_STYLE[s].word}`,
+          color: s === 'none' ? '#d5d9d2' : SEVERITY_STYLE[s].colour,
+        })),
+      };
   return {
     animation: false,
     backgroundColor: '#fbfbf8',
     textStyle: { fontFamily: 'system-ui, DejaVu Sans, sans-serif', color: CHART_COLOURS.ink },
-    title: {
-      text: `Envelope map: ${meta.label.toLowerCase()}`,
-      subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm${leans}; click a cell to go there`,
-      left: 8,
-      top: 4,
-      textStyle: { fontSize: 13 },
-      subtextStyle: { fontSize: 11, color: '#4f5b62' },
-    },
-    grid: { left: 62, right: 170, top: 58, bottom: 44 },
+    title: [
+      {
+        text: `Envelope map: ${meta.label.toLowerCase()}`,
+        subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm${leans}; click a cell to go there`,
+        left: 8,
+        top: 4,
+        textStyle: { fontSize: 13 },
+        subtextStyle: { fontSize: 11, color: '#4f5b62' },
+      },
+      ...extraTitles,
+    ],
+    grid,
     tooltip: {
       confine: true,
       formatter: (p: { seriesType?: string; value?: number[] }) => {
@@ -251,43 +371,25 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
       },
     },
     legend: {
-      data: [
-        { name: REGION_SERIES, icon: 'path://M0,0h6v2h-6zM9,0h6v2h-6zM18,0h6v2h-6z' },
-        ...(map.balancedLines.length ? [{ name: BALANCED_SERIES, icon: 'path://M0,0h24v2h-24z' }] : []),
-      ],
+      data: legendItems,
       orient: 'vertical',
       right: 8,
-      // Under the colour key (five rows of 10 px and 4 px gaps from 58 px).
-      top: 58 + LEVELS.length * 14 + 12,
+      // Under the colour key: the five verdicts (rows of 10 px and 4 px gaps from 58 px), or the
+      // value scale (its heading, bar and end numbers; fitLayout.ts shortens the bar in a low box).
+      top: numeric ? 58 + headingPx + 120 + 2 * 15 + 10 : 58 + LEVELS.length * 14 + 12,
       itemGap: 6,
       itemWidth: 24,
-      itemHeight: 3,
+      itemHeight: numeric ? 6 : 3,
       selectedMode: false,
       textStyle: { fontSize: 11 },
     },
     xAxis: [
       // onZero off: with the value axes beside them, the category axes would otherwise sit at handlebar 0.
-      { type: 'category', name: 'lean (deg, right side down +)', nameLocation: 'middle', nameGap: 28, data: map.lean.map(label), splitArea: { show: false }, axisLine: { onZero: false } },
+      { type: 'category', name: oneColumn ? 'lean (deg)' : 'lean (deg, right side down +)', nameLocation: 'middle', nameGap: 28, data: map.lean.map(label), splitArea: { show: false }, axisLine: { onZero: false } },
       hidden(xs),
     ],
     yAxis: [{ type: 'category', name: 'handlebar (deg, left +)', nameLocation: 'middle', nameGap: 40, data: map.handlebar.map(label), axisLine: { onZero: false } }, hidden(ys)],
-    visualMap: {
-      type: 'piecewise',
-      dimension: 2,
-      seriesIndex: 0,
-      orient: 'vertical',
-      right: 8,
-      top: 58,
-      itemGap: 4,
-      itemWidth: 14,
-      itemHeight: 10,
-      textStyle: { fontSize: 11 },
-      pieces: LEVELS.map((s, i) => ({
-        value: i,
-        label: `${SEVERITY_STYLE[s].glyph} ${s === 'none' ? 'no value' : SEVERITY_STYLE[s].word}`,
-        color: s === 'none' ? '#d5d9d2' : SEVERITY_STYLE[s].colour,
-      })),
-    },
+    visualMap,
     series,
   };
 }

@@ -7,7 +7,8 @@ import { describe, expect, it } from 'vitest';
 import { renderOptionToSvg } from '../../../core/report/charts/renderSvg';
 import { CURVE_CHARTS, curveOption, jointLimitLines, camberLegendName, jointLegendName } from '../../../core/report/charts/curveOptions';
 import { EM_WIDTH, fitAxisName, fitToSize, legendLines } from '../../../core/report/charts/fitLayout';
-import { computeCurves } from '../../../core/report/chartSweeps';
+import { computeCurves, computeMap } from '../../../core/report/chartSweeps';
+import { heatMapOption } from '../../../core/report/charts/heatMapOptions';
 import { demoDesign } from '../../renderer/helpers';
 
 export interface Box {
@@ -124,5 +125,66 @@ describe('curve charts a designer can read', () => {
     expect(fitAxisName('self-steer (deg, left +)', 400)).toBe('self-steer (deg, left +)');
     expect(fitAxisName('self-steer (deg, left +)', 130)).toBe('self-steer (deg)');
     expect(fitAxisName('ratio (deg/deg)', 60)).toBe('deg/deg');
+  });
+});
+
+describe('envelope map a designer can read', () => {
+  const heron = computeMap({ design: demoDesign('heron-tilting-velomobile'), angleStepDeg: 5 });
+  const wren = computeMap({ design: demoDesign('wren-rack-trike'), angleStepDeg: 5 });
+  type Opt = { visualMap: Record<string, unknown>; series: Record<string, unknown>[]; grid: Record<string, unknown>; title: { text: string }[] };
+
+  it('a numeric measure gets a continuous scale spanning its values, named with its unit; the verdict keeps its categories', () => {
+    const o = heatMapOption(heron, 'slip') as unknown as Opt;
+    const values = heron.cells.map((c) => c.values.slip).filter((v): v is number => v !== null);
+    expect(o.visualMap.type).toBe('continuous');
+    expect(o.visualMap.min).toBe(Math.min(...values));
+    expect(o.visualMap.max).toBe(Math.max(...values));
+    expect(o.title.map((t) => t.text).join(' ')).toContain('Worst slip (toe mismatch) (deg)');
+    // Every cell drawn once: with its number, or in a category of its own when it has none.
+    const drawn = o.series.filter((s) => s.type === 'heatmap').reduce((n, s) => n + (s.data as unknown[]).length, 0);
+    expect(drawn).toBe(heron.cells.length);
+    expect((heatMapOption(heron, 'status') as unknown as Opt).visualMap.type).toBe('piecewise');
+    // Smaller is worse for a margin: the ramp runs the other way.
+    const ramp = (m: 'slip' | 'jointMargin') => ((heatMapOption(heron, m) as unknown as Opt).visualMap.inRange as { color: string[] }).color;
+    expect(ramp('jointMargin')).toEqual([...ramp('slip')].reverse());
+  });
+
+  it('cell numbers are written when the cells are big enough, and never on top of each other', () => {
+    const o = heatMapOption(heron, 'slip', { leanDeg: 0, handlebarDeg: 0 });
+    const big = renderOptionToSvg(o, 900, 520);
+    const cellTexts = (svg: string) => textBoxes(svg).filter((b) => /^-?\d+\.\d+$/.test(b.text));
+    expect(cellTexts(big).length).toBeGreaterThanOrEqual(heron.cells.length * 0.9);
+    const small = renderOptionToSvg(o, 900, 250);
+    expect(cellTexts(small)).toEqual([]);
+    for (const [w, h] of [
+      [900, 520],
+      [720, 420],
+      [900, 250],
+    ]) {
+      const boxes = textBoxes(renderOptionToSvg(o, w, h));
+      // Speed labels sit over the cells on purpose (with a background); everything else is apart.
+      const words = boxes.filter((b) => !/km\/h$/.test(b.text) && !/^-?\d+\.\d+$/.test(b.text));
+      expect(overlaps(words), `${w}x${h}`).toEqual([]);
+      for (const b of boxes) expect(b.x0 >= -1 && b.x1 <= w + 1 && b.y0 >= -1 && b.y1 <= h + 1, `${w}x${h}: ${b.text}`).toBe(true);
+    }
+  });
+
+  it('the current-pose marker stays inside the map, half a cell from its edge at the most', () => {
+    const o = heatMapOption(heron, 'status', { leanDeg: 90, handlebarDeg: -90 }) as unknown as Opt;
+    const m = o.series.find((s) => s.name === 'now')!;
+    const [x, y] = (m.data as number[][])[0];
+    expect(x).toBe(heron.lean[heron.lean.length - 1]);
+    expect(y).toBe(heron.handlebar[0]);
+    expect(m.z as number).toBeGreaterThan(2);
+  });
+
+  it('a vehicle that does not lean: one narrow column and a sentence saying why', () => {
+    expect(wren.lean).toEqual([0]);
+    const o = heatMapOption(wren, 'status') as unknown as Opt;
+    expect(o.grid.width).toBeLessThanOrEqual(80);
+    expect(o.title.map((t) => t.text).join(' ')).toMatch(/does not lean/);
+    const boxes = textBoxes(renderOptionToSvg(o as never, 720, 300));
+    expect(overlaps(boxes)).toEqual([]);
+    for (const b of boxes) expect(b.x0 >= -1 && b.x1 <= 721, b.text).toBe(true);
   });
 });
