@@ -16,6 +16,7 @@ import { useActions } from './workbenchContext';
 import { Splitter } from './Splitter';
 import { usePanelSizes } from './usePanelSizes';
 import { sizeStyle } from '../model/panelSizes';
+import { useAfterFirstFrame } from '../charts/afterFirstFrame';
 
 /** The charts (ECharts) load after the workbench is up, in their own chunk. */
 const PlotsPanel = lazy(() => import('../charts/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
@@ -29,6 +30,7 @@ function typingInField(target: EventTarget | null): boolean {
 
 export function App({ playback }: { playback: PlaybackController }) {
   const actions = useActions();
+  const plotsReady = useAfterFirstFrame();
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       const mod = e.ctrlKey || e.metaKey;
@@ -67,9 +69,13 @@ export function App({ playback }: { playback: PlaybackController }) {
       <main className="centre">
         <Viewport />
         <Splitter orientation="horizontal" label="Height of the plots" size={measure('.plots', 'offsetHeight')} sign={-1} onSize={layout.setPlots} onReset={() => layout.reset('plotsPx')} testId="split-plots" />
-        <Suspense fallback={<section className="plots" aria-label="Plots" aria-busy="true" />}>
-          <PlotsPanel />
-        </Suspense>
+        {plotsReady ? (
+          <Suspense fallback={<section className="plots" aria-label="Plots" aria-busy="true" />}>
+            <PlotsPanel />
+          </Suspense>
+        ) : (
+          <section className="plots" aria-label="Plots" aria-busy="true" />
+        )}
       </main>
       <Splitter orientation="vertical" label="Width of the right column" size={measure('.right-side', 'offsetWidth')} sign={-1} onSize={(px) => layout.setSide('rightPx', px)} onReset={() => layout.reset('rightPx')} testId="split-right" />
       <aside className="side right-side" aria-label="Design">

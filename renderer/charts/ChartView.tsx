@@ -47,7 +47,9 @@ export function ChartView({ option, onClick, testId }: { option: EChartsCoreOpti
   useEffect(() => {
     shown.current = option;
     const node = el.current;
-    chart.current?.setOption(node ? fitToSize(option, node.clientWidth, node.clientHeight) : option, { notMerge: true, lazyUpdate: true });
+    // Drawn at once, not on ECharts' next animation frame: with software compositing a frame can
+    // take 50-90 ms, and a new result should show in the frame that follows it.
+    chart.current?.setOption(node ? fitToSize(option, node.clientWidth, node.clientHeight) : option, { notMerge: true, lazyUpdate: false });
   }, [option]);
 
   return <div ref={el} className="chart" data-testid={testId} />;

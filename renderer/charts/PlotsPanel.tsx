@@ -4,7 +4,7 @@
  * current pose; clicking a map cell moves the sliders there. The tab and the map's choices
  * are the UI store's `plots`; the results are the jobs store's.
  */
-import { useEffect, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useActions, useDocument, useJobs, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { MAP_RESOLUTIONS, type JobProgress, type MapResolution } from '../state/jobsStore';
 import { setPlots } from '../state/uiStore';
@@ -18,10 +18,13 @@ import { heldRanges, withHeldRanges } from '../../core/report/charts/axisRange';
 import { useReferenceCurves, useReferenceMap } from '../studies/useReferenceCurves';
 
 /**
- * Quiet time after an edit before the charts are recomputed, ms: short, so the plots follow a
- * typed edit at once (a gizmo drag recomputes when the drag ends, not on each move).
+ * Quiet time after an edit before the charts are recomputed, ms, when edits come in a burst
+ * (a held arrow key, repeated undo); an edit after a quiet spell recomputes at once. A gizmo
+ * drag recomputes when the drag ends, not on each move.
  */
 const RECOMPUTE_DELAY_MS = 40;
+/** No job asked for this long: the next edit recomputes without waiting, ms. */
+const QUIET_BEFORE_MS = 300;
 /** The charts' marker follows the pose once it has been still this long, ms. */
 const MARKER_SETTLE_MS = 250;
 
@@ -68,20 +71,54 @@ function useSettledMarker(): ChartMarker {
   return marker;
 }
 
-/** Asks the jobs for what the open tab shows, once the design has been still for a moment. */
+/**
+ * Asks the jobs for what the open tab shows when the design changes (at once after a quiet
+ * spell, else once edits pause). The document store is followed directly, not through a React
+ * render: the job starts in the edit's own task, not after the next painted frame.
+ */
 function useRecompute(): void {
-  const { jobs } = useWorkbenchApi();
+  const wb = useWorkbenchApi();
   const { open, tab, resolution } = useUi((s) => s.plots);
   const revision = useDocument((s) => s.revision);
   const valid = usePose((s) => s.resolved !== null);
   const dragging = useUi((s) => s.dragging);
   // The revision last asked for: a job running, done, failed or cancelled for it is not asked again.
   const asked = useJobs((s) => (tab === 'map' ? s.map : s.curves).request?.revision);
+  const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
+  const lastAskAt = useRef(-Infinity);
+  const schedule = useCallback(() => {
+    const wanted = () => {
+      const { open, tab } = wb.ui.getState().plots;
+      const rev = wb.document.getState().revision;
+      const slot = wb.jobs.store.getState()[tab === 'map' ? 'map' : 'curves'];
+      return open && !wb.ui.getState().dragging && wb.pose.getState().resolved !== null && slot.request?.revision !== rev;
+    };
+    const ask = () => {
+      if (!wanted()) return;
+      lastAskAt.current = performance.now();
+      const { tab, resolution } = wb.ui.getState().plots;
+      if (tab === 'map') wb.jobs.runMap(resolution);
+      else wb.jobs.runCurves();
+    };
+    if (!wanted()) return;
+    clearTimeout(timer.current);
+    // After a quiet spell the job goes to the worker now, to run while the page re-renders.
+    if (performance.now() - lastAskAt.current > QUIET_BEFORE_MS) ask();
+    else timer.current = setTimeout(ask, RECOMPUTE_DELAY_MS);
+  }, [wb]);
   useEffect(() => {
-    if (!valid || !open || dragging || asked === revision) return;
-    const t = setTimeout(() => (tab === 'map' ? jobs.runMap(resolution) : jobs.runCurves()), RECOMPUTE_DELAY_MS);
-    return () => clearTimeout(t);
-  }, [jobs, revision, tab, valid, open, dragging, asked, resolution]);
+    const off = wb.document.subscribe((s, prev) => {
+      if (s.revision !== prev.revision) schedule();
+    });
+    return () => {
+      off();
+      clearTimeout(timer.current);
+    };
+  }, [wb, schedule]);
+  // The tab, its choices, a drag's end or a design that solves again.
+  useEffect(() => {
+    if (valid && open && !dragging && asked !== revision) schedule();
+  }, [schedule, revision, tab, valid, open, dragging, asked, resolution]);
 }
 
 /**
