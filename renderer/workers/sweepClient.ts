@@ -5,7 +5,8 @@
  *
  * Speed: a worker that was terminated mid-job is replaced by a spare that has already loaded
  * its module (started while the client was idle), so the job after a cancel does not wait for
- * a module load; a worker that is idle when a job is cancelled is kept (nothing to stop).
+ * a module load; a worker that is idle when a job is cancelled is kept (nothing to stop). The
+ * spare repeats the last curves or map job once, unanswered, so its JIT is warm too.
  */
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
 import type { CurveRequest, MapRequest } from './sweepJobs';
@@ -34,6 +35,8 @@ export type WorkerFactory = () => Worker;
 
 /** Quiet time after a job before the spare worker is started, ms. */
 const SPARE_DELAY_MS = 200;
+/** The id of a spare worker's warm-up job (real jobs count from 1). */
+const WARM_UP_ID = 0;
 
 export const defaultWorkerFactory: WorkerFactory = () => new Worker(new URL('./sweepWorker.ts', import.meta.url), { type: 'module', name: 'tiltbench-sweeps' });
 
@@ -43,6 +46,8 @@ export class SweepClient {
   private spare: Worker | null = null;
   private spareTimer: ReturnType<typeof setTimeout> | null = null;
   private pending: Pending | null = null;
+  /** The last curves or map job asked for (cheap to repeat): a new spare worker's warm-up. */
+  private lastChartJob: SweepRequest | null = null;
   private nextId = 1;
   private workerBroken = false;
 
@@ -117,6 +122,9 @@ export class SweepClient {
           if (this.spare === w) this.spare = null;
           w.terminate();
         };
+        // Its JIT warmed on the last chart job (a cold worker's first sweep runs several times
+        // slower); id 0 is never a real job's, so the answer is ignored.
+        if (this.lastChartJob) w.postMessage({ ...this.lastChartJob, id: WARM_UP_ID });
         this.spare = w;
       } catch {
         // No spare: the next worker is made on demand.
@@ -157,6 +165,7 @@ export class SweepClient {
 
   private run(req: SweepRequest, progress?: (done: number, total: number) => void): Promise<unknown> {
     if (this.pending) this.cancel();
+    if (req.kind === 'curves' || req.kind === 'map') this.lastChartJob = req;
     return new Promise((resolve, reject) => {
       const p: Pending = { id: req.id, request: req, resolve, reject, progress, heard: false };
       this.pending = p;

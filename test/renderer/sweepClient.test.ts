@@ -55,10 +55,15 @@ class FakeWorker {
   onerror: ((e: ErrorEvent) => void) | null = null;
   dead = false;
   private timer: ReturnType<typeof setTimeout> | undefined;
+  /** The ids of the jobs posted to this worker. */
+  readonly posted: number[] = [];
   constructor(private readonly delayMs: number) {
     FakeWorker.made++;
+    FakeWorker.all.push(this);
   }
+  static all: FakeWorker[] = [];
   postMessage(req: { id: number; kind: 'map'; request: Parameters<typeof computeMap>[0] }): void {
+    this.posted.push(req.id);
     this.timer = setTimeout(() => {
       if (!this.dead) this.onmessage?.({ data: { id: req.id, type: 'done', data: computeMap(req.request) } } as MessageEvent);
     }, this.delayMs);
@@ -84,9 +89,12 @@ describe('sweep client keeps a worker warm', () => {
     // Cancelling with nothing running stops no worker.
     client.cancel();
     expect(FakeWorker.terminated).toBe(0);
-    // A spare is started a moment after the job ended.
+    // A spare is started a moment after the job ended, and warmed on the last job (id 0,
+    // whose answer nobody waits for).
     await wait(300);
     expect(FakeWorker.made).toBe(2);
+    const spare = FakeWorker.all.at(-1)!;
+    expect(spare.posted).toEqual([0]);
     // A job cancelled mid-way: its worker is terminated and the spare takes the next job, so no
     // worker is made for it.
     const stale = client.map(request);
@@ -95,6 +103,8 @@ describe('sweep client keeps a worker warm', () => {
     expect(FakeWorker.terminated).toBe(1);
     expect(FakeWorker.made).toBe(2);
     const map = await fresh;
+    expect(spare.posted.length).toBe(2);
+    expect(spare.posted[1]).toBeGreaterThan(0);
     expect({ ...map, elapsedMs: 0 }).toEqual({ ...computeMap(request), elapsedMs: 0 });
     client.dispose();
     expect(FakeWorker.terminated).toBe(FakeWorker.made);
