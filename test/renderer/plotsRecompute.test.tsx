@@ -6,6 +6,8 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { PlotsPanel } from '../../renderer/charts/PlotsPanel';
 import { FIRST_FRAME_WAIT_MS, useAfterFirstFrame } from '../../renderer/charts/afterFirstFrame';
 import { SweepClient } from '../../renderer/workers/sweepClient';
+import type { CurveRequest } from '../../renderer/workers/sweepJobs';
+import type { CurveSet } from '../../core/report/charts/chartData';
 import { createWorkbench } from '../../renderer/state/workbench';
 import { designToText } from '../../renderer/model/designText';
 import { demoDesign, withWorkbench } from './helpers';
@@ -18,8 +20,8 @@ class RecordingClient extends SweepClient {
   constructor() {
     super(null);
   }
-  override curves(request: { revision?: number }): Promise<never> {
-    this.asked.push((request as { revision: number }).revision);
+  override curves(request: CurveRequest): Promise<CurveSet> {
+    this.asked.push((request as CurveRequest & { revision: number }).revision);
     return new Promise(() => {});
   }
 }
