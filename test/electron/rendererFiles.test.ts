@@ -46,8 +46,9 @@ function fakeApi(over: Partial<TiltbenchApi> = {}) {
         requests.push(resolve);
         refuse = reject;
       }),
+    saveReportPdf: async () => null,
     ...over,
-  };
+  } as TiltbenchApi;
   const handOver = async (r: OpenRequest): Promise<void> => {
     await vi.waitFor(() => expect(requests.length).toBeGreaterThan(0));
     requests.shift()!(r);
