@@ -28,11 +28,11 @@ echarts.use([
 // the SVG is usually shown in, so legend items ran into each other: here (no document: Node, a
 // worker) every glyph counts as EM_WIDTH of the font size, the generous width fitLayout.ts
 // also lays out with (common practice, no source).
-if (typeof document === 'undefined') {
+if (typeof (globalThis as { document?: unknown }).document === 'undefined') {
   echarts.setPlatformAPI({
     measureText: (text: string, font?: string) => {
       const size = /(\d+(?:\.\d+)?)px/.exec(font ?? '');
-      return { width: (text ?? '').length * (size ? Number(size[1]) : 12) * EM_WIDTH } as TextMetrics;
+      return { width: (text ?? '').length * (size ? Number(size[1]) : 12) * EM_WIDTH };
     },
   });
 }
