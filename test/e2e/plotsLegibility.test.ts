@@ -62,7 +62,10 @@ const STRIP_TEXTS = `(() => {
     const r = t.getBoundingClientRect();
     if (r.width < 1 || r.height < 1 || !t.textContent.trim() || !visible(t)) continue;
     if (Number(t.getAttribute('fill-opacity') ?? 1) === 0 || Number(t.getAttribute('opacity') ?? 1) === 0) continue;
-    out.push({ text: t.textContent, x0: r.left, y0: r.top, x1: r.right, y1: r.bottom, svg: true });
+    // The box is the glyphs' height (the font size about the line's middle), not the font's whole line box, whose ascent and descent stacked tick labels share without touching.
+    const fs = parseFloat(getComputedStyle(t).fontSize) || r.height;
+    const mid = (r.top + r.bottom) / 2;
+    out.push({ text: t.textContent, x0: r.left, y0: mid - Math.min(fs, r.height) / 2, x1: r.right, y1: mid + Math.min(fs, r.height) / 2, svg: true });
   }
   const walker = document.createTreeWalker(strip, NodeFilter.SHOW_TEXT);
   for (let n = walker.nextNode(); n; n = walker.nextNode()) {
@@ -98,11 +101,11 @@ const TABS = `(() => {
   });
 })()`;
 
-/** The map's current-pose marker (the circle drawn in the marker's colour) and the box of the map's cells. */
+/** The map's current-pose marker (ECharts' unit circle symbol, scaled, stroked in the marker's colour) and the box of the map's cells. */
 const MARKER_AND_CELLS = `(() => {
   const svg = document.querySelector('[data-testid=chart-map] svg');
   if (!svg) return null;
-  const marker = [...svg.querySelectorAll('path')].find((p) => (p.getAttribute('stroke') || '').toLowerCase() === '#0f62c9' && Number(p.getAttribute('stroke-width')) === 3);
+  const marker = [...svg.querySelectorAll('path')].find((p) => (p.getAttribute('stroke') || '').toLowerCase() === '#0f62c9' && /^M1 0A1 1/.test(p.getAttribute('d') || ''));
   const cells = [...svg.querySelectorAll('path')].filter((p) => (p.getAttribute('stroke') || '').toLowerCase() === '#fbfbf8' && p.getAttribute('fill') && p.getAttribute('fill') !== 'none');
   if (!marker || cells.length === 0) return { marker: Boolean(marker), cells: cells.length };
   const m = marker.getBoundingClientRect();

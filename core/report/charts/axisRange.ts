@@ -66,8 +66,11 @@ export function keepLimitsInView(option: EChartsCoreOption): EChartsCoreOption {
     const lo = Math.min(...limits.map(room));
     const hi = Math.max(...limits.map(room));
     const fixedMin = typeof axis.min === 'number' ? axis.min : null;
+    // An end found here need not be a tick: its label is left out (it would crowd the tick beside it).
+    const labels = { ...(axis.axisLabel as Record<string, unknown> | undefined), showMaxLabel: false, ...(fixedMin === null ? { showMinLabel: false } : {}) };
     return {
       ...axis,
+      axisLabel: labels,
       min: fixedMin ?? ((v: { min: number }) => niceOut(Math.min(v.min, lo), -1)),
       max: (v: { max: number }) => niceOut(Math.max(v.max, hi), 1),
     };

@@ -17,6 +17,12 @@ export const CHART_COLOURS = {
 
 export type Pair = [number, number | null];
 
+/** A tick's words: six significant figures at most, float noise below 1e-9 of a unit written as 0. */
+export function tickWords(v: number): string {
+  if (!Number.isFinite(v)) return '';
+  return String(Math.abs(v) < 1e-9 ? 0 : Number(v.toPrecision(6)));
+}
+
 export function axis(name: string, extra: Record<string, unknown> = {}): Record<string, unknown> {
   return {
     type: 'value',
@@ -26,7 +32,8 @@ export function axis(name: string, extra: Record<string, unknown> = {}): Record<
     scale: true,
     axisLine: { lineStyle: { color: '#8a949a' } },
     splitLine: { lineStyle: { color: CHART_COLOURS.grid } },
-    axisLabel: { color: '#4f5b62' },
+    // Labels that would touch are left out (a low strip), and float noise is written as a number (0, not -6e-12).
+    axisLabel: { color: '#4f5b62', hideOverlap: true, margin: 10, formatter: tickWords },
     nameTextStyle: { color: '#4f5b62' },
     ...extra,
   };

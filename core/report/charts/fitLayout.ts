@@ -148,6 +148,16 @@ export function fitToSize(option: EChartsCoreOption, width: number, height: numb
     const ch = (height - ((g.top as number) ?? 0) - ((g.bottom as number) ?? 0)) / Math.max(1, ys?.length ?? 1);
     const cl = heat.cellLabel as { chars: number; fontSize: number };
     const fits = cw >= textWidth('0'.repeat(cl.chars), cl.fontSize) + 6 && ch >= cl.fontSize + 6;
+    // Category labels every k-th cell where cells are lower (narrower) than a label.
+    const every = (room: number, need: number) => Math.max(0, Math.ceil(need / Math.max(room, 1e-6)) - 1);
+    const withInterval = (axes: unknown, k: number) => {
+      const list = asArray(axes as Obj | Obj[]);
+      const first = { ...list[0], axisLabel: { ...(list[0]?.axisLabel as Obj | undefined), interval: k } };
+      return Array.isArray(axes) ? [first, ...list.slice(1)] : first;
+    };
+    out.yAxis = withInterval(out.yAxis, every(ch, 12 + 4));
+    const widest = Math.max(...(xs ?? []).map((v) => textWidth(String(v), 12)), 0);
+    out.xAxis = withInterval(o.xAxis, every(cw, widest + 6));
     out.series = series.map((s) => {
       if (s !== heat) return s;
       const { cellLabel: _hint, ...rest } = s;

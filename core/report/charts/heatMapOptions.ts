@@ -385,10 +385,10 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
     },
     xAxis: [
       // onZero off: with the value axes beside them, the category axes would otherwise sit at handlebar 0.
-      { type: 'category', name: oneColumn ? 'lean (deg)' : 'lean (deg, right side down +)', nameLocation: 'middle', nameGap: 28, data: map.lean.map(label), splitArea: { show: false }, axisLine: { onZero: false } },
+      { type: 'category', name: oneColumn ? 'lean (deg)' : 'lean (deg, right side down +)', nameLocation: 'middle', nameGap: 28, data: map.lean.map(label), splitArea: { show: false }, axisLine: { onZero: false }, axisLabel: { hideOverlap: true } },
       hidden(xs),
     ],
-    yAxis: [{ type: 'category', name: 'handlebar (deg, left +)', nameLocation: 'middle', nameGap: 40, data: map.handlebar.map(label), axisLine: { onZero: false } }, hidden(ys)],
+    yAxis: [{ type: 'category', name: 'handlebar (deg, left +)', nameLocation: 'middle', nameGap: 40, data: map.handlebar.map(label), axisLine: { onZero: false }, axisLabel: { hideOverlap: true } }, hidden(ys)],
     visualMap,
     series,
   };
