@@ -139,15 +139,15 @@ export function fitToSize(option: EChartsCoreOption, width: number, height: numb
   }
   const series = asArray(o.series as Obj | Obj[]);
   const heat = series.find((s) => s.type === 'heatmap');
-  if (heat && heat.cellLabel && grids[0]) {
+  if (heat && grids[0]) {
     const g = grids[0];
     const xs = asArray(o.xAxis as Obj[] | Obj)[0]?.data as unknown[] | undefined;
     const ys = asArray(o.yAxis as Obj[] | Obj)[0]?.data as unknown[] | undefined;
     const gw = typeof g.width === 'number' ? g.width : width - ((num(g.left, width) ?? 0) + (num(g.right, width) ?? 0));
     const cw = gw / Math.max(1, xs?.length ?? 1);
     const ch = (height - ((g.top as number) ?? 0) - ((g.bottom as number) ?? 0)) / Math.max(1, ys?.length ?? 1);
-    const cl = heat.cellLabel as { chars: number; fontSize: number };
-    const fits = cw >= textWidth('0'.repeat(cl.chars), cl.fontSize) + 6 && ch >= cl.fontSize + 6;
+    const cl = heat.cellLabel as { chars: number; fontSize: number } | undefined;
+    const fits = cl !== undefined && cw >= textWidth('0'.repeat(cl.chars), cl.fontSize) + 6 && ch >= cl.fontSize + 6;
     // Category labels every k-th cell where cells are lower (narrower) than a label.
     const every = (room: number, need: number) => Math.max(0, Math.ceil(need / Math.max(room, 1e-6)) - 1);
     const withInterval = (axes: unknown, k: number) => {
@@ -161,7 +161,7 @@ export function fitToSize(option: EChartsCoreOption, width: number, height: numb
     out.series = series.map((s) => {
       if (s !== heat) return s;
       const { cellLabel: _hint, ...rest } = s;
-      return { ...rest, label: { ...(s.label as Obj), show: fits } };
+      return cl ? { ...rest, label: { ...(s.label as Obj), show: fits } } : rest;
     });
   }
   return out as EChartsCoreOption;
