@@ -26,6 +26,7 @@ export function FitPanel() {
   const [eachSide, setEachSide] = useState(true);
   const valid = useMemo(() => new Set(tuneVariableIds(design)), [design]);
   const ids = fitIdsOf(picks, eachSide).filter((id) => valid.has(id));
+  const result = job.state.phase === 'done' ? job.state.data : null;
   const problem = sheet === null ? 'Open a measurement sheet (CSV).' : ids.length === 0 ? 'Tick "vary" on the points that may be off on the built vehicle.' : null;
 
   return (
@@ -60,13 +61,13 @@ export function FitPanel() {
       )}
       {problem && <p className="hint">{problem}</p>}
       <StudyProgress state={job.state} what="fit" onCancel={job.cancel} />
-      {job.state.phase === 'done' && (
+      {result && (
         <FitResult
-          report={job.state.data}
+          report={result}
           stale={job.stale}
-          onPreview={() => previewResult(studies, (job.state as { data: FitReport }).data.fitted, 'fitted to the measurements')}
+          onPreview={() => previewResult(studies, result.fitted, 'fitted to the measurements')}
           onApply={() => {
-            if (adoptResult(actions, studies, design, (job.state as { data: FitReport }).data.fitted, 'apply the fit to the measurements', 'before the fit')) job.reset();
+            if (adoptResult(actions, studies, design, result.fitted, 'apply the fit to the measurements', 'before the fit')) job.reset();
           }}
         />
       )}

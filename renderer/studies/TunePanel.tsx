@@ -30,6 +30,7 @@ export function TunePanel() {
   const usable = picks.filter((p) => validIds.has(p.id));
   const planned = tunePlanOf(design, usable, form);
   const running = job.state.phase === 'running';
+  const result = job.state.phase === 'done' ? job.state.data : null;
 
   const setPick = (id: string, rangeMm: [number, number]) => studies.setState({ picks: picks.map((p) => (p.id === id ? { ...p, rangeMm } : p)) });
   const dropPick = (id: string) => studies.setState({ picks: picks.filter((p) => p.id !== id) });
@@ -139,15 +140,14 @@ export function TunePanel() {
         </p>
       )}
       <StudyProgress state={job.state} what="tune" onCancel={job.cancel} />
-      {job.state.phase === 'done' && (
+      {result && (
         <TuneResult
-          report={job.state.data}
+          report={result}
           stale={job.stale}
-          onPreview={() => previewResult(studies, (job.state as { data: TuneReport }).data.tuned, 'tune result')}
+          onPreview={() => previewResult(studies, result.tuned, 'tune result')}
           onApply={() => {
-            const report = (job.state as { data: TuneReport }).data;
-            const moved = report.variables.filter((v) => Math.abs(v.movedMm) > 0.005).length;
-            if (adoptResult(actions, studies, design, report.tuned, `apply the tune (${moved} coordinates moved)`, 'before the tune')) job.reset();
+            const moved = result.variables.filter((v) => Math.abs(v.movedMm) > 0.005).length;
+            if (adoptResult(actions, studies, design, result.tuned, `apply the tune (${moved} coordinates moved)`, 'before the tune')) job.reset();
           }}
         />
       )}
