@@ -294,8 +294,8 @@ export function PlotsPanel() {
   const curvesProgress = useJobs((s) => s.curves.progress);
   const mapProgress = useJobs((s) => s.map.progress);
   useRecompute();
-  // Leaving the workbench stops whatever is computing.
-  useEffect(() => () => jobs.cancel(), [jobs]);
+  // Leaving the workbench stops whatever is computing; mounted again, the plots ask anew.
+  useEffect(() => () => jobs.cancel({ forget: true }), [jobs]);
   const running = curvesProgress !== null || mapProgress !== null;
 
   return (

@@ -65,11 +65,17 @@ export class Jobs {
     this.run('map', { design, angleStepDeg, revision }, (req, progress) => this.client.map(req, progress));
   }
 
-  /** Stops the running job (its slot keeps its last result). */
-  cancel(): void {
+  /**
+   * Stops the running job (its slot keeps its last result). The stopped job stays counted as
+   * asked for (the user's Cancel is not undone by the plots asking again at once), unless
+   * `forget`: the panel that asked is going away, and the one mounted next asks anew (React's
+   * StrictMode mounts, unmounts and mounts every panel once in a development build).
+   */
+  cancel({ forget = false }: { forget?: boolean } = {}): void {
     this.client.cancel();
-    this.settle('curves', {});
-    this.settle('map', {});
+    const running = (kind: JobKind) => (forget && this.store.getState()[kind].progress !== null ? { request: null } : {});
+    this.settle('curves', running('curves'));
+    this.settle('map', running('map'));
   }
 
   dispose(): void {
