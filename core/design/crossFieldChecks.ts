@@ -57,6 +57,7 @@ export function checkAcrossFields(d: DesignFile): DesignIssue[] {
   checkUpright(d, r, list);
   checkSteering(d, r, list);
   checkSpring(d, r, list);
+  checkLeanLinkage(d, r, list);
   checkWheels(d, list);
   checkWheelSides(d, r, list);
   checkSizes(d, list);
@@ -268,6 +269,43 @@ function checkSpring(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
       locate(d.spring.armMount, r.spring.armMount, 'spring.armMount', side),
       'the spring runs between them',
     );
+  }
+}
+
+/**
+ * The balance-beam lean linkage: on split wishbones of a tilting vehicle only (its push links
+ * act on one wishbone per side, and it exists to let the frame lean); its points must define
+ * the slide, the rocker's arms, the links and their arms on the wishbones.
+ */
+function checkLeanLinkage(d: DesignFile, r: ResolvedDesign, list: IssueList): void {
+  const l = d.leanLinkage;
+  const rl = r.leanLinkage;
+  if (!l || !rl) return;
+  if (d.frontEnd.kind !== 'splitWishbones') {
+    list.expected('leanLinkage', "split wishbones (frontEnd.kind \"splitWishbones\"): the push links act on one wishbone per side", `frontEnd.kind "${d.frontEnd.kind}"`);
+  }
+  if (!d.vehicle.tilting) {
+    list.expected('leanLinkage', 'a tilting vehicle (vehicle.tilting true): the linkage lets the frame lean', 'vehicle.tilting false');
+  }
+  list.distinct(fixed(rl.carrier.frameMount, 'leanLinkage.carrier.frameMount'), fixed(rl.carrier.carrierMount, 'leanLinkage.carrier.carrierMount'),
+    'the carrier slides along the line between them');
+  if (rl.actuator) {
+    list.distinct(fixed(rl.actuator.frameMount, 'leanLinkage.actuator.frameMount'), fixed(rl.actuator.rockerMount, 'leanLinkage.actuator.rockerMount'),
+      'the actuator runs between them');
+  }
+  for (const side of SIDES) {
+    const joint = locate(l.rocker.linkJoint, rl.rocker.linkJoint, 'leanLinkage.rocker.linkJoint', side);
+    const arm = locate(l.pushLinks.armJoint, rl.pushLinks.armJoint, 'leanLinkage.pushLinks.armJoint', side);
+    list.offLine(joint, fixed(rl.rocker.pivot, 'leanLinkage.rocker.pivot'), { direction: rl.rocker.axis, path: 'leanLinkage.rocker.axis' },
+      'a joint on the pivot axis would give the rocker no arm');
+    list.distinct(joint, arm, 'the push link runs between them');
+    if (d.frontEnd.kind === 'splitWishbones' && r.frontEnd.kind === 'splitWishbones') {
+      const on = l.pushLinks.on;
+      const w = r.frontEnd[on];
+      list.offLine(arm, locate(d.frontEnd[on].frontPivot, w.frontPivot, `frontEnd.${on}.frontPivot`, side),
+        locate(d.frontEnd[on].rearPivot, w.rearPivot, `frontEnd.${on}.rearPivot`, side),
+        'a push link on the wishbone pivot axis could not turn the wishbone');
+    }
   }
 }
 

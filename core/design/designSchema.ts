@@ -198,6 +198,32 @@ const spring = object('A spring or damper between the frame and a wishbone (or m
   armMount: sidedPoint('Spring mount on the wishbone (or member)'),
 });
 
+const leanLinkage = object(
+  'A balance-beam lean linkage (split wishbones, tilting vehicles): a carrier sliding in the frame along the spring, a rocker turning on it and a push link per side to a wishbone',
+  {
+    carrier: object('The carrier: it slides in the frame along the line between the spring mounts', {
+      frameMount: point('Spring mount on the frame; the carrier slides along the line from its own mount to this one'),
+      carrierMount: point('Spring mount on the carrier'),
+    }),
+    rocker: object('The rocker (balance beam), on a revolute joint in the carrier', {
+      pivot: point("A point on the rocker's pivot axis"),
+      axis: direction3("Rocker pivot axis (usually along x); the rocker angle is right-handed about it"),
+      linkJoint: sidedPoint("The rocker's ball joint for the push link"),
+      stopDeg: number({ unit: 'deg', description: 'Largest rocker rotation each way relative to the carrier (the lean stops)', exclusiveMin: 0, max: 90 }),
+    }),
+    pushLinks: object('A push link per side: a rigid link with a ball joint at each end, from the rocker to a wishbone', {
+      on: enumOf(['upper', 'lower'], 'Which wishbone the push links act on'),
+      armJoint: sidedPoint("The push link's ball joint on the wishbone"),
+    }),
+    actuator: optional(
+      object('A lean actuator or tilt lock: a length between a frame mount and a rocker mount', {
+        frameMount: point('Actuator mount on the frame'),
+        rockerMount: point('Actuator mount on the rocker'),
+      }),
+    ),
+  },
+);
+
 const parts = object('Radii used to model parts as capsules for clearance checks; missing ones take the defaults', {
   wishboneTubeRadiusMm: optional(positiveMm('Wishbone tube radius')),
   tieRodRadiusMm: optional(positiveMm('Tie rod radius')),
@@ -237,6 +263,7 @@ export const designFileSchema = object('A Tiltbench design ("tilt sheet"). Lengt
   envelope,
   tolerances: optional(tolerances),
   spring: optional(spring),
+  leanLinkage: optional(leanLinkage),
   parts: optional(parts),
   riding: optional(riding),
 });

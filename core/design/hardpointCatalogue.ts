@@ -64,6 +64,18 @@ export function hardpointEntries(d: DesignFile): HardpointEntry[] {
     add('spring.frameMount', 'frame mount', 'Spring');
     add('spring.armMount', 'arm mount', 'Spring');
   }
+  const l = d.leanLinkage;
+  if (l) {
+    add('leanLinkage.carrier.frameMount', 'spring frame mount', 'Lean linkage', false);
+    add('leanLinkage.carrier.carrierMount', 'spring carrier mount', 'Lean linkage', false);
+    add('leanLinkage.rocker.pivot', 'rocker pivot', 'Lean linkage', false);
+    add('leanLinkage.rocker.linkJoint', 'rocker link joint', 'Lean linkage');
+    add('leanLinkage.pushLinks.armJoint', 'push link wishbone joint', 'Lean linkage');
+    if (l.actuator) {
+      add('leanLinkage.actuator.frameMount', 'actuator frame mount', 'Lean linkage', false);
+      add('leanLinkage.actuator.rockerMount', 'actuator rocker mount', 'Lean linkage', false);
+    }
+  }
   return out;
 }
 

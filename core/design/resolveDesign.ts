@@ -15,9 +15,11 @@ import {
   type CrankInput,
   type DesignFile,
   type JointSpec,
+  type LeanLinkage,
   type Joints,
   type PartSizes,
   type PerSide,
+  type ResolvedLeanLinkage,
   type ResolvedDesign,
   type Riding,
   type Sided,
@@ -125,6 +127,24 @@ function resolveJoint(j: JointSpec): ResolvedDesign['joints'][keyof Joints] {
   return { kind: j.kind, ratedDeg: j.ratedDeg, studAxis: resolveSidedVec(j.studAxis) };
 }
 
+function resolveLeanLinkage(l: LeanLinkage): ResolvedLeanLinkage {
+  return {
+    carrier: { frameMount: copyVec(l.carrier.frameMount), carrierMount: copyVec(l.carrier.carrierMount) },
+    rocker: { pivot: copyVec(l.rocker.pivot), axis: copyVec(l.rocker.axis), linkJoint: resolveSidedVec(l.rocker.linkJoint), stopDeg: l.rocker.stopDeg },
+    pushLinks: { on: l.pushLinks.on, armJoint: resolveSidedVec(l.pushLinks.armJoint) },
+    ...(l.actuator ? { actuator: { frameMount: copyVec(l.actuator.frameMount), rockerMount: copyVec(l.actuator.rockerMount) } } : {}),
+  };
+}
+
+function unresolveLeanLinkage(l: ResolvedLeanLinkage): LeanLinkage {
+  return {
+    carrier: { frameMount: copyVec(l.carrier.frameMount), carrierMount: copyVec(l.carrier.carrierMount) },
+    rocker: { pivot: copyVec(l.rocker.pivot), axis: copyVec(l.rocker.axis), linkJoint: compactPoint(l.rocker.linkJoint), stopDeg: l.rocker.stopDeg },
+    pushLinks: { on: l.pushLinks.on, armJoint: compactPoint(l.pushLinks.armJoint) },
+    ...(l.actuator ? { actuator: { frameMount: copyVec(l.actuator.frameMount), rockerMount: copyVec(l.actuator.rockerMount) } } : {}),
+  };
+}
+
 /** Expects a design that passed `validateDesign`. */
 export function resolveDesign(d: DesignFile): ResolvedDesign {
   const frontEnd: ResolvedDesign['frontEnd'] =
@@ -189,6 +209,7 @@ export function resolveDesign(d: DesignFile): ResolvedDesign {
     ...(d.spring
       ? { spring: { on: d.spring.on, frameMount: resolveSidedVec(d.spring.frameMount), armMount: resolveSidedVec(d.spring.armMount) } }
       : {}),
+    ...(d.leanLinkage ? { leanLinkage: resolveLeanLinkage(d.leanLinkage) } : {}),
     parts: withDefaults<PartSizes>(DEFAULT_PART_SIZES, d.parts),
     riding: resolveRiding(d),
   };
@@ -308,6 +329,7 @@ export function unresolveDesign(r: ResolvedDesign): DesignFile {
     ...(r.spring
       ? { spring: { on: r.spring.on, frameMount: compactPoint(r.spring.frameMount), armMount: compactPoint(r.spring.armMount) } }
       : {}),
+    ...(r.leanLinkage ? { leanLinkage: unresolveLeanLinkage(r.leanLinkage) } : {}),
     ...(parts ? { parts } : {}),
     ...(riding ? { riding } : {}),
   };

@@ -233,6 +233,40 @@ export interface SpringMount {
   armMount: Sided<Vec3Mm>;
 }
 
+/**
+ * A balance-beam (rocker) lean linkage for split wishbones on a tilting vehicle: a carrier
+ * slides in the frame along the spring's line (the spring or damper acts between the frame
+ * mount and the carrier mount), a rocker turns on the carrier, and a push link per side joins
+ * the rocker to that side's wishbone. In lean the rocker turns and the spring keeps its length;
+ * in heave the carrier slides and compresses the spring.
+ */
+export interface LeanLinkage {
+  carrier: {
+    /** Spring mount on the frame; the carrier slides along the line from its mount to this one. */
+    frameMount: Vec3Mm;
+    /** Spring mount on the carrier. */
+    carrierMount: Vec3Mm;
+  };
+  rocker: {
+    /** A point on the rocker's pivot axis, in the carrier. */
+    pivot: Vec3Mm;
+    /** Rocker pivot axis (usually along x); the rocker angle is right-handed about it. */
+    axis: Vec3Mm;
+    /** The rocker's ball joint for each side's push link. */
+    linkJoint: Sided<Vec3Mm>;
+    /** Largest rocker rotation each way relative to the carrier (the lean stops), degrees. */
+    stopDeg: number;
+  };
+  pushLinks: {
+    /** Which wishbone each push link acts on. */
+    on: 'upper' | 'lower';
+    /** The push link's ball joint on that wishbone. */
+    armJoint: Sided<Vec3Mm>;
+  };
+  /** A lean actuator or tilt lock: a length between a frame mount and a rocker mount. */
+  actuator?: { frameMount: Vec3Mm; rockerMount: Vec3Mm };
+}
+
 /** Radii used to model parts as capsules for clearance checks. */
 export interface PartSizes {
   wishboneTubeRadiusMm: number;
@@ -281,6 +315,8 @@ export interface DesignFile {
   /** `toeErrorDeg` is the older name of `selfSteerDeg`, read when that is absent. */
   tolerances?: Partial<Tolerances> & { toeErrorDeg?: number };
   spring?: SpringMount;
+  /** A balance-beam lean linkage (split wishbones, tilting vehicles only). */
+  leanLinkage?: LeanLinkage;
   parts?: Partial<PartSizes>;
   /** Missing values take DEFAULT_RIDING; maxLeanDeg defaults to envelope.leanDeg. */
   riding?: Partial<Riding>;
@@ -293,6 +329,14 @@ export const SIDES: readonly Side[] = ['right', 'left'];
 export interface PerSide<T> {
   right: T;
   left: T;
+}
+
+/** A lean linkage with both sides spelled out. */
+export interface ResolvedLeanLinkage {
+  carrier: LeanLinkage['carrier'];
+  rocker: { pivot: Vec3Mm; axis: Vec3Mm; linkJoint: PerSide<Vec3Mm>; stopDeg: number };
+  pushLinks: { on: 'upper' | 'lower'; armJoint: PerSide<Vec3Mm> };
+  actuator?: { frameMount: Vec3Mm; rockerMount: Vec3Mm };
 }
 
 /** A design after validation and resolution: explicit sides, defaults applied. */
@@ -328,6 +372,7 @@ export interface ResolvedDesign {
   envelope: Envelope;
   tolerances: Tolerances;
   spring?: { on: 'upper' | 'lower'; frameMount: PerSide<Vec3Mm>; armMount: PerSide<Vec3Mm> };
+  leanLinkage?: ResolvedLeanLinkage;
   parts: PartSizes;
   /** Always present: defaults filled; maxLeanDeg is 0 for a vehicle that does not tilt. */
   riding: Riding;

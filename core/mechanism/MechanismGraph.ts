@@ -120,8 +120,26 @@ export interface WheelHeadingConstraint extends ConstraintBase {
   target: InputBinding;
 }
 
+/**
+ * The mean lateral position (y) of two wheels' lowest tyre points is zero: both tyres scrub
+ * sideways equally, so the frame's lateral place comes out of the solve (a lean linkage whose
+ * frame may shift sideways). Each wheel as in GroundContactConstraint.
+ */
+export interface MeanContactYConstraint extends ConstraintBase {
+  kind: 'meanContactY';
+  bodyA: number;
+  centreA: Vec3;
+  spinAxisA: Vec3;
+  bodyB: number;
+  centreB: Vec3;
+  spinAxisB: Vec3;
+  rollingRadius: number;
+  crownRadius: number;
+}
+
 export type Constraint =
   | CoincidentConstraint
+  | MeanContactYConstraint
   | DistanceConstraint
   | GroundContactConstraint
   | PointHeightConstraint

@@ -12,7 +12,7 @@
 import type { LeastSquaresProblem } from './levenbergMarquardt';
 import type { MechanismGraph } from '../mechanism/MechanismGraph';
 import { KIND_PRISMATIC, KIND_SPHERICAL, KinematicTree } from './KinematicTree';
-import { C_COINCIDENT, C_DISTANCE, C_GROUND, C_HEADING, C_HEIGHT, compileConstraint, type CompiledConstraint } from './compiledConstraint';
+import { C_COINCIDENT, C_DISTANCE, C_GROUND, C_HEADING, C_HEIGHT, C_MEAN_Y, compileConstraint, type CompiledConstraint } from './compiledConstraint';
 
 /** Heading residuals (radians) are scaled by this length so every row reads in mm. */
 export const HEADING_RESIDUAL_MM_PER_RAD = 1000;
@@ -175,10 +175,25 @@ export class CompiledMechanism extends KinematicTree implements LeastSquaresProb
           r[i] = wrapAngle(psi - c.gain * this.inputVec[c.inputIndex]) * HEADING_RESIDUAL_MM_PER_RAD;
           break;
         }
+        case C_MEAN_Y:
+          r[i] = 0.5 * (this.contactY(c.bodyA, c.pA, c.pB, c.rolling - c.crown) + this.contactY(c.bodyB, c.pC, c.pD, c.rolling - c.crown));
+          break;
       }
     }
     for (let k = 0; k < this.nResiduals; k++) if (!Number.isFinite(r[k])) return false;
     return true;
+  }
+
+  /**
+   * y of a wheel's lowest tyre point: centre + k d, d the unit downward direction in the wheel
+   * plane, (a_z a - z) / sqrt(1 - a_z^2), whose y is a_z a_y / s (the crown's -r z adds no y).
+   */
+  private contactY(b: number, centre: Float64Array, axis: Float64Array, k: number): number {
+    const { pa, dir } = this;
+    this.place(b, centre, pa);
+    this.turn(b, axis, dir);
+    const s = Math.sqrt(Math.max(1e-300, 1 - dir[2] * dir[2]));
+    return pa[1] + (k * dir[2] * dir[1]) / s;
   }
 
   /** z coordinate of world point w in body f's design frame. */
@@ -213,6 +228,10 @@ export class CompiledMechanism extends KinematicTree implements LeastSquaresProb
           break;
         case C_HEADING:
           this.headingRowJacobian(c, jac, n);
+          break;
+        case C_MEAN_Y:
+          this.contactYJacobian(c.row, c.bodyA, c.pA, c.pB, c.rolling - c.crown, jac, n);
+          this.contactYJacobian(c.row, c.bodyB, c.pC, c.pD, c.rolling - c.crown, jac, n);
           break;
       }
     }
@@ -354,6 +373,34 @@ export class CompiledMechanism extends KinematicTree implements LeastSquaresProb
     }
   }
 
+  /**
+   * Half the derivative of one wheel's contact y (contactY) into row i: the centre moves with
+   * the screw's velocity, the axis turns by w x a; d/da_y = k a_z / s, d/da_z = k a_y / s^3.
+   */
+  private contactYJacobian(i: number, b: number, centre: Float64Array, axis: Float64Array, k: number, jac: Float64Array, n: number): void {
+    const { pa, dir, chainStart, chainVars, varAxis: A, varOrigin: O, varRot } = this;
+    this.place(b, centre, pa);
+    this.turn(b, axis, dir);
+    const s2 = Math.max(1e-300, 1 - dir[2] * dir[2]);
+    const s = Math.sqrt(s2);
+    const gy = (k * dir[2]) / s;
+    const gz = (k * dir[1]) / (s * s2);
+    const cb = b < 0 ? this.nBodies + 1 : b;
+    for (let q = chainStart[cb]; q < chainStart[cb + 1]; q++) {
+      const v = chainVars[q];
+      if (varRot[v]) {
+        const ax = A[3 * v], ay = A[3 * v + 1], az = A[3 * v + 2];
+        const dx = pa[0] - O[3 * v], dz = pa[2] - O[3 * v + 2];
+        const vy = az * dx - ax * dz;
+        const day = az * dir[0] - ax * dir[2];
+        const daz = ax * dir[1] - ay * dir[0];
+        jac[i * n + v] += 0.5 * (vy + gy * day + gz * daz);
+      } else {
+        jac[i * n + v] += 0.5 * A[3 * v + 1];
+      }
+    }
+  }
+
   /** Columns each residual row can touch: the unknowns in the chains of its bodies. */
   jacobianPattern(): Int32Array[] {
     const nb = this.nBodies;
@@ -363,7 +410,7 @@ export class CompiledMechanism extends KinematicTree implements LeastSquaresProb
       return Array.from(this.chainVars.subarray(this.chainStart[c], this.chainStart[c + 1]));
     };
     for (const c of this.constraints) {
-      const cols = new Set<number>([...chain(c.bodyA), ...(c.code === C_COINCIDENT || c.code === C_DISTANCE || c.code === C_HEIGHT ? chain(c.bodyB) : [])]);
+      const cols = new Set<number>([...chain(c.bodyA), ...(c.code === C_COINCIDENT || c.code === C_DISTANCE || c.code === C_HEIGHT || c.code === C_MEAN_Y ? chain(c.bodyB) : [])]);
       const arr = Int32Array.from([...cols].sort((x, y) => x - y));
       for (let k = 0; k < c.rows; k++) rows.push(arr);
     }

@@ -11,6 +11,7 @@ export const C_DISTANCE = 1;
 export const C_GROUND = 2;
 export const C_HEIGHT = 3;
 export const C_HEADING = 4;
+export const C_MEAN_Y = 5;
 
 /** Every constraint kind in one shape (unused fields stay zero), so the loops see one hidden class. */
 export interface CompiledConstraint {
@@ -21,6 +22,9 @@ export interface CompiledConstraint {
   pA: Float64Array;
   bodyB: number;
   pB: Float64Array;
+  /** Second wheel's centre and spin axis (mean contact y only). */
+  pC: Float64Array;
+  pD: Float64Array;
   length: number;
   rolling: number;
   crown: number;
@@ -39,6 +43,8 @@ export function compileConstraint(c: Constraint, row: number, nb: number): Compi
     pA: new Float64Array(3),
     bodyB: -1,
     pB: new Float64Array(3),
+    pC: new Float64Array(3),
+    pD: new Float64Array(3),
     length: 0,
     rolling: 0,
     crown: 0,
@@ -89,6 +95,17 @@ export function compileConstraint(c: Constraint, row: number, nb: number): Compi
       base.pB.set(unit(c.spinAxis));
       base.gain = c.target.gain;
       base.inputIndex = INPUT_NAMES.indexOf(c.target.input);
+      break;
+    case 'meanContactY':
+      base.code = C_MEAN_Y;
+      base.bodyA = checkBody(c.bodyA);
+      base.pA.set(c.centreA);
+      base.pB.set(unit(c.spinAxisA));
+      base.bodyB = checkBody(c.bodyB);
+      base.pC.set(c.centreB);
+      base.pD.set(unit(c.spinAxisB));
+      base.rolling = c.rollingRadius;
+      base.crown = c.crownRadius;
       break;
   }
   return base;

@@ -23,6 +23,7 @@ import { addSteering } from './steeringMechanism';
 import { addUprights } from './uprights';
 import { drawVehicle } from './vehicleDrawing';
 import { addFrontWheels } from './wheelContact';
+import { addLeanLinkage, addMeanContactRow, LEAN_IDS, onGround } from './leanLinkage';
 
 export interface PoseMode {
   /** 'ground': each wheel touches the ground; 'travel': wheel-centre travel is an input. */
@@ -36,6 +37,13 @@ export interface PoseMode {
    * put; they still drive it if given). Left out: the suspension moves.
    */
   hold?: 'suspension';
+  /**
+   * With a lean linkage (design block `leanLinkage`) on the ground: 'rocker' makes the rocker's
+   * angle relative to the carrier the driven input (the tilt lock or lean actuator) and solves
+   * the frame's lean, which is reported as the lean. The leanDeg input then carries the rocker
+   * angle. Left out: leanDeg drives the frame's roll.
+   */
+  leanBy?: 'frame' | 'rocker';
 }
 
 export const DEFAULT_MODE: PoseMode = { contact: 'ground', steerBy: 'handlebar' };
@@ -53,19 +61,28 @@ export function buildMechanism(design: ResolvedDesign, mode: PoseMode = DEFAULT_
   // A centre-pivot parallelogram couples the sides, leaving one travel for two tyres: with
   // both on the ground the heave is solved to put them there; otherwise it is an input.
   const heaveFree = design.frontEnd.kind === 'centrePivot' && mode.contact === 'ground' && !held;
+  const lean = design.leanLinkage !== undefined && design.frontEnd.kind === 'splitWishbones';
+  if (mode.leanBy === 'rocker' && !(lean && onGround(mode))) {
+    throw new Error('the rocker angle can drive the lean only for a design with a lean linkage, tyres on the ground');
+  }
+  // A lean linkage on the ground: the frame's lateral and vertical place come out of the solve
+  // (the spring travel drives the carrier instead, leanLinkage.ts); elsewhere the lateral slide is held.
+  const lateral = lean
+    ? b.addBody(LEAN_IDS.lateral, 'lateral slide', { kind: 'prismatic', parent: -1, origin: [0, 0, 0], axis: [0, 1, 0], ...(onGround(mode) ? {} : { driver: { input: 'heaveMm', gain: 0 } }) })
+    : -1;
   const heave = b.addBody('heave', 'heave slide', {
     kind: 'prismatic',
-    parent: -1,
+    parent: lateral,
     origin: [0, 0, 0],
     axis: [0, 0, 1],
-    ...(heaveFree ? {} : { driver: { input: 'heaveMm', gain: 1 } }),
+    ...(heaveFree || (lean && onGround(mode)) ? {} : { driver: { input: 'heaveMm', gain: 1 } }),
   });
   const frame = b.addBody('frame', 'frame', {
     kind: 'revolute',
     parent: heave,
     origin: [0, 0, 0],
     axis: [1, 0, 0],
-    driver: { input: 'leanDeg', gain: DEG },
+    ...(mode.leanBy === 'rocker' ? { reportsInput: { input: 'leanDeg', gain: DEG } } : { driver: { input: 'leanDeg', gain: DEG } }),
   });
 
   const suspension = addFrontSuspension(b, design, frame, held);
@@ -73,6 +90,10 @@ export function buildMechanism(design: ResolvedDesign, mode: PoseMode = DEFAULT_
   suspension.drawArms(uprights.outerJoints);
   const handlebarAt = addSteering(b, design, frame, uprights, mode);
   addFrontWheels(b, design, frame, uprights, mode);
+  if (lean) {
+    addLeanLinkage(b, design, frame, suspension, mode);
+    addMeanContactRow(b, design, uprights, mode);
+  }
   drawVehicle(b, design, frame, suspension, handlebarAt);
   return b.graph(design.name, frame);
 }
