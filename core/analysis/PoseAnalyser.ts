@@ -30,7 +30,9 @@ import { slipMeasures } from './scrub';
 import { designSign, overallSteeringRatio, rawTransmission, transmissionDeg } from './steeringLinkage';
 import { suspensionGeometry } from './suspensionGeometry';
 import { applyJudgement, noChecks } from './poseVerdict';
-import { turningCircle, turningCircleWithinSlip, type PlanTyre } from './turningCircle';
+import { turningCircle, turningCircleWithinFourWheelSlip, turningCircleWithinSlip, type PlanTyre } from './turningCircle';
+import { fourWheelTurnCentre, rearWheelAlignment, type RearPairMeasures } from './rearPair';
+import type { WheelRef } from '../mechanism/MechanismGraph';
 import { RAD, normalize, sub } from './vec3';
 import { wheelHeading } from '../mechanism/wheelAxis';
 
@@ -117,6 +119,8 @@ export class PoseAnalyser {
   private readonly dragSign: number;
   private readonly tieAxisDesign: Record<Side, Vec3>;
   private readonly rear: PlanTyre[];
+  /** A leaning rear pair's wheels (the graph's `rearWheels`), left then right; null for a rear fixed in the frame. */
+  private readonly rearWheels: { left: WheelRef; right: WheelRef } | null;
   private readonly pivotWorld: Vec3 = [0, 0, 0];
   private readonly lowerJointZ: { left: number; right: number };
   /** Straight-ahead threshold of the inner road-wheel angle (ackermann.ts), degrees. */
@@ -153,6 +157,10 @@ export class PoseAnalyser {
     this.lowerJointZ = { left: design.frontEnd.lower.outerJoint.left.z, right: design.frontEnd.lower.outerJoint.right.z };
     const rt = design.wheels.rear;
     const rearTyre = (y: number): PlanTyre => ({ x: -design.vehicle.wheelbaseMm, y, heading: 0, rollingRadiusMm: rt.rollingRadiusMm, widthMm: rt.tyreWidthMm });
+    const rw = mechanism.graph.rearWheels;
+    const rwl = rw?.find((w) => w.side === 'left');
+    const rwr = rw?.find((w) => w.side === 'right');
+    this.rearWheels = rwl && rwr ? { left: rwl, right: rwr } : null;
     this.rear = design.vehicle.rear.kind === 'pair' ? [rearTyre(design.vehicle.rear.trackMm / 2), rearTyre(-design.vehicle.rear.trackMm / 2)] : [rearTyre(0)];
     const drag = this.reader.designDragLink;
     const driven = drivenLever(design, null);
@@ -174,20 +182,22 @@ export class PoseAnalyser {
     const left = wheelAlignment(g.left, tyre, frame, d.upright.wheelCentre.left.z);
     const right = wheelAlignment(g.right, tyre, frame, d.upright.wheelCentre.right.z);
     const inputs = inputsReport(m);
-    const rearX = -d.vehicle.wheelbaseMm;
-
     const pl = planWheel(left, g.left);
     const pr = planWheel(right, g.right);
+    // A leaning rear pair: its tyres where the solve put them (the rear axle line through their contact centres).
+    const rearPair = this.rearPair(g.frameUp, pl, pr);
+    const rearX = rearPair ? (rearPair.left.contactPatchMm.x + rearPair.right.contactPatchMm.x) / 2 : -d.vehicle.wheelbaseMm;
     const ack = ackermann(pl, pr, rearX, this.straightDeg);
     const slip = slipMeasures(pl, pr, rearX);
-    const tc = turningCircleWithinSlip(turningCircle({
+    const tcFront = turningCircleWithinSlip(turningCircle({
       left: { x: pl.x, y: pl.y, heading: pl.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
       right: { x: pr.x, y: pr.y, heading: pr.heading, rollingRadiusMm: tyre.rollingRadiusMm, widthMm: tyre.tyreWidthMm },
-      rear: this.rear,
+      rear: rearPair ? this.rearTyres(rearPair) : this.rear,
       rearAxleX: rearX,
       bodyOutline: d.vehicle.bodyOutline,
       straightAheadDeg: this.straightDeg,
     }), slip.worstSlipDeg, d.tolerances.slipDeg);
+    const tc = rearPair ? turningCircleWithinFourWheelSlip(tcFront, rearPair.turnCentre.worstSlipDeg, d.tolerances.slipDeg) : tcFront;
 
     const steering = this.steering(g, inputs, left.steerDeg, right.steerDeg);
     const { joints, spin } = this.joints(g);
@@ -237,10 +247,27 @@ export class PoseAnalyser {
       findings: [],
       findingSubjects: [],
     };
+    if (rearPair) analysis.rear = rearPair;
     // Judged on what one pose gives; relativeMeasures.ts judges again once the neighbours are known.
     return judge ? applyJudgement(analysis, d.tolerances, this.findings) : analysis;
   }
 
+
+  /** The leaning rear pair's wheels and the four-wheel turn centre; null for a rear fixed in the frame. */
+  private rearPair(frameUp: Vec3, fl: PlanWheel, fr: PlanWheel): RearPairMeasures | null {
+    const rw = this.rearWheels;
+    if (!rw) return null;
+    const left = rearWheelAlignment(this.mechanism, rw.left, frameUp);
+    const right = rearWheelAlignment(this.mechanism, rw.right, frameUp);
+    const plan = (a: typeof left): PlanWheel => ({ x: a.contactPatchMm.x, y: a.contactPatchMm.y, heading: a.steerDeg / RAD });
+    return { left, right, turnCentre: fourWheelTurnCentre(fl, fr, plan(left), plan(right), this.straightDeg) };
+  }
+
+  /** The rear pair's tyres in plan, for the turning circle's wall-to-wall figure. */
+  private rearTyres(r: RearPairMeasures): PlanTyre[] {
+    const t = this.design.wheels.rear;
+    return [r.left, r.right].map((a) => ({ x: a.contactPatchMm.x, y: a.contactPatchMm.y, heading: a.steerDeg / RAD, rollingRadiusMm: t.rollingRadiusMm, widthMm: t.tyreWidthMm }));
+  }
 
   private steering(g: PoseGeometry, inputs: PoseInputsReport, leftDeg: number, rightDeg: number): SteeringMeasures {
     const mean = (leftDeg + rightDeg) / 2;

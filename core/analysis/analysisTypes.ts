@@ -8,6 +8,7 @@
 import type { JointKind, Joints, Side } from '../design/types';
 import type { SolveStatus } from '../solver/PoseSolver';
 import type { XyzMm } from './vec3';
+import type { RearPairMeasures } from './rearPair';
 import type { CheckKind, Verdict } from './tolerance';
 import type { FindingSubject } from './poseVerdict';
 
@@ -262,6 +263,8 @@ export interface PoseAnalysis {
   ackermann: AckermannMeasures;
   slip: SlipMeasures;
   turningCircle: TurningCircle;
+  /** A leaning rear pair's wheels and the four-wheel turn centre (rearPair.ts); absent for other rears. */
+  rear?: RearPairMeasures;
   joints: JointArticulation[];
   /** Tie-rod spin about its own axis chosen by the minimax treatment, relative to the shortest rotation from design. */
   tieRodSpinDeg: { left: number; right: number };

@@ -103,3 +103,13 @@ export function turningCircleWithinSlip(tc: TurningCircle, worstSlipDeg: number,
   if (tc.turningDiameterMm === null || !(Math.abs(worstSlipDeg) > slipToleranceDeg)) return tc;
   return none(`the front wheels disagree on the turn centre (slip ${Math.abs(worstSlipDeg).toFixed(1)} deg, over the ${slipToleranceDeg} deg tolerance): no single turning circle`);
 }
+
+/**
+ * With a leaning rear pair, the same rule over all four wheels: absent, with the reason, when
+ * the four wheels' slip to their least-squares turn centre (rearPair.ts) exceeds the slip
+ * tolerance.
+ */
+export function turningCircleWithinFourWheelSlip(tc: TurningCircle, worstSlipDeg: number | null, slipToleranceDeg: number): TurningCircle {
+  if (tc.turningDiameterMm === null || worstSlipDeg === null || !(Math.abs(worstSlipDeg) > slipToleranceDeg)) return tc;
+  return none(`the four wheels disagree on the turn centre (slip ${Math.abs(worstSlipDeg).toFixed(1)} deg, over the ${slipToleranceDeg} deg tolerance): no single turning circle`);
+}

@@ -9,6 +9,7 @@
 import { angleBetween, norm, RAD, scale, sub, tuple } from '../math/vec3';
 import type { DesignIssue } from './designIssue';
 import { fixed, IssueList, locate, MIN_DISTINCT_MM, sidePath, type Located } from './issueList';
+import { checkLeaningRear } from './rearPairChecks';
 import { resolveDesign } from './resolveDesign';
 import { describeFound, roundForMessage } from './schemaDsl';
 import { SIDES, type DesignFile, type ResolvedDesign, type Side, type TrackRodDrive, type Vec3Mm } from './types';
@@ -60,6 +61,7 @@ export function checkAcrossFields(d: DesignFile): DesignIssue[] {
   checkLeanLinkage(d, r, list);
   checkWheels(d, list);
   checkWheelSides(d, r, list);
+  checkLeaningRear(d, list);
   checkSizes(d, list);
   checkEnvelope(d, list);
   checkRiding(d, r, list);

@@ -147,11 +147,24 @@ const tyre = (which: string) =>
     crownRadiusMm: positiveMm("Radius of the tread's cross-section (crown); at most the rolling radius"),
   });
 
+const rearMember = (which: string) =>
+  object(`${which} rear member, pivoted at the centre line on the rear carrier (which slides vertically in the frame) and spanning both sides`, {
+    pivot: point(`Pivot of the ${which} rear member on the centre line (y = 0)`),
+    pivotAxis: direction3(`Direction of the ${which} rear member's pivot axis (usually along x)`),
+    outerJoint: sidedPoint(`Joint at the end of the ${which} rear member, carrying the rear upright`),
+  });
+
 const rear = discriminatedUnion('Rear wheel layout', [
   object('One rear wheel', { kind: literal('single', 'Single rear wheel') }),
   object('Two rear wheels', {
     kind: literal('pair', 'Rear wheel pair'),
     trackMm: positiveMm('Rear track, contact patch centre to centre'),
+  }),
+  object('Two rear wheels that lean with the frame through their own members (tilting quadricycle; not steered, static toe and camber 0)', {
+    kind: literal('leaningPair', 'Leaning rear pair'),
+    upper: rearMember('upper'),
+    lower: rearMember('lower'),
+    wheelCentre: sidedPoint("Rear wheel centre, on the spin axis in the wheel's mid plane, carried by the rear upright"),
   }),
 ]);
 

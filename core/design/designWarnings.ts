@@ -14,6 +14,7 @@
  */
 import type { DesignIssue } from './designIssue';
 import { IssueList, sidePath } from './issueList';
+import { leaningRearWarnings } from './rearPairChecks';
 import { resolveDesign } from './resolveDesign';
 import { roundForMessage } from './schemaDsl';
 import { SIDES, type DesignFile } from './types';
@@ -62,6 +63,7 @@ export function designWarnings(d: DesignFile): DesignIssue[] {
     }, side);
   }
   parallelogramWarning(d, list);
+  leaningRearWarnings(d, list);
   return list.issues;
 }
 

@@ -60,6 +60,14 @@ export function hardpointEntries(d: DesignFile): HardpointEntry[] {
     add('steering.pivot', 'column pivot', 'Steering lever', false);
     add('steering.tieRodJoint', 'tie rod joint', 'Steering lever');
   }
+  if (d.vehicle.rear.kind === 'leaningPair') {
+    for (const level of ['upper', 'lower'] as const) {
+      const g = `${level === 'upper' ? 'Upper' : 'Lower'} rear member`;
+      add(`vehicle.rear.${level}.pivot`, 'centre pivot', g, false);
+      add(`vehicle.rear.${level}.outerJoint`, 'outer joint', g);
+    }
+    add('vehicle.rear.wheelCentre', 'rear wheel centre', 'Rear upright');
+  }
   if (d.spring) {
     add('spring.frameMount', 'frame mount', 'Spring');
     add('spring.armMount', 'arm mount', 'Spring');

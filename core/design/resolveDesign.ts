@@ -17,9 +17,11 @@ import {
   type JointSpec,
   type LeanLinkage,
   type Joints,
+  type LeaningRearPair,
   type PartSizes,
   type PerSide,
   type ResolvedLeanLinkage,
+  type Rear,
   type ResolvedDesign,
   type Riding,
   type Sided,
@@ -53,11 +55,34 @@ export function resolveSidedNumber(value: Sided<number>): PerSide<number> {
   return isTwoSided(value) ? { right: value.right, left: value.left } : { right: value, left: value };
 }
 
-function copyVehicle(v: Vehicle): Vehicle {
+/**
+ * The rear block: a leaning pair's per-side points are written out for both sides when
+ * resolving (`sides: 'both'`) and compacted to one mirrored value where they mirror when
+ * writing back (`'compact'`).
+ */
+function copyRear(r: Rear, sides: 'both' | 'compact'): Rear {
+  if (r.kind === 'single') return { kind: 'single' };
+  if (r.kind === 'pair') return { kind: 'pair', trackMm: r.trackMm };
+  const point = (p: Sided<Vec3Mm>): Sided<Vec3Mm> => (sides === 'both' ? resolveSidedVec(p) : compactPoint(resolveSidedVec(p)));
+  const member = (m: LeaningRearPair['upper']): LeaningRearPair['upper'] => ({ pivot: copyVec(m.pivot), pivotAxis: copyVec(m.pivotAxis), outerJoint: point(m.outerJoint) });
+  return { kind: 'leaningPair', upper: member(r.upper), lower: member(r.lower), wheelCentre: point(r.wheelCentre) };
+}
+
+/** A leaning rear pair's per-side points, both sides spelled out (the right mirrored where written once). */
+export function leaningRearSides(r: LeaningRearPair): {
+  upper: { pivot: Vec3Mm; pivotAxis: Vec3Mm; outerJoint: PerSide<Vec3Mm> };
+  lower: { pivot: Vec3Mm; pivotAxis: Vec3Mm; outerJoint: PerSide<Vec3Mm> };
+  wheelCentre: PerSide<Vec3Mm>;
+} {
+  const member = (m: LeaningRearPair['upper']) => ({ pivot: copyVec(m.pivot), pivotAxis: copyVec(m.pivotAxis), outerJoint: resolveSidedVec(m.outerJoint) });
+  return { upper: member(r.upper), lower: member(r.lower), wheelCentre: resolveSidedVec(r.wheelCentre) };
+}
+
+function copyVehicle(v: Vehicle, sides: 'both' | 'compact' = 'both'): Vehicle {
   return {
     wheelbaseMm: v.wheelbaseMm,
     tilting: v.tilting,
-    rear: v.rear.kind === 'pair' ? { kind: 'pair', trackMm: v.rear.trackMm } : { kind: 'single' },
+    rear: copyRear(v.rear, sides),
     ...(v.bodyOutline ? { bodyOutline: v.bodyOutline.map((p) => ({ x: p.x, y: p.y })) } : {}),
   };
 }
@@ -312,7 +337,7 @@ export function unresolveDesign(r: ResolvedDesign): DesignFile {
     tiltsheet: DESIGN_FORMAT_VERSION,
     name: r.name,
     ...(r.notes !== '' ? { notes: r.notes } : {}),
-    vehicle: copyVehicle(r.vehicle),
+    vehicle: copyVehicle(r.vehicle, 'compact'),
     frontEnd,
     upright: {
       steeringAxis: r.upright.steeringAxis,

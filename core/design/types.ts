@@ -177,7 +177,23 @@ export interface Wheels {
   rear: Tyre;
 }
 
-export type Rear = { kind: 'single' } | { kind: 'pair'; trackMm: number };
+/**
+ * A rear pair that leans with the frame through its own members (a tilting quadricycle): an
+ * upper and a lower member pivoted on a rear carrier at the centre line (the carrier slides
+ * vertically in the frame: the rear spring's travel), and a rear upright per side hung on the
+ * lower member's outer joint (turning about the member's pivot axis, not steered) and closed
+ * at the upper member's outer joint. Static toe and camber are 0: each rear wheel's spin axis
+ * is along y at design. The rear tyre is `wheels.rear`.
+ */
+export interface LeaningRearPair {
+  kind: 'leaningPair';
+  upper: CentreMember;
+  lower: CentreMember;
+  /** Rear wheel centre (on the spin axis, in the wheel's mid plane), carried by the rear upright. */
+  wheelCentre: Sided<Vec3Mm>;
+}
+
+export type Rear = { kind: 'single' } | { kind: 'pair'; trackMm: number } | LeaningRearPair;
 
 export type JointKind = 'ballJoint' | 'rodEnd';
 

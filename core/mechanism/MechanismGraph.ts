@@ -183,6 +183,12 @@ export interface MechanismGraph {
   constraints: Constraint[];
   points: NamedPoint[];
   wheels: WheelRef[];
+  /**
+   * Rear wheels carried by bodies of their own (a leaning rear pair), each held on the ground
+   * by a contact constraint. Left out when the rear wheels are fixed in the frame: `wheels`
+   * stays the two front wheels, which every front-end analysis reads.
+   */
+  rearWheels?: WheelRef[];
   links: LinkRef[];
   /** Index of the body that is the vehicle frame (lean and heave act on it). */
   frameBody: number;

@@ -24,6 +24,7 @@ import { addUprights } from './uprights';
 import { drawVehicle } from './vehicleDrawing';
 import { addFrontWheels } from './wheelContact';
 import { addLeanLinkage, addMeanContactRow, LEAN_IDS, onGround } from './leanLinkage';
+import { addLeaningRearPair } from './rearPair';
 
 export interface PoseMode {
   /** 'ground': each wheel touches the ground; 'travel': wheel-centre travel is an input. */
@@ -94,6 +95,7 @@ export function buildMechanism(design: ResolvedDesign, mode: PoseMode = DEFAULT_
     addLeanLinkage(b, design, frame, suspension, mode);
     addMeanContactRow(b, design, uprights, mode);
   }
+  addLeaningRearPair(b, design, frame);
   drawVehicle(b, design, frame, suspension, handlebarAt);
   return b.graph(design.name, frame);
 }

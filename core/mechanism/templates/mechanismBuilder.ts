@@ -28,6 +28,8 @@ export class MechanismBuilder {
   readonly constraints: Constraint[] = [];
   readonly points: NamedPoint[] = [];
   readonly wheels: WheelRef[] = [];
+  /** Rear wheels on bodies of their own (a leaning rear pair); empty otherwise. */
+  readonly rearWheels: WheelRef[] = [];
   readonly links: LinkRef[] = [];
   readonly drawing: DrawingLayout = emptyDrawing();
 
@@ -103,7 +105,7 @@ export class MechanismBuilder {
   }
 
   graph(name: string, frameBody: number): MechanismGraph & { drawing: DrawingLayout } {
-    const { bodies, joints, constraints, points, wheels, links, drawing } = this;
-    return { name, bodies, joints, constraints, points, wheels, links, frameBody, drawing };
+    const { bodies, joints, constraints, points, wheels, rearWheels, links, drawing } = this;
+    return { name, bodies, joints, constraints, points, wheels, ...(rearWheels.length > 0 ? { rearWheels } : {}), links, frameBody, drawing };
   }
 }

@@ -53,6 +53,13 @@ function drawSpineAndRear(b: MechanismBuilder, design: ResolvedDesign, frame: nu
   const rr = tyre.rollingRadiusMm;
   const frontX = fe.kind === 'splitWishbones' ? (fe.lower.frontPivot.right.x + fe.lower.rearPivot.right.x) / 2 : fe.lower.pivot.x;
   const frontZ = fe.kind === 'splitWishbones' ? fe.lower.frontPivot.right.z : fe.lower.pivot.z;
+  const rear = design.vehicle.rear;
+  if (rear.kind === 'leaningPair') {
+    // The rear pair draws its own wheels (rearPair.ts); the spine reaches its carrier's slide.
+    const p = rear.lower.pivot;
+    b.tube('frame.spine', { label: 'frame spine', part: 'frame', a: b.onBody(frame, [frontX, 0, frontZ]), b: b.onBody(frame, [p.x, p.y, p.z]), radius: radius * 1.3 });
+    return;
+  }
   b.tube('frame.spine', { label: 'frame spine', part: 'frame', a: b.onBody(frame, [frontX, 0, frontZ]), b: b.onBody(frame, [-L, 0, rr]), radius: radius * 1.3 });
   const wheel = (id: string, label: string, y: number) =>
     b.drawing.rearWheels.push({
@@ -65,7 +72,6 @@ function drawSpineAndRear(b: MechanismBuilder, design: ResolvedDesign, frame: nu
       crownRadius: tyre.crownRadiusMm,
       width: tyre.tyreWidthMm,
     });
-  const rear = design.vehicle.rear;
   if (rear.kind === 'single') {
     wheel('rearWheel', 'rear tyre', 0);
   } else {
