@@ -1,11 +1,14 @@
-/** The workbench's layout and its keyboard shortcuts. */
+/**
+ * The workbench's layout and its keyboard shortcuts. Three zones in the order of the work:
+ * ride the vehicle (the slim left column: lean or ride inputs, handlebar, travel, playback),
+ * the vehicle itself (the 3D view, the parts a finding is about marked in it, the plots and
+ * every reading of the pose as the strip's tabs), and what is wrong with how to fix it (the
+ * right column: findings first, each opening into its fix; all hardpoints, studies and
+ * settings one tab away).
+ */
 import { lazy, Suspense, useEffect } from 'react';
-import { DesignSheet } from '../panels/DesignSheet';
-import { HardpointTable } from '../panels/HardpointTable';
-import { StudiesPanel } from '../studies/StudiesPanel';
-import { AlertsPanel, ReadoutPanel } from '../panels/ReadoutPanel';
+import { ReadoutPanel } from '../panels/ReadoutPanel';
 import { PosePanel } from '../panels/PosePanel';
-import { LimitsPanel } from '../panels/LimitsPanel';
 import { PlaybackPanel } from '../panels/PlaybackPanel';
 import type { PlaybackController } from '../panels/playback';
 import { Viewport } from '../viewport/Viewport';
@@ -17,6 +20,8 @@ import { Splitter } from './Splitter';
 import { usePanelSizes } from './usePanelSizes';
 import { sizeStyle } from '../model/panelSizes';
 import { useAfterFirstFrame } from '../charts/afterFirstFrame';
+import { FixColumn } from './FixColumn';
+import { FixJobsProvider } from './fixJobs';
 
 /** The charts (ECharts) load after the workbench is up, in their own chunk. */
 const PlotsPanel = lazy(() => import('../charts/PlotsPanel').then((m) => ({ default: m.PlotsPanel })));
@@ -56,35 +61,30 @@ export function App({ playback }: { playback: PlaybackController }) {
   const measure = (selector: string, dim: 'offsetWidth' | 'offsetHeight') => () => (document.querySelector(selector) as HTMLElement | null)?.[dim] ?? 0;
 
   return (
-    <div className="app" style={sizeStyle(layout.sizes)}>
-      <TopBar />
-      <aside className="side left-side" aria-label="Pose and readings">
-        <PosePanel />
-        <PlaybackPanel controller={playback} />
-        <AlertsPanel />
-        <LimitsPanel />
-        <ReadoutPanel />
-      </aside>
-      <Splitter orientation="vertical" label="Width of the left column" size={measure('.left-side', 'offsetWidth')} sign={1} onSize={(px) => layout.setSide('leftPx', px)} onReset={() => layout.reset('leftPx')} testId="split-left" />
-      <main className="centre">
-        <Viewport />
-        <Splitter orientation="horizontal" label="Height of the plots" size={measure('.plots', 'offsetHeight')} sign={-1} onSize={layout.setPlots} onReset={() => layout.reset('plotsPx')} testId="split-plots" />
-        {plotsReady ? (
-          <Suspense fallback={<section className="plots" aria-label="Plots" aria-busy="true" />}>
-            <PlotsPanel />
-          </Suspense>
-        ) : (
-          <section className="plots" aria-label="Plots" aria-busy="true" />
-        )}
-      </main>
-      <Splitter orientation="vertical" label="Width of the right column" size={measure('.right-side', 'offsetWidth')} sign={-1} onSize={(px) => layout.setSide('rightPx', px)} onReset={() => layout.reset('rightPx')} testId="split-right" />
-      <aside className="side right-side" aria-label="Design">
-        <HardpointTable />
-        <StudiesPanel />
-        <DesignSheet />
-      </aside>
-      <SafetyCaution />
-      <Dialogs />
-    </div>
+    <FixJobsProvider>
+      <div className="app" style={sizeStyle(layout.sizes)}>
+        <TopBar />
+        <aside className="side left-side ride-column" aria-label="Ride: how the vehicle is ridden now">
+          <PosePanel />
+          <PlaybackPanel controller={playback} />
+        </aside>
+        <Splitter orientation="vertical" label="Width of the ride column" size={measure('.left-side', 'offsetWidth')} sign={1} onSize={(px) => layout.setSide('leftPx', px)} onReset={() => layout.reset('leftPx')} testId="split-left" />
+        <main className="centre" aria-label="The vehicle">
+          <Viewport />
+          <Splitter orientation="horizontal" label="Height of the plots" size={measure('.plots', 'offsetHeight')} sign={-1} onSize={layout.setPlots} onReset={() => layout.reset('plotsPx')} testId="split-plots" />
+          {plotsReady ? (
+            <Suspense fallback={<section className="plots" aria-label="Plots" aria-busy="true" />}>
+              <PlotsPanel numbers={<ReadoutPanel />} />
+            </Suspense>
+          ) : (
+            <section className="plots" aria-label="Plots" aria-busy="true" />
+          )}
+        </main>
+        <Splitter orientation="vertical" label="Width of the fix column" size={measure('.right-side', 'offsetWidth')} sign={-1} onSize={(px) => layout.setSide('rightPx', px)} onReset={() => layout.reset('rightPx')} testId="split-right" />
+        <FixColumn />
+        <SafetyCaution />
+        <Dialogs />
+      </div>
+    </FixJobsProvider>
   );
 }

@@ -4,7 +4,7 @@
  * current pose; clicking a map cell moves the sliders there. The tab and the map's choices
  * are the UI store's `plots`; the results are the jobs store's.
  */
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useActions, useDocument, useJobs, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { MAP_RESOLUTIONS, type JobProgress, type MapResolution } from '../state/jobsStore';
 import { setPlots } from '../state/uiStore';
@@ -127,14 +127,14 @@ function useRecompute(): void {
  */
 function PlotTabs() {
   const { ui } = useWorkbenchApi();
-  const { open, tab } = useUi((s) => s.plots);
+  const { open, tab, numbers } = useUi((s) => s.plots);
   const tilting = useDocument((s) => s.design.vehicle.tilting);
   const [shown, hidden] = useMemo(() => [CURVE_CHARTS.filter((c) => tilting || !isLeanChart(c.id)), CURVE_CHARTS.filter((c) => !tilting && isLeanChart(c.id))], [tilting]);
   useEffect(() => {
     if (tab !== 'map' && !tilting && isLeanChart(tab)) setPlots(ui, { tab: shown[0].id });
   }, [ui, tab, tilting, shown]);
   const tabButton = (id: typeof tab, label: string) => (
-    <button key={id} type="button" role="tab" aria-selected={tab === id} className={tab === id ? 'is-active' : ''} onClick={() => setPlots(ui, { tab: id, open: true })} data-testid={`tab-${id}`}>
+    <button key={id} type="button" role="tab" aria-selected={!numbers && tab === id} className={!numbers && tab === id ? 'is-active' : ''} onClick={() => setPlots(ui, { tab: id, open: true, numbers: false })} data-testid={`tab-${id}`}>
       {label}
     </button>
   );
@@ -145,6 +145,10 @@ function PlotTabs() {
       </button>
       {shown.map((c) => tabButton(c.id, c.label))}
       {tabButton('map', 'Envelope map')}
+      {/* Every reading of the pose on screen, as a tab of the strip (the layout passes the table in). */}
+      <button type="button" role="tab" aria-selected={numbers} className={numbers ? 'is-active' : ''} onClick={() => setPlots(ui, { open: true, numbers: true })} data-testid="tab-numbers">
+        Numbers
+      </button>
       {hidden.length > 0 && (
         <span className="hint plots-hidden" data-testid="plots-hidden">
           {hidden.map((c) => c.label).join(', ')}: not shown, {NO_LEAN_REASON}
@@ -288,9 +292,9 @@ function PlotBody({ running }: { running: boolean }) {
   );
 }
 
-export function PlotsPanel() {
+export function PlotsPanel({ numbers }: { numbers?: ReactNode } = {}) {
   const { jobs } = useWorkbenchApi();
-  const { open, tab } = useUi((s) => s.plots);
+  const { open, tab, numbers: numbersShown } = useUi((s) => s.plots);
   const curvesProgress = useJobs((s) => s.curves.progress);
   const mapProgress = useJobs((s) => s.map.progress);
   useRecompute();
@@ -303,10 +307,19 @@ export function PlotsPanel() {
       <PlotTabs />
       {open && (
         <div className="plots-body">
-          {tab === 'map' && <MapControls running={running} />}
-          {curvesProgress && <JobProgressBar what="curves" unit="curves" progress={curvesProgress} />}
-          {mapProgress && <JobProgressBar what="envelope map" unit="poses" progress={mapProgress} />}
-          <PlotBody running={running} />
+          {!numbersShown && (
+            <>
+              {tab === 'map' && <MapControls running={running} />}
+              {curvesProgress && <JobProgressBar what="curves" unit="curves" progress={curvesProgress} />}
+              {mapProgress && <JobProgressBar what="envelope map" unit="poses" progress={mapProgress} />}
+              <PlotBody running={running} />
+            </>
+          )}
+          {numbers && (
+            <div className="numbers-body" hidden={!numbersShown} data-testid="numbers-body">
+              {numbers}
+            </div>
+          )}
         </div>
       )}
     </section>

@@ -49,6 +49,8 @@ export interface Alert {
   text: string;
   /** The hardpoint to select to show what the alert is about (a joint of the part), when there is one. */
   hardpoint?: string;
+  /** The study objective the alert is about (renderer/model/findings.ts), when the studies have one. */
+  objective?: string;
 }
 
 export type OutcomeStatus = SolveStatus | 'invalid-design';

@@ -14,6 +14,7 @@ import type { FindingSubject } from '../../core/analysis/poseVerdict';
 import type { PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import { worse, type Severity } from './severity';
 import type { Alert, MechanismLayout, PoseOutcome, ReadoutCell, ReadoutRow, ReadoutTable, Unit } from './analysisAdapter';
+import { objectiveOfPoseFinding } from './findings';
 
 const capitalise = (s: string) => (s ? `${s[0].toUpperCase()}${s.slice(1)}` : s);
 
@@ -269,7 +270,8 @@ export function describePose(design: ResolvedDesign, layout: MechanismLayout, dr
       const m = /^(over|close): (.*)$/.exec(f);
       const subject = a.findingSubjects[i];
       const hardpoint = subject ? subjectHardpoint(drawing, subject) : null;
-      alerts.push({ severity: m?.[1] === 'over' ? 'over' : 'close', text: m ? capitalise(m[2]) : f, ...(hardpoint ? { hardpoint } : {}) });
+      const objective = objectiveOfPoseFinding(subject, f);
+      alerts.push({ severity: m?.[1] === 'over' ? 'over' : 'close', text: m ? capitalise(m[2]) : f, ...(hardpoint ? { hardpoint } : {}), ...(objective ? { objective } : {}) });
     });
   }
   tables.push(solverTable(r));

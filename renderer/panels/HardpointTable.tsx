@@ -11,6 +11,7 @@ import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpo
 import type { DesignIssue } from '../../core/design/validateDesign';
 import { NumberField } from './NumberField';
 import { rateText, useSensitivity } from '../studies/useSensitivity';
+import { useFixJobs } from '../app/fixJobs';
 import type { SensitivityData } from '../workers/sensitivityJob';
 import { pickedAxes, togglePoint } from '../model/tunePicks';
 import { acceptProposal, dismissProposal, previewProposal } from '../studies/ProposalsPanel';
@@ -23,8 +24,19 @@ export function HardpointTable() {
   const selection = useUi((s) => s.selection);
   const actions = useActions();
   const rows = useMemo(() => hardpointRows(design), [design]);
-  const sensitivity = useSensitivity(design);
+  // The workbench shares one run of the rates with the fix view (renderer/app/fixJobs.tsx); alone, the table runs its own.
+  const shared = useFixJobs();
+  const own = useSensitivity(design);
+  const sensitivity = shared?.rates ?? own;
   const [objective, setObjective] = useState('selfSteer');
+  // The rate column follows the measure of the finding opened in the fix view.
+  const findingObjective = useUi((s) => s.finding?.objective ?? null);
+  const [followed, setFollowed] = useState(findingObjective);
+  if (followed !== findingObjective) {
+    setFollowed(findingObjective);
+    const headline = findingObjective?.startsWith('joint.') ? 'jointMargin' : findingObjective;
+    if (headline && OBJECTIVE_CHOICES.some((o) => o.id === headline)) setObjective(headline);
+  }
   const rates = sensitivity.state.phase === 'done' ? sensitivity.state.data : null;
   const studies = useWorkbenchApi().studies;
   const picks = useStudies((s) => s.picks);

@@ -5,6 +5,7 @@ import type { Alert, ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
 import { RIDE_TABLE_ID } from '../model/rideReadout';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
+import { FixSlot, openFinding } from './FixPanel';
 
 /** While the pose moves continuously, the readings repaint at most this often, ms. */
 export const READOUT_INTERVAL_MS = 100;
@@ -97,6 +98,11 @@ export function ReadoutPanel() {
   );
 }
 
+/** An alert's finding id, kept while the pose moves: its words without their numbers, with what it is about. */
+export function poseFindingId(a: Alert): string {
+  return `pose:${a.hardpoint ?? ''}:${a.text.replace(/[−+-]?\d+(\.\d+)?/g, '#')}`;
+}
+
 /** Groups of alerts, worst first. */
 const ALERT_GROUPS: { severity: Severity; title: string }[] = [
   { severity: 'broken', title: "Won't assemble or invalid" },
@@ -113,6 +119,8 @@ export function AlertsPanel() {
   const issues = usePose((s) => s.issues);
   const actions = useActions();
   const selection = useUi((s) => s.selection);
+  const openId = useUi((s) => s.finding?.id ?? null);
+  const { ui } = useWorkbenchApi();
   const alerts: Alert[] = [...issues.map((i): Alert => ({ severity: 'broken', text: i.message })), ...outcome.alerts];
   const ps = outcome.poseStatus;
   return (
@@ -135,17 +143,28 @@ export function AlertsPanel() {
               <span style={{ color: SEVERITY_STYLE[g.severity].colour }}>{SEVERITY_STYLE[g.severity].glyph}</span> {g.title} ({of.length})
             </h3>
             <ul>
-              {of.map((a, k) => (
-                <li key={k} className={`alert sev-${a.severity} ${a.hardpoint && a.hardpoint === selection ? 'is-selected' : ''}`}>
-                  {a.hardpoint ? (
-                    <button type="button" className="alert-button" onClick={() => actions.select(a.hardpoint!)} title="Select the part in the view and the hardpoint table">
-                      {a.text}
-                    </button>
-                  ) : (
-                    a.text
-                  )}
-                </li>
-              ))}
+              {of.map((a, k) => {
+                const id = poseFindingId(a);
+                const open = openId === id;
+                return (
+                  <li key={k} className={`alert sev-${a.severity} ${a.hardpoint && a.hardpoint === selection ? 'is-selected' : ''} ${open ? 'is-open' : ''}`}>
+                    {a.hardpoint || a.objective ? (
+                      <button
+                        type="button"
+                        className="alert-button"
+                        aria-expanded={open}
+                        onClick={() => openFinding(ui, actions, { id, source: 'pose', severity: a.severity, text: a.text, hardpoint: a.hardpoint ?? null, objective: a.objective ?? null, where: null })}
+                        title="Show the part in the view and how to fix it"
+                      >
+                        {a.text}
+                      </button>
+                    ) : (
+                      a.text
+                    )}
+                    <FixSlot id={id} />
+                  </li>
+                );
+              })}
             </ul>
           </div>
         );

@@ -7,6 +7,7 @@ import { createStore, type StoreApi } from 'zustand/vanilla';
 import type { CurveChartId } from '../../core/report/charts/curveOptions';
 import type { MapMetric } from '../../core/report/charts/chartData';
 import type { MapResolution } from './jobsStore';
+import type { OpenFinding } from '../model/findings';
 
 export interface Notice {
   kind: 'error' | 'info';
@@ -51,11 +52,16 @@ export interface PlaybackSettings {
 
 export type PlotTab = CurveChartId | 'map';
 
+/** The tabs of the "What's wrong -> Fix" column. */
+export type FixColumnTab = 'findings' | 'hardpoints' | 'studies' | 'settings';
+
 export interface PlotsView {
   open: boolean;
   tab: PlotTab;
   metric: MapMetric;
   resolution: MapResolution;
+  /** The strip shows every reading of the pose (its "Numbers" tab) instead of the plot of \`tab\`. */
+  numbers: boolean;
 }
 
 export interface HoverInfo {
@@ -80,6 +86,10 @@ export interface UiState {
   playback: PlaybackSettings;
   plots: PlotsView;
   hover: HoverInfo | null;
+  /** The finding opened in the fix view (null: none). */
+  finding: OpenFinding | null;
+  /** The tab shown in the "What's wrong -> Fix" column. */
+  fixColumn: FixColumnTab;
 }
 
 export type UiStore = StoreApi<UiState>;
@@ -95,8 +105,10 @@ export function createUiStore(): UiStore {
     aboutOpen: false,
     gizmo: { enabled: true, constraint: 'free', snapMm: 1 },
     playback: { playing: false, mode: 'lean', speedDegPerS: 20 },
-    plots: { open: true, tab: 'leanSteer', metric: 'status', resolution: 'coarse' },
+    plots: { open: true, tab: 'leanSteer', metric: 'status', resolution: 'coarse', numbers: false },
     hover: null,
+    finding: null,
+    fixColumn: 'findings',
   }));
 }
 

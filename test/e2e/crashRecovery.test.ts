@@ -56,6 +56,9 @@ const doc = <T>(page: Page, expr: string) => evalIn<T>(page, `(() => { const s =
 const ui = <T>(page: Page, expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.ui.getState(); return ${expr}; })()`);
 
 async function commitField(page: Page, testId: string, value: string) {
+  // The full hardpoint table and the design's settings are tabs of the column beside the view.
+  if (testId.startsWith('hp-')) await page.getByTestId('column-tab-hardpoints').click();
+  if (testId.startsWith('field-')) await page.getByTestId('column-tab-settings').click();
   const f = page.getByTestId(testId);
   await f.fill(value);
   await f.press('Enter');

@@ -49,7 +49,10 @@ describe('studies in the workbench', () => {
   it('tunes in the worker, previews the result as a ghost and dotted curves, and applies it as one undo step', async () => {
     await open(1280, 800);
     const before = await designText();
+    // The "vary" ticks are in the full hardpoint table, the tune in Studies: tabs of the column beside the view.
+    await page.getByTestId('column-tab-hardpoints').click();
     await page.getByTestId('vary-steering.tieRodJoint.right').check();
+    await page.getByTestId('column-tab-studies').click();
     await page.getByTestId('pick-steering.tieRodJoint:y').getByRole('button').click();
     const panel = page.getByTestId('tune-panel');
     await panel.getByLabel(/^starts/).fill('1');
@@ -77,11 +80,14 @@ describe('studies in the workbench', () => {
 
   it('finds the proposals and shows them under the points at 1920x1080', async () => {
     await open(1920, 1080);
+    await page.getByTestId('column-tab-studies').click();
     await page.getByTestId('study-tab-proposals').click();
     await page.getByTestId('run-proposals').click();
     await page.getByTestId('proposal-tieRodLine').waitFor({ timeout: 60_000 });
+    await page.getByTestId('column-tab-hardpoints').click();
     await page.getByTestId('proposal-at-steering.tieRodJoint.right-tieRodLine').waitFor();
     await page.screenshot({ path: shotPath('studies-proposals-1920') });
+    await page.getByTestId('column-tab-studies').click();
     await page.getByTestId('study-tab-spread').click();
     await page.getByLabel(/^samples/).fill('60');
     await page.getByTestId('run-spread').click();

@@ -34,6 +34,8 @@ beforeEach(async () => {
   });
   await page.goto(url);
   await waitForWorkbench(page);
+  // Every reading is a tab of the strip under the view, which mounts after the first frame.
+  await page.getByTestId('readouts').waitFor({ state: 'attached', timeout: 30_000 });
 });
 
 afterEach(async () => {
@@ -46,7 +48,13 @@ const doc = <T>(expr: string) => evalIn<T>(page, `(() => { const s = window.__ti
 /** Reads the workbench's pose store (pose asked for, ride mode, core's outcome) in the page. */
 const pose = <T>(expr: string) => evalIn<T>(page, `(() => { const s = window.__tiltbench.pose.getState(); return ${expr}; })()`);
 
+/** Shows a tab of the column beside the view (the full hardpoint table is one tab away from the findings). */
+async function showColumn(tab: 'findings' | 'hardpoints' | 'studies' | 'settings') {
+  await page.getByTestId(`column-tab-${tab}`).click();
+}
+
 async function commitField(testId: string, value: string) {
+  if (testId.startsWith('hp-')) await showColumn('hardpoints');
   const f = page.getByTestId(testId);
   await f.fill(value);
   await f.press('Enter');
@@ -67,6 +75,10 @@ describe('workbench', () => {
     expect(caution).toMatch(/measurement and testing/);
     expect(caution).toMatch(/regulations and licensed engineering practice/);
     expect(await text(page.getByTestId('legend'))).toMatch(/within.*close.*over.*won't assemble/);
+    // The readings are the strip's "Numbers" tab.
+    expect(await page.getByTestId('readout-toe-left').isVisible()).toBe(false);
+    await page.getByTestId('tab-numbers').click();
+    expect(await page.getByTestId('readout-toe-left').isVisible()).toBe(true);
     await page.getByTestId('about').click();
     expect(await text(page.getByTestId('about-dialog'))).toMatch(/design aid.*measurement and testing/);
     await page.screenshot({ path: shotPath('01-demo-about') });
@@ -180,6 +192,7 @@ describe('workbench', () => {
 
   it('save then open round-trips the design exactly (browser download and file input)', async () => {
     await commitField('hp-steering.pivot-z', '112.5');
+    await showColumn('hardpoints');
     await page.getByTestId('unlink-upright.wheelCentre').click();
     await commitField('hp-upright.wheelCentre.left-x', '3');
     const savedText = await doc<string>('s.designText');

@@ -1,0 +1,61 @@
+/**
+ * The column beside the vehicle: what is wrong, and how to fix it. First the findings (this
+ * pose's alerts, then the operating region's items, worst first; each opens into its fix), then,
+ * one tab away, the full hardpoint table, the studies and the design's settings. The tabs stay
+ * mounted, so a running study and a half-typed value survive a change of tab.
+ */
+import type { ReactNode } from 'react';
+import { DesignSheet } from '../panels/DesignSheet';
+import { HardpointTable } from '../panels/HardpointTable';
+import { LimitsPanel } from '../panels/LimitsPanel';
+import { AlertsPanel } from '../panels/ReadoutPanel';
+import { SelectedPoint } from '../panels/SelectedPoint';
+import type { FixColumnTab } from '../state/uiStore';
+import { StudiesPanel } from '../studies/StudiesPanel';
+import { useUi, useWorkbenchApi } from './workbenchContext';
+
+const TABS: { id: FixColumnTab; label: string; title: string }[] = [
+  { id: 'findings', label: "What's wrong", title: 'This pose and the operating region: what is over or close to a limit, worst first; click one to see where it is and how to fix it' },
+  { id: 'hardpoints', label: 'All hardpoints', title: 'Every hardpoint, its coordinates, mirroring, rates per mm and proposals' },
+  { id: 'studies', label: 'Studies', title: 'Tune, proposals, tolerance spread, fit to a built vehicle, compare with a reference' },
+  { id: 'settings', label: 'Settings', title: 'The design sheet: vehicle, wheels, steering, joints, tolerances, operating region' },
+];
+
+function Tab({ id, children }: { id: FixColumnTab; children: ReactNode }) {
+  const shown = useUi((s) => s.fixColumn === id);
+  return (
+    <div className="column-page" role="tabpanel" hidden={!shown} id={`column-${id}`} data-testid={`column-${id}`}>
+      {children}
+    </div>
+  );
+}
+
+export function FixColumn() {
+  const { ui } = useWorkbenchApi();
+  const tab = useUi((s) => s.fixColumn);
+  return (
+    <aside className="side right-side fix-column" aria-label="What's wrong and how to fix it">
+      <div className="column-tabs" role="tablist" aria-label="What's wrong, hardpoints, studies, settings">
+        {TABS.map((t) => (
+          <button key={t.id} type="button" role="tab" aria-selected={tab === t.id} aria-controls={`column-${t.id}`} title={t.title} onClick={() => ui.setState({ fixColumn: t.id })} data-testid={`column-tab-${t.id}`}>
+            {t.label}
+          </button>
+        ))}
+      </div>
+      <Tab id="findings">
+        <SelectedPoint />
+        <AlertsPanel />
+        <LimitsPanel />
+      </Tab>
+      <Tab id="hardpoints">
+        <HardpointTable />
+      </Tab>
+      <Tab id="studies">
+        <StudiesPanel />
+      </Tab>
+      <Tab id="settings">
+        <DesignSheet />
+      </Tab>
+    </aside>
+  );
+}

@@ -1,0 +1,77 @@
+/**
+ * The studies behind "What's wrong -> Fix", shared by the findings list, the fix view and the
+ * full hardpoint table: the operating region's check and the rates per mm (sensitivity), each
+ * run in its own worker. After an edit they run by themselves, one after the other, once the
+ * plots of that edit are drawn (or after a quiet spell when no plot is being computed), so
+ * they never hold up the curves; the buttons stay as "run again".
+ */
+import { createContext, useContext, useEffect, useRef, type ReactNode } from 'react';
+import { useDocument, useJobs, usePose, useUi } from './workbenchContext';
+import { useStudyJob } from '../studies/useStudyJob';
+import { useSensitivity } from '../studies/useSensitivity';
+
+/** How long after an edit the check starts even if the plots have not finished, ms. */
+export const FIX_JOBS_FALLBACK_MS = 1500;
+
+type CheckJob = ReturnType<typeof useStudyJob<'check'>>;
+type RatesJob = ReturnType<typeof useSensitivity>;
+
+export interface FixJobs {
+  check: CheckJob;
+  rates: RatesJob;
+}
+
+const FixJobsContext = createContext<FixJobs | null>(null);
+
+/** The shared jobs, or null outside the provider (a panel then runs its own on request). */
+export function useFixJobs(): FixJobs | null {
+  return useContext(FixJobsContext);
+}
+
+export function FixJobsProvider({ children, auto = true }: { children: ReactNode; auto?: boolean }) {
+  const design = useDocument((s) => s.design);
+  const revision = useDocument((s) => s.revision);
+  const valid = usePose((s) => s.resolved !== null);
+  const dragging = useUi((s) => s.dragging);
+  const plotsBusy = useJobs((s) => s.curves.progress !== null || s.map.progress !== null);
+  const check = useStudyJob('check', design);
+  const rates = useSensitivity(design);
+  // The design each job was last started for by this provider (a user's own run counts too via the job's state).
+  const started = useRef<{ check: unknown; rates: unknown }>({ check: null, rates: null });
+  // When the design on screen was first seen (for the fallback wait).
+  const firstSeen = useRef(0);
+  useEffect(() => {
+    firstSeen.current = Date.now();
+  }, [revision]);
+
+  const checkFor = check.state.phase === 'done' ? check.state.forDesign : null;
+  const ratesFor = rates.state.phase === 'done' ? rates.state.forDesign : null;
+  const checkRunning = check.state.phase === 'running';
+  const ratesRunning = rates.state.phase === 'running';
+  const runCheck = check.run;
+  const runRates = rates.run;
+
+  useEffect(() => {
+    if (!auto || !valid || dragging) return;
+    // The check first, after the plots; the rates when the check of this design is done.
+    if (checkFor !== design && started.current.check !== design && !checkRunning) {
+      const go = () => {
+        started.current.check = design;
+        runCheck({ design });
+      };
+      if (!plotsBusy) {
+        const t = setTimeout(go, 250);
+        return () => clearTimeout(t);
+      }
+      const t = setTimeout(go, Math.max(0, FIX_JOBS_FALLBACK_MS - (Date.now() - firstSeen.current)));
+      return () => clearTimeout(t);
+    }
+    if (checkFor === design && ratesFor !== design && started.current.rates !== design && !ratesRunning && !checkRunning) {
+      started.current.rates = design;
+      runRates();
+    }
+    return undefined;
+  }, [auto, valid, dragging, plotsBusy, design, checkFor, ratesFor, checkRunning, ratesRunning, runCheck, runRates]);
+
+  return <FixJobsContext.Provider value={{ check, rates }}>{children}</FixJobsContext.Provider>;
+}
