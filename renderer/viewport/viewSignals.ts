@@ -51,6 +51,8 @@ export interface RenderStats {
   renderedSerial: number;
   /** Current pixel ratio of the canvas. */
   dpr: number;
+  /** Pixel ratio of the last rendered frame. */
+  renderedDpr: number;
   /** WebGL renderer string (UNMASKED_RENDERER_WEBGL when available). */
   glRenderer: string;
   /** Where a world point (mm) appears in the canvas, CSS pixels from its top left (for tests). */
@@ -59,4 +61,4 @@ export interface RenderStats {
   camera: 'perspective' | 'orthographic';
 }
 
-export const renderStats: RenderStats = { frames: 0, lastRenderAt: 0, sceneSerial: 0, renderedSerial: 0, dpr: 1, glRenderer: '', project: () => [NaN, NaN], camera: 'perspective' };
+export const renderStats: RenderStats = { frames: 0, lastRenderAt: 0, sceneSerial: 0, renderedSerial: 0, dpr: 1, renderedDpr: 0, glRenderer: '', project: () => [NaN, NaN], camera: 'perspective' };
