@@ -35,6 +35,12 @@ export const ANALYSIS_DEFINITIONS = {
     'SAE J695: turning diameter to the outer front tyre contact centre, turn centre where the outer wheel axis line meets the rear axle line; kerb to kerb adds the tread width; wall to wall encloses body outline and tyres',
   transmission: 'asin of the cosine between a link and the path of the lever joint it drives: 90 ideal, 0 dead centre; positive on the design side',
   motionRatio: 'spring length change per wheel-centre travel, steering held; positive when the spring shortens as the wheel rises',
+  leanLinkage:
+    'balance-beam lean linkage: on the ground the heave input is the spring travel (compression +) and pure lean holds it; the frame height and lateral place are solved (mean y of the two front contact points 0); motion ratio = spring compression per mm of mean wheel-centre bump relative to the frame, lean and handlebar held (central difference, +/- 0.5 mm of spring travel)',
+  rollAxis:
+    'the frame\'s instantaneous screw axis relative to the ground between lean - 0.05 and lean + 0.05 deg (spring travel held): height and lateral place where it crosses x = 0, inclination to the ground (rising forward +), and where it meets the ground (absent below 0.1 deg of inclination: parallel to the ground)',
+  rockerStops:
+    'rocker angle relative to its carrier, right-handed about the rocker axis; stop margin = stop - |rocker angle|; lean at a stop = the frame lean solved with the rocker driven to that stop, the other inputs held',
   frontLift:
     'how far the front would rise, relative to straight ahead at the same lean and travel, with the suspension held: heave change + mean suspension travel taken up (lower-joint travel x wheel-per-joint ratio) - mean contact-height change; positive lifts',
   joints:

@@ -18,6 +18,7 @@ import { buildMechanism } from '../mechanism/templates/buildMechanism';
 import { PoseSolver } from '../solver/PoseSolver';
 import { formatPoseAnalysis } from './formatPoseAnalysis';
 import { ANALYSIS_DEFINITIONS } from './definitions';
+import { formatLeanLinkage, leanLinkageMeasures, type LeanLinkageMeasures } from './leanLinkageMeasures';
 
 export { LOCAL_RATIO_STEP_DEG } from './PoseEngine';
 
@@ -72,6 +73,8 @@ export interface PoseReport {
   definitions?: typeof ANALYSIS_DEFINITIONS;
   /** With a speed: the balanced lean found and how well it balances. */
   ride?: RideReport;
+  /** With a lean linkage on the ground: its roll axis, spring, rocker and stops (leanLinkageMeasures.ts). */
+  leanLinkage?: LeanLinkageMeasures;
   /** When the request was not reached: where the linkage stopped closing. */
   limit?: LimitReport;
 }
@@ -93,8 +96,16 @@ export function solveSinglePose(
   design: ResolvedDesign,
   request: PoseRequest,
 ): { result: SolveResult; snapshot?: PoseSnapshot; report: PoseReport; text: string } {
-  const mode: PoseMode = { contact: request.contact, steerBy: request.steerBy, ...(request.hold ? { hold: request.hold } : {}) };
-  if (!design.vehicle.tilting && request.leanDeg !== 0) {
+  const mode: PoseMode = {
+    contact: request.contact,
+    steerBy: request.steerBy,
+    ...(request.hold ? { hold: request.hold } : {}),
+    ...(request.leanBy === 'rocker' ? { leanBy: 'rocker' as const } : {}),
+  };
+  if (mode.leanBy === 'rocker' && !(design.leanLinkage && design.frontEnd.kind === 'splitWishbones' && mode.contact === 'ground' && !mode.hold)) {
+    throw new PoseRequestError('the rocker angle can drive the lean only for a design with a lean linkage (leanLinkage) and the tyres on the ground');
+  }
+  if (!design.vehicle.tilting && request.leanDeg !== 0 && mode.leanBy !== 'rocker') {
     throw new PoseRequestError(`the design does not tilt (vehicle.tilting is false): lean must be 0, found ${request.leanDeg} deg`);
   }
   const engine = new PoseEngine(design, mode);
@@ -125,6 +136,8 @@ export function solveSinglePose(
     return { result, report, text: failureText(design, report, result) };
   }
   const snapshot = pose.snapshot;
+  const lean = leanLinkageMeasures(design, mode, inputs);
+  if (lean) report.leanLinkage = lean;
   report.inputs = snapshot.inputs;
   const wheel = (w: PoseSnapshot['wheels']['left']): WheelReport => ({
     toeDeg: w.toeDeg,
@@ -222,6 +235,7 @@ function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult, label
   }
   lines.push('  (toe-in positive; steer = road-wheel angle, positive left; camber top-outward positive)', '');
   if (rep.analysis) lines.push(formatPoseAnalysis(rep.analysis, design));
+  if (rep.leanLinkage) lines.push(formatLeanLinkage(rep.leanLinkage));
   lines.push('hardpoint                                   x(mm)      y(mm)      z(mm)');
   for (const [id, p] of Object.entries(rep.points!)) {
     lines.push(`${(labels[id] ?? id).padEnd(38)} ${f(p.x)}  ${f(p.y)}  ${f(p.z)}`);

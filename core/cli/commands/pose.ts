@@ -21,7 +21,11 @@ export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed
   --travel MM         wheel-centre travel relative to the frame instead of ground contact
                       (positive up; a centre-pivot design takes it on the right wheel)
   --travel-left MM, --travel-right MM   per-side travel (split wishbones)
-  --heave MM          frame height change (ignored where ground contact sets it)
+  --heave MM          frame height change (ignored where ground contact sets it); with a lean
+                      linkage (leanLinkage) on the ground: the spring travel, + = compression
+  --lean-by rocker    with a lean linkage: the rocker angle is the input (tilt lock or lean
+                      actuator) and the frame lean is solved and reported; give --rocker
+  --rocker DEG        rocker angle relative to its carrier, right-handed about the rocker axis
   --hold suspension   steering only, with the wishbones or centre members held at their design
                       position (as on a jig, to compare with bench measurements): no ground
                       contact, lean 0, travel 0; takes no --lean, --speed, --travel, --heave
@@ -38,8 +42,15 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
   try {
     const args = parseArgs(argv, {
       flags: ['json', 'on-ground'],
-      values: ['lean', 'speed', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel', 'hold'],
+      values: ['lean', 'speed', 'steer', 'travel', 'travel-left', 'travel-right', 'heave', 'wheel-angle', 'wheel', 'hold', 'lean-by', 'rocker'],
     });
+    const leanBy = args.options.get('lean-by');
+    if (leanBy !== undefined && leanBy !== 'rocker' && leanBy !== 'frame') {
+      throw new ArgError(`option --lean-by: expected rocker or frame, found ${leanBy === true ? 'no value' : quoted(leanBy)}`);
+    }
+    const byRocker = leanBy === 'rocker';
+    if (byRocker && (args.options.has('lean') || args.options.has('speed'))) throw new ArgError('--lean-by rocker takes --rocker DEG instead of --lean or --speed (the lean is solved)');
+    if (!byRocker && args.options.has('rocker')) throw new ArgError('--rocker needs --lean-by rocker');
     const hold = parseHold(args, ['lean', 'speed', 'travel', 'travel-left', 'travel-right', 'heave', 'on-ground']);
     if (args.positionals.length > 1) throw new ArgError(`expected at most one design file, found ${args.positionals.length}`);
     designPath = args.positionals[0];
@@ -55,7 +66,8 @@ export async function runPose(argv: string[], io: CliIo): Promise<number> {
     if (speed !== undefined && !(speed >= 0)) throw new ArgError(`option --speed: expected a speed of 0 km/h or more, found ${speed}`);
     if (speed !== undefined) requireWithin(speed, LIMIT.speedKmh, 'option --speed');
     request = {
-      leanDeg: limitedOption(args, 'lean', LIMIT.leanDeg, 0),
+      leanDeg: byRocker ? limitedOption(args, 'rocker', LIMIT.leanDeg, 0) : limitedOption(args, 'lean', LIMIT.leanDeg, 0),
+      ...(byRocker ? { leanBy: 'rocker' } : {}),
       handlebarDeg: limitedOption(args, 'steer', LIMIT.handlebarDeg, 0),
       heaveMm: limitedOption(args, 'heave', LIMIT.heaveMm, 0),
       // Held, no row of the mechanism reads the contact; travel (all zero) says the tyres are not asked to touch.
