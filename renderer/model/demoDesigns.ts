@@ -7,6 +7,7 @@ import finch from '../../assets/designs/finch-knuckle-steered-trike.tiltsheet?ra
 import linnet from '../../assets/designs/linnet-track-rod-trike.tiltsheet?raw';
 import swift from '../../assets/designs/swift-parallelogram-trike.tiltsheet?raw';
 import wren from '../../assets/designs/wren-rack-trike.tiltsheet?raw';
+import plover from '../../assets/designs/plover-tilting-quad.tiltsheet?raw';
 
 export interface DemoDesign {
   id: string;
@@ -22,6 +23,7 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
   { id: 'wren', fileName: 'wren-rack-trike.tiltsheet', starter: 'Non-tilting, split wishbones, rack', text: wren },
   { id: 'linnet', fileName: 'linnet-track-rod-trike.tiltsheet', starter: 'Non-tilting, split wishbones, one-piece track rod', text: linnet },
   { id: 'finch', fileName: 'finch-knuckle-steered-trike.tiltsheet', starter: 'Tilting, centre-pivot parallelogram, handlebar on the upright', text: finch },
+  { id: 'plover', fileName: 'plover-tilting-quad.tiltsheet', starter: 'Tilting quadricycle, leaning rear pair', text: plover },
 ];
 
 /** The design the workbench opens on when nothing else is asked for. */

@@ -5,6 +5,7 @@
  */
 import { useState } from 'react';
 import { isTwoSided } from '../../core/design/resolveDesign';
+import { starterLeaningRear } from '../../core/design/rearPairStarter';
 import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES, type DesignFile, type Joints } from '../../core/design/types';
 import { useActions, useDocument, usePose } from '../app/workbenchContext';
 import { setField, setFields } from '../model/designActions';
@@ -119,8 +120,14 @@ function VehicleAndLayout({ design: d }: { design: DesignFile }) {
         options={[
           { value: 'single', label: 'one rear wheel' },
           { value: 'pair', label: 'a pair of rear wheels' },
+          { value: 'leaningPair', label: 'a leaning rear pair (tilting quadricycle)' },
         ]}
-        onPick={(v) => replace([{ path: 'vehicle.rear', value: v === 'pair' ? { kind: 'pair', trackMm: 700 } : { kind: 'single' } }], `set rear: ${v}`)}
+        onPick={(v) =>
+          replace(
+            [{ path: 'vehicle.rear', value: v === 'pair' ? { kind: 'pair', trackMm: 700 } : v === 'leaningPair' ? starterLeaningRear(d) : { kind: 'single' } }],
+            `set rear: ${v}`,
+          )
+        }
       />
       {d.vehicle.rear.kind === 'pair' && <Num path="vehicle.rear.trackMm" label="Rear track" unit="mm" />}
       <FrontSuspension design={d} />

@@ -16,7 +16,7 @@ function run(args: string[]) {
 
 describe('tiltbench validate', () => {
   it('accepts every bundled demo with exit 0', () => {
-    for (const f of ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'linnet-track-rod-trike', 'finch-knuckle-steered-trike']) {
+    for (const f of ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'linnet-track-rod-trike', 'finch-knuckle-steered-trike', 'plover-tilting-quad']) {
       const r = run(['validate', join(__dirname, '..', '..', 'assets', 'designs', `${f}.tiltsheet`)]);
       expect(r.code, r.err).toBe(0);
       expect(r.out).toContain('valid');

@@ -33,6 +33,8 @@ import { zeroInputs, type PoseInputs } from '../../../core/mechanism/MechanismGr
 import { PoseSolver } from '../../../core/solver/PoseSolver';
 import { PoseEngine } from '../../../core/analysis/PoseEngine';
 import { fourWheelTurnCentre } from '../../../core/analysis/rearPair';
+import { starterLeaningRear } from '../../../core/design/rearPairStarter';
+import { loadDemos } from '../reliability/demoDesigns';
 import type { PoseAnalysis } from '../../../core/analysis/analysisTypes';
 import { report } from '../solver/report';
 
@@ -330,5 +332,21 @@ describe('leaning rear pair: validation names the field', () => {
     expect(validateDesign(d).ok).toBe(true);
     const w = designWarnings(d).map((i) => i.message).join('\n');
     expect(w).toMatch(/vehicle\.rear\.upper\.outerJoint: on the right side, the rear members and the rear upright are not a parallelogram in rear view/);
+  });
+});
+
+describe('leaning rear pair: the starter the design sheet offers', () => {
+  it('on every demo: validates without a warning about the rear, and solves lean 20 deg with the rear tyres on the ground', () => {
+    for (const demo of loadDemos()) {
+      const d = JSON.parse(JSON.stringify(demo.design)) as DesignFile;
+      d.vehicle.rear = starterLeaningRear(d);
+      const warnings = designWarnings(d).filter((w) => w.path.startsWith('vehicle.rear'));
+      expect(warnings, demo.file).toEqual([]);
+      const engine = new PoseEngine(resolved(d), { contact: 'ground', steerBy: 'handlebar' });
+      const a = engine.solve(inputs(d.vehicle.tilting ? 20 : 0, 10), { relatives: false }).analysis;
+      expect(a, demo.file).not.toBeNull();
+      expect(Math.abs(a!.rear!.left.contactPatchMm.z)).toBeLessThan(1e-9);
+      expect(Math.abs(a!.rear!.right.contactPatchMm.z)).toBeLessThan(1e-9);
+    }
   });
 });

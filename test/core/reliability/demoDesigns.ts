@@ -16,6 +16,7 @@ export const DEMO_FILES = [
   'assets/designs/wren-rack-trike.tiltsheet',
   'assets/designs/linnet-track-rod-trike.tiltsheet',
   'assets/designs/finch-knuckle-steered-trike.tiltsheet',
+  'assets/designs/plover-tilting-quad.tiltsheet',
   'test/fixtures/minimal.tiltsheet',
 ] as const;
 

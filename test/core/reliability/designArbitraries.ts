@@ -392,6 +392,23 @@ export function plausibleDesign(values: readonly number[]): DesignFile {
     design.joints.tieRodInner = JSON.parse(JSON.stringify(design.joints.tieRodOuter));
     if (design.steering.drive.kind === 'knuckle') design.upright.steeringAxis = 'kingpin';
   }
+  // A leaning rear pair one time in five (drawn last, so the draws above are those of earlier seeds):
+  // a parallelogram or, one time in four, members of different reach (which lock the pair).
+  if (u.next() < 0.2) {
+    const rearTyre = design.wheels.rear.rollingRadiusMm;
+    const x = -design.vehicle.wheelbaseMm;
+    const reach = L(u.between(0.15, 0.5));
+    const lowZ = rearTyre * u.between(0.3, 1);
+    const highZ = lowZ + L(u.between(0.1, 0.4));
+    const skew = u.next() < 0.25 ? L(u.between(-0.05, 0.05)) : 0;
+    const axis = P(1, 0, u.between(-0.2, 0.2));
+    design.vehicle.rear = {
+      kind: 'leaningPair',
+      upper: { pivot: P(x, 0, highZ), pivotAxis: axis, outerJoint: P(x, -reach - skew, highZ) },
+      lower: { pivot: P(x, 0, lowZ), pivotAxis: axis, outerJoint: P(x, -reach, lowZ) },
+      wheelCentre: P(x, -reach - L(u.between(0.02, 0.15)), rearTyre + L(0.02) * (u.next() - 0.5)),
+    };
+  }
   return design;
 }
 
@@ -473,6 +490,15 @@ export function wildDesign(values: readonly number[]): DesignFile {
       const t = u.between(0.05, 0.95);
       drive.trackRodJoint = P(arm.right.x + t * (arm.left.x - arm.right.x), arm.right.y + t * (arm.left.y - arm.right.y), arm.right.z + t * (arm.left.z - arm.right.z));
     }
+  }
+  // A wild leaning rear pair one time in four (drawn last, so the draws above are those of earlier seeds).
+  if (u.next() < 0.25) {
+    design.vehicle.rear = {
+      kind: 'leaningPair',
+      upper: { pivot: P(c(), u.next() < 0.8 ? 0 : c(), c()), pivotAxis: dir(), outerJoint: sided(right) },
+      lower: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
+      wheelCentre: sided(() => P(u.next() < 0.7 ? -design.vehicle.wheelbaseMm : c(), -Math.abs(c()), Math.abs(c()) + 1)),
+    };
   }
   return design;
 }

@@ -112,8 +112,13 @@ export function closureProblems(graph: MechanismGraph, s: PoseSnapshot, target: 
         break;
       }
       case 'groundContact': {
-        const w = graph.wheels.find((x) => x.body === c.body)!;
-        const z = s.wheels[w.side].contactPoint[2];
+        // A front wheel's contact from the snapshot; a rear wheel on its own body (a leaning rear
+        // pair) from the tilted crown circle's lowest point: (R - r) sqrt(1 - a_z^2) below the centre, then r.
+        const w = graph.wheels.find((x) => x.body === c.body);
+        const a = dirOf(s, c.body, c.spinAxis);
+        const z = w
+          ? s.wheels[w.side].contactPoint[2]
+          : worldOf(s, c.body, c.wheelCentre)[2] - (c.rollingRadius - c.crownRadius) * Math.sqrt(Math.max(0, 1 - a[2] * a[2] / (a[0] ** 2 + a[1] ** 2 + a[2] ** 2))) - c.crownRadius;
         if (!(Math.abs(z) <= tol)) problems.push(`${c.label}: contact point at z = ${z} mm`);
         break;
       }
