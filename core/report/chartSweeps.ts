@@ -8,7 +8,7 @@
 import { resolveDesign } from '../design/resolveDesign';
 import type { DesignFile, ResolvedDesign } from '../design/types';
 import { runSweep, type SweepAxes } from '../analysis/sweep';
-import { CURVE_KINDS, curve } from '../analysis/curves';
+import { CURVE_KINDS, curve, type CurveKind } from '../analysis/curves';
 import { balancedLines, envelopeMap } from '../analysis/envelopeMap';
 import type { Verdict } from '../analysis/tolerance';
 import type { CurveSet, EnvelopeMapData, MapBalancedLine, MapCell } from './charts/chartData';
@@ -26,16 +26,22 @@ export function symmetricAxis(half: number, step: number): number[] {
 
 export interface CurveRequest {
   design: DesignFile;
+  /**
+   * Only these kinds (the workbench asks for the open chart's first, then the rest); every
+   * kind when absent. A kind not asked for is in neither `curves` nor `missing`.
+   */
+  kinds?: readonly CurveKind[];
 }
 
-/** Every 1-D curve core defines, for the design's envelope (core's default axes). */
+/** Every 1-D curve core defines (or those asked for), for the design's envelope (core's default axes). */
 export function computeCurves(req: CurveRequest, progress?: Progress): CurveSet {
   const t0 = Date.now();
   const d = resolveDesign(req.design);
-  const kinds = CURVE_KINDS.filter((k) => d.vehicle.tilting || !LEAN_CURVES.has(k));
+  const asked = req.kinds ?? CURVE_KINDS;
+  const kinds = asked.filter((k) => d.vehicle.tilting || !LEAN_CURVES.has(k));
   const curves: CurveSet['curves'] = {};
   const missing: CurveSet['missing'] = {};
-  for (const k of CURVE_KINDS) if (!kinds.includes(k)) missing[k] = NO_LEAN_REASON;
+  for (const k of asked) if (!kinds.includes(k)) missing[k] = NO_LEAN_REASON;
   kinds.forEach((k, i) => {
     progress?.(i, kinds.length);
     try {

@@ -11,7 +11,7 @@ import { setPlots } from '../state/uiStore';
 import type { Workbench } from '../state/workbench';
 import type { MapMetric } from '../../core/report/charts/chartData';
 import { ChartView } from './ChartView';
-import { CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
+import { CHART_CURVES, CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
 import { heatMapOption, MAP_METRICS } from '../../core/report/charts/heatMapOptions';
 import { sameGrid, withReference, withReferenceMap } from '../../core/report/charts/referenceOverlay';
 import { heldRanges, withHeldRanges } from '../../core/report/charts/axisRange';
@@ -98,7 +98,8 @@ function useRecompute(): void {
       lastAskAt.current = performance.now();
       const { tab, resolution } = wb.ui.getState().plots;
       if (tab === 'map') wb.jobs.runMap(resolution);
-      else wb.jobs.runCurves();
+      // The open chart's curves first, shown as soon as they come; the other charts' after.
+      else wb.jobs.runCurves(CHART_CURVES[tab]);
     };
     if (!wanted()) return;
     clearTimeout(timer.current);
@@ -222,6 +223,7 @@ function PlotBody({ running }: { running: boolean }) {
   const valid = usePose((s) => s.resolved !== null);
   const slot = useJobs((s) => (tab === 'map' ? s.map : s.curves));
   const curves = useJobs((s) => s.curves.result);
+  const pendingKinds = useJobs((s) => s.curves.pendingKinds);
   const map = useJobs((s) => s.map.result);
   const marker = useSettledMarker();
   const reference = useReferenceCurves();
@@ -239,10 +241,11 @@ function PlotBody({ running }: { running: boolean }) {
       const own = heatMapOption(map, metric, marker.leanDeg !== null && marker.handlebarDeg !== null ? { leanDeg: marker.leanDeg, handlebarDeg: marker.handlebarDeg } : null);
       return referenceMap && mapsComparable ? withReferenceMap(own, referenceMap.map, metric, referenceMap.label) : own;
     }
-    if (!curves) return null;
+    // A tab whose curves are still to come (another chart's came first) waits for them.
+    if (!curves || CHART_CURVES[tab].some((k) => pendingKinds.includes(k))) return null;
     const own = curveOption(tab, curves, marker);
     return reference ? withReference(own, curveOption(tab, reference.curves), reference.label) : own;
-  }, [tab, curves, map, metric, marker, reference, referenceMap, mapsComparable]);
+  }, [tab, curves, pendingKinds, map, metric, marker, reference, referenceMap, mapsComparable]);
   const ranges = useMemo(() => (heldCurves && tab !== 'map' ? heldRanges(curveOption(tab, heldCurves)) : null), [heldCurves, tab]);
   const option = shown && ranges ? withHeldRanges(shown, ranges) : shown;
   const stale = slot.result !== null && slot.resultRevision !== revision;

@@ -6,6 +6,7 @@
  */
 import { createStore, type StoreApi } from 'zustand/vanilla';
 import type { CurveSet, EnvelopeMapData } from '../../core/report/charts/chartData';
+import { CURVE_KINDS, type CurveKind } from '../../core/analysis/curves';
 import type { CurveRequest, MapRequest } from '../workers/sweepJobs';
 import { CancelledError, SweepClient } from '../workers/sweepClient';
 import type { DocumentStore } from './documentStore';
@@ -32,6 +33,12 @@ export interface JobSlot<Req, Res> {
   result: Res | null;
   /** Revision of the design the result is for (-1 before the first). */
   resultRevision: number;
+  /**
+   * Curve kinds of that revision still to come: the open chart's curves are computed and shown
+   * first, the other charts' follow in a second job (empty once the result is whole; always
+   * empty for the map).
+   */
+  pendingKinds: readonly CurveKind[];
   error: string | null;
 }
 
@@ -43,7 +50,12 @@ export interface JobsState {
 export type JobKind = keyof JobsState;
 export type JobsStore = StoreApi<JobsState>;
 
-const idle = <Req, Res>(): JobSlot<Req, Res> => ({ request: null, progress: null, result: null, resultRevision: -1, error: null });
+const idle = <Req, Res>(): JobSlot<Req, Res> => ({ request: null, progress: null, result: null, resultRevision: -1, pendingKinds: [], error: null });
+
+/** One curve set from the open chart's part and the rest, computed for the same design. */
+export function mergeCurveSets(first: CurveSet, rest: CurveSet): CurveSet {
+  return { ...rest, curves: { ...first.curves, ...rest.curves }, missing: { ...first.missing, ...rest.missing }, elapsedMs: first.elapsedMs + rest.elapsedMs };
+}
 
 export class Jobs {
   readonly store: JobsStore = createStore<JobsState>()(() => ({ curves: idle(), map: idle() }));
@@ -53,9 +65,26 @@ export class Jobs {
     private readonly client: SweepClient = new SweepClient(),
   ) {}
 
-  runCurves(): void {
+  /**
+   * Every curve of the design; with `first` (the open chart's kinds) in two jobs: those first,
+   * shown as soon as they come (the slot's result for this revision, with the rest in
+   * `pendingKinds`), then the rest, merged into one set.
+   */
+  runCurves(first: readonly CurveKind[] = []): void {
     const { design, revision } = this.document.getState();
-    this.run('curves', { design, revision }, (req, progress) => this.client.curves(req, progress));
+    const firstKinds = CURVE_KINDS.filter((k) => first.includes(k));
+    const rest = CURVE_KINDS.filter((k) => !first.includes(k));
+    this.run('curves', { design, revision }, async (req, progress) => {
+      if (firstKinds.length === 0 || rest.length === 0) return this.client.curves(req, progress);
+      const total = CURVE_KINDS.length;
+      const part = await this.client.curves({ ...req, kinds: firstKinds }, (done) => progress(done, total));
+      // Stopped or overtaken in between (cancel, a newer job): nothing more for this request.
+      const slot = this.store.getState().curves;
+      if (slot.request !== req || slot.progress === null) throw new CancelledError();
+      this.update('curves', { result: part, resultRevision: req.revision, pendingKinds: rest, progress: { done: firstKinds.length, total } });
+      const others = await this.client.curves({ ...req, kinds: rest }, (done) => progress(firstKinds.length + done, total));
+      return mergeCurveSets(part, others);
+    });
   }
 
   runMap(resolution: MapResolution): void {
@@ -89,7 +118,7 @@ export class Jobs {
     if (this.store.getState()[other].progress !== null) this.settle(other, { request: null });
     this.update(kind, { request, progress: { done: 0, total: 1 }, error: null });
     start(request, (done, total) => this.update(kind, { progress: { done, total } }))
-      .then((result) => this.settle(kind, { result, resultRevision: request.revision }))
+      .then((result) => this.settle(kind, { result, resultRevision: request.revision, pendingKinds: [] }))
       .catch((e: unknown) => {
         // A cancelled job was stopped by cancel() or by a newer job, which set the slot itself.
         if (e instanceof CancelledError) return;
