@@ -36,7 +36,7 @@ export const ANALYSIS_DEFINITIONS = {
   transmission: 'asin of the cosine between a link and the path of the lever joint it drives: 90 ideal, 0 dead centre; positive on the design side',
   motionRatio: 'spring length change per wheel-centre travel, steering held; positive when the spring shortens as the wheel rises',
   leanLinkage:
-    'balance-beam lean linkage: on the ground the heave input is the spring travel (compression +) and pure lean holds it; the frame height and lateral place are solved (mean y of the two front contact points 0); motion ratio = spring compression per mm of mean wheel-centre bump relative to the frame, lean and handlebar held (central difference, +/- 0.5 mm of spring travel)',
+    'balance-beam lean linkage: on the ground the heave input is the spring travel (extension +, as a frame heave: a sweep with wheel travel t sets heave -t, compressing the spring by t) and pure lean holds it; the frame height and lateral place are solved (mean y of the two front contact points 0); motion ratio = spring compression per mm of mean wheel-centre bump relative to the frame, lean and handlebar held (central difference, +/- 0.5 mm of spring travel)',
   rollAxis:
     'the frame\'s instantaneous screw axis relative to the ground between lean - 0.05 and lean + 0.05 deg (spring travel held): height and lateral place where it crosses x = 0, inclination to the ground (rising forward +), and where it meets the ground (absent below 0.1 deg of inclination: parallel to the ground)',
   rockerStops:

@@ -46,7 +46,7 @@ export interface LeanLinkageMeasures {
   /** The lean the frame has (solved in the tilt-lock mode), degrees. */
   leanDeg: number;
   springLengthMm: number;
-  /** Spring compression from design (heaveMm on the ground), mm. */
+  /** Spring compression from design (-heaveMm on the ground), mm. */
   springTravelMm: number;
   /** Spring compression per mm of mean wheel-centre bump relative to the frame, lean and handlebar held. */
   motionRatio: number | null;
@@ -259,7 +259,7 @@ export function formatLeanLinkage(m: LeanLinkageMeasures): string {
     : `- (${m.rollAxisReason ?? 'not found'})`;
   return [
     'lean linkage (balance beam; lean with the spring held, frame height and lateral place solved):',
-    `  spring length ${m.springLengthMm.toFixed(2)} mm, spring travel ${n(m.springTravelMm, 2)} mm (compression +; the heave input of this layout)`,
+    `  spring length ${m.springLengthMm.toFixed(2)} mm, spring compression ${n(m.springTravelMm, 2)} mm (the heave input of this layout is spring extension +)`,
     `  motion ratio ${f(m.motionRatio, 4, '', m.motionRatioReason)} (spring compression per mm of mean wheel-centre bump relative to the frame)`,
     `  spring length change with lean ${f(m.springPerLeanMmPerDeg, 6, 'mm/deg', m.springPerLeanReason)}`,
     `  rocker angle ${n(m.rockerDeg, 3)} deg (relative to its carrier), stops +/-${m.stopDeg.toFixed(1)} deg, stop margin ${m.stopMarginDeg.toFixed(3)} deg`,

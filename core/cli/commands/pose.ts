@@ -22,7 +22,7 @@ export const poseHelp = `tiltbench pose [design.tiltsheet] (--lean DEG | --speed
                       (positive up; a centre-pivot design takes it on the right wheel)
   --travel-left MM, --travel-right MM   per-side travel (split wishbones)
   --heave MM          frame height change (ignored where ground contact sets it); with a lean
-                      linkage (leanLinkage) on the ground: the spring travel, + = compression
+                      linkage (leanLinkage) on the ground: the spring travel, + = extension
   --lean-by rocker    with a lean linkage: the rocker angle is the input (tilt lock or lean
                       actuator) and the frame lean is solved and reported; give --rocker
   --rocker DEG        rocker angle relative to its carrier, right-handed about the rocker axis

@@ -2,7 +2,9 @@
  * The balance-beam (rocker) lean linkage (design block `leanLinkage`): a carrier on a slide in
  * the frame along the spring's line, a rocker on a revolute joint in the carrier, and a push
  * link per side (a distance row) from the rocker to that side's wishbone. With the tyres on the
- * ground the spring travel (heaveMm, + = compression) drives the carrier, so pure lean turns
+ * ground the spring travel drives the carrier through heaveMm, + = spring extension (the sign of
+ * a frame heave: every caller that sets heave = -wheel travel then compresses the spring in
+ * bump), so pure lean turns
  * the rocker and leaves the spring's length alone; with the wheels' travel given (or the
  * suspension held) the carrier and rocker are solved from the wishbones. In the tilt-lock pose
  * mode (`leanBy: 'rocker'`) the rocker angle is the input and the frame's lean is solved.
@@ -33,7 +35,7 @@ export function onGround(mode: PoseMode): boolean {
   return mode.contact === 'ground' && mode.hold !== 'suspension';
 }
 
-/** The carrier's slide direction: from its spring mount toward the frame's, so + compresses the spring. */
+/** The carrier's slide direction: from its spring mount toward the frame's (a positive slide compresses the spring). */
 export function carrierAxis(l: ResolvedLeanLinkage): [number, number, number] {
   const d = sub(l.carrier.frameMount, l.carrier.carrierMount);
   const n = Math.hypot(d[0], d[1], d[2]);
@@ -44,7 +46,7 @@ export function addLeanLinkage(b: MechanismBuilder, design: ResolvedDesign, fram
   const l = design.leanLinkage;
   if (!l) return;
   const ground = onGround(mode);
-  const carrierDriver: { driver?: InputBinding } = ground ? { driver: { input: 'heaveMm', gain: 1 } } : {};
+  const carrierDriver: { driver?: InputBinding } = ground ? { driver: { input: 'heaveMm', gain: -1 } } : {};
   const carrier = b.addBody(LEAN_IDS.carrier, 'lean linkage carrier', {
     kind: 'prismatic',
     parent: frame,

@@ -60,14 +60,15 @@ describe('balance-beam lean linkage (Pipit demo)', () => {
       }
     }
     for (const lean of [0, 15]) {
-      for (let s = -env.reboundMm; s <= env.bumpMm + 1e-9; s += 5) {
+      // heaveMm is spring extension here: rebound is +, bump is -.
+      for (let s = -env.bumpMm; s <= env.reboundMm + 1e-9; s += 5) {
         const r = solver.solve(inputs({ leanDeg: lean, heaveMm: s }));
         expect(r.reached, `lean ${lean} spring travel ${s}: ${r.message}`).toBe(true);
         worst = Math.max(worst, r.residualMm!);
         count++;
       }
     }
-    expect(count).toBe(11 * 11 + 2 * 11);
+    expect(count).toBe(11 * 11 + 2 * (Math.floor((env.bumpMm + env.reboundMm) / 5 + 1e-9) + 1));
     expect(worst).toBeLessThan(1e-9);
   });
 
@@ -185,7 +186,8 @@ describe('balance-beam lean linkage (Pipit demo)', () => {
       travel.reset();
       solveOrThrow(travel, inputs({ leanDeg: lean, travelRightMm: travelOf('right'), travelLeftMm: travelOf('left') }));
       expect(springLength(travel)).toBeCloseTo(spring, 7);
-      expect(spring).toBeCloseTo(200 - heave, 9);
+      // heaveMm is spring extension on this layout.
+      expect(spring).toBeCloseTo(200 + heave, 9);
     }
   });
 });
