@@ -87,6 +87,33 @@ export function formatPoseAnalysis(a: PoseAnalysis, design: ResolvedDesign): str
       ? `turn centre (front slip balanced): x ${sl.turnCentreMm.x.toFixed(0)}, y ${sl.turnCentreMm.y.toFixed(0)} mm; radius ${sl.turnRadiusMm!.toFixed(0)} mm`
       : `turn centre: - (${sl.reason})`,
   );
+  if (a.rear) {
+    const r = a.rear;
+    // fixed digits, never "-0.000" for a value that rounds to zero
+    const fx = (v: number, d: number) => {
+      const t = v.toFixed(d);
+      return /^-0\.?0*$/.test(t) ? t.slice(1) : t;
+    };
+    const xyzText = (p: { x: number; y: number; z: number }) => `${fx(p.x, 1)}, ${fx(p.y, 1)}, ${fx(p.z, 1)}`;
+    lines.push(
+      'leaning rear pair                        left     right',
+      `  road-wheel angle (deg, left +)     ${fx(r.left.steerDeg, 3).padStart(9)} ${fx(r.right.steerDeg, 3).padStart(9)}`,
+      `  toe (deg, toe-in +)                ${fx(r.left.toeDeg, 3).padStart(9)} ${fx(r.right.toeDeg, 3).padStart(9)}`,
+      `  camber to ground (deg, top out +)  ${fx(r.left.camberDeg, 3).padStart(9)} ${fx(r.right.camberDeg, 3).padStart(9)}`,
+      `  camber to frame (deg)              ${fx(r.left.camberToFrameDeg, 3).padStart(9)} ${fx(r.right.camberToFrameDeg, 3).padStart(9)}`,
+      `  contact patch x, y, z (mm): left ${xyzText(r.left.contactPatchMm)}; right ${xyzText(r.right.contactPatchMm)}`,
+    );
+    const t = r.turnCentre;
+    if (t.centreMm && t.slipDeg) {
+      const s = t.slipDeg;
+      lines.push(
+        `four-wheel turn centre (least squares of the four axis lines): x ${t.centreMm.x.toFixed(0)}, y ${t.centreMm.y.toFixed(0)} mm; lines ${num(t.lineSpreadMm, 1, 0)} mm rms from it`,
+        `  slip to it (deg, ISO 8855): front L/R ${fx(s.frontLeftDeg, 3)} / ${fx(s.frontRightDeg, 3)}, rear L/R ${fx(s.rearLeftDeg, 3)} / ${fx(s.rearRightDeg, 3)}`,
+      );
+    } else {
+      lines.push(`four-wheel turn centre: - (${t.reason})`);
+    }
+  }
   const tc = a.turningCircle;
   lines.push(
     tc.turningDiameterMm === null
