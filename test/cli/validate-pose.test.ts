@@ -16,7 +16,7 @@ function run(args: string[]) {
 
 describe('tiltbench validate', () => {
   it('accepts every bundled demo with exit 0', () => {
-    for (const f of ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'linnet-track-rod-trike', 'finch-knuckle-steered-trike', 'plover-tilting-quad']) {
+    for (const f of ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'linnet-track-rod-trike', 'finch-knuckle-steered-trike', 'plover-tilting-quad', 'pipit-balance-beam-trike']) {
       const r = run(['validate', join(__dirname, '..', '..', 'assets', 'designs', `${f}.tiltsheet`)]);
       expect(r.code, r.err).toBe(0);
       expect(r.out).toContain('valid');

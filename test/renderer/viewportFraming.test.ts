@@ -28,7 +28,7 @@ import { NEAR_WHEEL_OPACITY } from '../../renderer/viewport/wheelsUpdate';
 import { TYRE_SEGMENTS } from '../../renderer/viewport/wheelGeometry';
 import { demoWorkbench } from './helpers';
 
-const DEMOS = ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'plover-tilting-quad'];
+const DEMOS = ['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'plover-tilting-quad', 'pipit-balance-beam-trike'];
 const VIEWS: CameraViewName[] = ['threeQuarter', 'front', 'side', 'top'];
 // Canvas sizes of the viewport at 1280x800 and 1920x1080 windows, and a tall narrow one.
 const SIZES: [number, number][] = [

@@ -17,6 +17,7 @@ export const DEMO_FILES = [
   'assets/designs/linnet-track-rod-trike.tiltsheet',
   'assets/designs/finch-knuckle-steered-trike.tiltsheet',
   'assets/designs/plover-tilting-quad.tiltsheet',
+  'assets/designs/pipit-balance-beam-trike.tiltsheet',
   'test/fixtures/minimal.tiltsheet',
 ] as const;
 
