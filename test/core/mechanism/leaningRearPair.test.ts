@@ -83,6 +83,11 @@ describe('leaning rear pair: the Plover demo', () => {
     expect(graph.wheels.map((w) => w.side).sort()).toEqual(['left', 'right']);
     expect(graph.rearWheels?.map((w) => w.side).sort()).toEqual(['left', 'right']);
     expect(graph.drawing.rearWheels.map((w) => w.body).sort()).toEqual(['left.rearUpright', 'right.rearUpright']);
+    // every drawn joint selects a row of the hardpoint table (the rear joints included)
+    const ids = new Set(hardpointIds(demoFile()));
+    const drawn = graph.drawing.joints.map((j) => j.hardpoint);
+    expect(drawn.filter((h) => !ids.has(h))).toEqual([]);
+    expect(drawn).toContain('vehicle.rear.upper.outerJoint.right');
     // the resolved design writes back to the file form it came from
     expect(unresolveDesign(design)).toEqual(demoFile());
   });
