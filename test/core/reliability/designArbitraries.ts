@@ -409,8 +409,31 @@ export function plausibleDesign(values: readonly number[]): DesignFile {
       wheelCentre: P(x, -reach - L(u.between(0.02, 0.15)), rearTyre + L(0.02) * (u.next() - 0.5)),
     };
   }
+  // A balance-beam lean linkage on a third of the tilting split-wishbone ones (drawn last): a rocker
+  // above the wishbones on a carrier sliding up to the frame, push links to a point part-way along
+  // one wishbone of each side.
+  const fe = design.frontEnd;
+  if (fe.kind === 'splitWishbones' && tilting && u.next() < 0.35) {
+    const on = u.pick(['upper', 'lower'] as const);
+    const w = fe[on];
+    const t = u.between(0.25, 0.85);
+    const inner = mid(w.frontPivot as Vec3Mm, w.rearPivot as Vec3Mm);
+    const outer = w.outerJoint as Vec3Mm;
+    const armJoint = P(inner.x + t * (outer.x - inner.x), inner.y + t * (outer.y - inner.y), inner.z + t * (outer.z - inner.z));
+    const pivotZ = upperZ + L(u.between(0.05, 0.3));
+    const half = L(u.between(0.04, 0.2));
+    const carrierMount = P(0, 0, pivotZ + L(0.03));
+    design.leanLinkage = {
+      carrier: { carrierMount, frameMount: P(0, L(0.01) * (u.next() - 0.5), carrierMount.z + L(u.between(0.1, 0.3))) },
+      rocker: { pivot: P(0, 0, pivotZ), axis: P(1, 0, u.between(-0.1, 0.1)), linkJoint: P(armJoint.x * u.next(), -half, pivotZ + L(0.02) * (u.next() - 0.5)), stopDeg: u.between(10, 60) },
+      pushLinks: { on, armJoint },
+      ...(u.next() < 0.5 ? { actuator: { frameMount: P(0, -half / 2, pivotZ + L(0.15)), rockerMount: P(0, -half / 2, pivotZ) } } : {}),
+    };
+  }
   return design;
 }
+
+const mid = (a: Vec3Mm, b: Vec3Mm): Vec3Mm => P((a.x + b.x) / 2, (a.y + b.y) / 2, (a.z + b.z) / 2);
 
 /** Every point and direction uniform in a random box; only the schema's bounds respected. */
 export function wildDesign(values: readonly number[]): DesignFile {
@@ -498,6 +521,15 @@ export function wildDesign(values: readonly number[]): DesignFile {
       upper: { pivot: P(c(), u.next() < 0.8 ? 0 : c(), c()), pivotAxis: dir(), outerJoint: sided(right) },
       lower: { pivot: P(c(), 0, c()), pivotAxis: dir(), outerJoint: sided(right) },
       wheelCentre: sided(() => P(u.next() < 0.7 ? -design.vehicle.wheelbaseMm : c(), -Math.abs(c()), Math.abs(c()) + 1)),
+    };
+  }
+  // A wild lean linkage one time in four (drawn last): any points, refused or not by the checks across fields.
+  if (u.next() < 0.25) {
+    design.leanLinkage = {
+      carrier: { frameMount: point(), carrierMount: point() },
+      rocker: { pivot: point(), axis: dir(), linkJoint: sided(right), stopDeg: u.between(0.1, 90) },
+      pushLinks: { on: u.pick(['upper', 'lower'] as const), armJoint: sided(right) },
+      ...(u.next() < 0.5 ? { actuator: { frameMount: point(), rockerMount: point() } } : {}),
     };
   }
   return design;

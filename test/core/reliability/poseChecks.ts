@@ -133,6 +133,12 @@ export function closureProblems(graph: MechanismGraph, s: PoseSnapshot, target: 
         if (!(Math.abs(h - want) <= tol)) problems.push(`${c.label}: height ${h} mm in the frame, wanted ${want} mm`);
         break;
       }
+      case 'meanContactY': {
+        // A lean linkage's frame place: the two front contact points' mean y is 0.
+        const y = (s.wheels.left.contactPoint[1] + s.wheels.right.contactPoint[1]) / 2;
+        if (!(Math.abs(y) <= tol)) problems.push(`${c.label}: mean contact y = ${y} mm`);
+        break;
+      }
       case 'wheelHeading': {
         const a = dirOf(s, c.body, c.spinAxis);
         const heading = (Math.atan2(-a[0], a[1]) * 180) / Math.PI;
