@@ -51,9 +51,11 @@ function enumerate(d: DesignFile): [string, number, number, number][] {
   // Single points of sided fields: the walk above sees them as plain vectors; split them.
   walk(d, []);
   const sided = new Set(['frontPivot', 'rearPivot', 'outerJoint', 'steeringArmJoint', 'wheelCentre', 'tieRodJoint', 'frameMount', 'armMount']);
+  // The lean linkage's sided points are its link and arm joints; its mounts are centre points.
+  const leanSided = new Set(['linkJoint', 'armJoint']);
   return out.flatMap(([id, x, y, z]) => {
     const last = id.split('.').pop()!;
-    if (!sided.has(last)) return [[id, x, y, z] as [string, number, number, number]];
+    if (!(id.startsWith('leanLinkage.') ? leanSided : sided).has(last)) return [[id, x, y, z] as [string, number, number, number]];
     return [
       [`${id}.right`, x, y, z] as [string, number, number, number],
       [`${id}.left`, x, y === 0 ? 0 : -y, z] as [string, number, number, number],
