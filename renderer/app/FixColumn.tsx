@@ -10,6 +10,7 @@ import { HardpointTable } from '../panels/HardpointTable';
 import { LimitsPanel } from '../panels/LimitsPanel';
 import { AlertsPanel } from '../panels/ReadoutPanel';
 import { SelectedPoint } from '../panels/SelectedPoint';
+import { OrphanFix } from '../panels/FixPanel';
 import type { FixColumnTab } from '../state/uiStore';
 import { StudiesPanel } from '../studies/StudiesPanel';
 import { useUi, useWorkbenchApi } from './workbenchContext';
@@ -44,6 +45,7 @@ export function FixColumn() {
       </div>
       <Tab id="findings">
         <SelectedPoint />
+        <OrphanFix />
         <AlertsPanel />
         <LimitsPanel />
       </Tab>

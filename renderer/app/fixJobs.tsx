@@ -5,10 +5,12 @@
  * plots of that edit are drawn (or after a quiet spell when no plot is being computed), so
  * they never hold up the curves; the buttons stay as "run again".
  */
-import { createContext, useContext, useEffect, useRef, type ReactNode } from 'react';
+import { createContext, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import { useDocument, useJobs, usePose, useUi } from './workbenchContext';
 import { useStudyJob } from '../studies/useStudyJob';
 import { useSensitivity } from '../studies/useSensitivity';
+import type { CheckData } from '../workers/studyJobs';
+import type { DesignFile } from '../../core/design/types';
 
 /** How long after an edit the check starts even if the plots have not finished, ms. */
 export const FIX_JOBS_FALLBACK_MS = 1500;
@@ -19,6 +21,8 @@ type RatesJob = ReturnType<typeof useSensitivity>;
 export interface FixJobs {
   check: CheckJob;
   rates: RatesJob;
+  /** The last check that finished (kept while the next one runs, so the findings do not vanish at each edit); null before the first. */
+  lastCheck: { data: CheckData; forDesign: DesignFile } | null;
 }
 
 const FixJobsContext = createContext<FixJobs | null>(null);
@@ -44,6 +48,8 @@ export function FixJobsProvider({ children, auto = true }: { children: ReactNode
     firstSeen.current = Date.now();
   }, [revision]);
 
+  const [lastCheck, setLastCheck] = useState<FixJobs['lastCheck']>(null);
+  if (check.state.phase === 'done' && lastCheck?.data !== check.state.data) setLastCheck({ data: check.state.data, forDesign: check.state.forDesign });
   const checkFor = check.state.phase === 'done' ? check.state.forDesign : null;
   const ratesFor = rates.state.phase === 'done' ? rates.state.forDesign : null;
   const checkRunning = check.state.phase === 'running';
@@ -73,5 +79,5 @@ export function FixJobsProvider({ children, auto = true }: { children: ReactNode
     return undefined;
   }, [auto, valid, dragging, plotsBusy, design, checkFor, ratesFor, checkRunning, ratesRunning, runCheck, runRates]);
 
-  return <FixJobsContext.Provider value={{ check, rates }}>{children}</FixJobsContext.Provider>;
+  return <FixJobsContext.Provider value={{ check, rates, lastCheck }}>{children}</FixJobsContext.Provider>;
 }

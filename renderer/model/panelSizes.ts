@@ -5,9 +5,9 @@
  */
 
 export interface PanelSizes {
-  /** Left column (pose, alerts, readings), px; null: the default width for the window. */
+  /** Left column (Ride: pose inputs and playback), px; null: the default width for the window. */
   leftPx: number | null;
-  /** Right column (hardpoints, studies, design sheet), px. */
+  /** Right column (what is wrong and its fix; all hardpoints, studies, settings), px. */
   rightPx: number | null;
   /** Plot strip, px. */
   plotsPx: number | null;

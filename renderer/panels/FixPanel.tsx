@@ -7,10 +7,11 @@
 import { useEffect, useMemo, useRef } from 'react';
 import type { CheckWhere } from '../../core/analysis/designCheck';
 import { oppositeDirection } from '../../core/studies/studyCoordinates';
-import { useActions, useDocument, useStudies, useUi, useWorkbenchApi } from '../app/workbenchContext';
+import { useActions, useDocument, usePose, useStudies, useUi, useWorkbenchApi } from '../app/workbenchContext';
+import type { Alert } from '../model/analysisAdapter';
 import { useFixJobs } from '../app/fixJobs';
 import { setCoordinate } from '../model/designActions';
-import { fixPoints, objectiveKind, proposalsFor, usableObjective, type OpenFinding } from '../model/findings';
+import { fixPoints, proposalsFor, usableObjective, type OpenFinding } from '../model/findings';
 import { fmt } from '../model/format';
 import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpoints';
 import { SEVERITY_STYLE } from '../model/severity';
@@ -47,6 +48,34 @@ export function openFinding(ui: UiStore, actions: WorkbenchActions, f: OpenFindi
 export function FixSlot({ id }: { id: string }) {
   const open = useUi((s) => (s.finding?.id === id ? s.finding : null));
   return open ? <FixView finding={open} /> : null;
+}
+
+/**
+ * The open finding's fix when its finding is no longer listed (an edit fixed it, the pose moved
+ * on, or the check is running again): shown above the lists, so the fix never vanishes under
+ * the hand that is using it.
+ */
+export function OrphanFix() {
+  const finding = useUi((s) => s.finding);
+  const alerts = usePose((s) => s.outcome.alerts);
+  const shared = useFixJobs();
+  if (!finding) return null;
+  const listed =
+    finding.source === 'pose'
+      ? alerts.some((a) => poseFindingId(a) === finding.id)
+      : (shared?.lastCheck?.data.items ?? []).some((it) => it.verdict !== 'within' && `region:${it.id}` === finding.id);
+  if (listed) return null;
+  return (
+    <section className="panel orphan-fix" data-testid="orphan-fix">
+      <p className="hint">{finding.source === 'pose' ? 'Not reported in this pose now' : 'Not listed by the last check of the operating region'}:</p>
+      <FixView finding={finding} />
+    </section>
+  );
+}
+
+/** An alert's finding id, kept while the pose moves: its words without their numbers, with what it is about. */
+export function poseFindingId(a: Alert): string {
+  return `pose:${a.hardpoint ?? ''}:${a.text.replace(/[−+-]?\d+(\.\d+)?/g, '#')}`;
 }
 
 /** The hardpoint-table row a sensitivity key is edited through: the right (or centre) row; a mirrored pair moves together. */
@@ -90,7 +119,7 @@ export function FixView({ finding }: { finding: OpenFinding }) {
       ) : (
         <>
           <h4>
-            Points that move {objectiveInfo ? objectiveInfo.label : 'it'} most
+            Hardpoints that move it most{objectiveInfo ? ` (${objectiveInfo.label})` : ''}
             {rates?.stale && <span className="hint is-stale"> (rates from before your last edit)</span>}
           </h4>
           {rates && <StudyProgress state={rates.state} what="rates" onCancel={rates.cancel} />}
@@ -109,14 +138,14 @@ export function FixView({ finding }: { finding: OpenFinding }) {
                   if (!row) return null;
                   const unit = objectiveInfo?.unit ?? '';
                   const better = pt.best.improveSign > 0 ? pt.best.direction : oppositeDirection(pt.best.direction);
-                  // Moving the better way lowers a worst |value| and raises a least margin, by the rate's size.
-                  const change = objectiveKind(objective!) === 'worst' ? -Math.abs(pt.best.perMm) : Math.abs(pt.best.perMm);
+                  // Moving the better way lowers a worst |value| or raises a least margin, by the rate's size.
+                  const change = pt.best.perMm;
                   return (
                     <tr key={pt.key} className="fix-point" data-testid={`fix-point-${row.id}`} onClick={() => actions.select(row.id)}>
                       <th scope="row">
                         <span className="fix-name">{row.linked ? `${row.group.toLowerCase()} ${row.label} (both sides)` : rowName(row)}</span>
                         <span className="fix-move">
-                          1 mm {better}: <strong>{rateText(change, unit)}</strong>
+                          1 mm {better} improves it by <strong>{rateText(Math.abs(change), unit).replace(/^\+/, '')}</strong>
                           <span className="hint fix-rates"> per mm {pt.rates.map((r) => `${r.direction} ${rateText(r.perMm, '').trim()}`).join(', ')}</span>
                         </span>
                       </th>

@@ -30,7 +30,9 @@ export function LimitsPanel() {
   const own = useStudyJob('check', design);
   // Inside the workbench the check runs by itself after an edit (renderer/app/fixJobs.tsx); alone, on request.
   const job = shared?.check ?? own;
-  const data = job.state.phase === 'done' ? job.state.data : null;
+  // While the check runs again after an edit, the last result stays listed (marked as from before the edit).
+  const data = job.state.phase === 'done' ? job.state.data : (shared?.lastCheck?.data ?? null);
+  const stale = job.stale || (job.state.phase !== 'done' && data !== null);
   const shown = data ? data.items.filter((i) => i.verdict !== 'within') : [];
   return (
     <section className="panel limits-panel" aria-labelledby="limits-title" data-testid="limits">
@@ -47,9 +49,9 @@ export function LimitsPanel() {
           </button>
         )}
       </h2>
-      {!data && job.state.phase === 'running' && <p className="hint">Checking every limit over the operating region…</p>}
+      {job.state.phase === 'running' && <p className="hint">{data ? 'Checking again after your edit…' : 'Checking every limit over the operating region…'}</p>}
       <StudyProgress state={job.state} what="check" onCancel={job.cancel} />
-      <StaleNote stale={job.stale} />
+      {job.state.phase !== 'running' && <StaleNote stale={stale} />}
       {data && (
         <>
           <p className="hint">

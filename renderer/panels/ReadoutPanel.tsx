@@ -5,7 +5,7 @@ import type { Alert, ReadoutRow, ReadoutTable } from '../model/analysisAdapter';
 import { fmt } from '../model/format';
 import { RIDE_TABLE_ID } from '../model/rideReadout';
 import { SEVERITY_STYLE, type Severity } from '../model/severity';
-import { FixSlot, openFinding } from './FixPanel';
+import { FixSlot, openFinding, poseFindingId } from './FixPanel';
 
 /** While the pose moves continuously, the readings repaint at most this often, ms. */
 export const READOUT_INTERVAL_MS = 100;
@@ -96,11 +96,6 @@ export function ReadoutPanel() {
       ))}
     </section>
   );
-}
-
-/** An alert's finding id, kept while the pose moves: its words without their numbers, with what it is about. */
-export function poseFindingId(a: Alert): string {
-  return `pose:${a.hardpoint ?? ''}:${a.text.replace(/[−+-]?\d+(\.\d+)?/g, '#')}`;
 }
 
 /** Groups of alerts, worst first. */
