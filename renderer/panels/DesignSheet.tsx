@@ -147,7 +147,13 @@ function FrontSuspension({ design: d }: { design: DesignFile }) {
           { value: 'splitWishbones', label: 'split wishbones (per side)' },
           { value: 'centrePivot', label: 'centre-pivot members' },
         ]}
-        onPick={(v) => replace([{ path: 'frontEnd', value: starterFrontEnd(d, v) }], `switch to ${v === 'centrePivot' ? 'centre-pivot members' : 'split wishbones'}`)}
+        onPick={(v) =>
+          replace(
+            // A lean linkage's push links act on split wishbones: switching to members drops it in the same step.
+            [{ path: 'frontEnd', value: starterFrontEnd(d, v) }, ...(v === 'centrePivot' && d.leanLinkage ? [{ path: 'leanLinkage', value: undefined }] : [])],
+            `switch to ${v === 'centrePivot' ? 'centre-pivot members' : 'split wishbones'}`,
+          )
+        }
       />
       {d.frontEnd.kind === 'centrePivot' && (
         <>

@@ -108,7 +108,7 @@ export function addMeanContactRow(b: MechanismBuilder, design: ResolvedDesign, u
   if (!design.leanLinkage || !onGround(mode)) return;
   const right = b.wheels.find((w) => w.side === 'right')!;
   const left = b.wheels.find((w) => w.side === 'left')!;
-  b.addConstraint({
+  const id = b.addConstraint({
     kind: 'meanContactY',
     id: 'frame.meanContactY',
     label: 'frame lateral place (mean tyre contact y = 0)',
@@ -121,4 +121,6 @@ export function addMeanContactRow(b: MechanismBuilder, design: ResolvedDesign, u
     rollingRadius: design.wheels.front.rollingRadiusMm,
     crownRadius: design.wheels.front.crownRadiusMm,
   });
+  // Both tyres stand for it (they are the drawn parts addFrontWheels named `tyre.<side>`).
+  b.shows({ kind: 'constraint', constraint: id }, 'tyre.right', 'tyre.left');
 }

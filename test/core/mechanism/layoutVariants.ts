@@ -79,6 +79,8 @@ export function layoutVariants(): LayoutVariant[] {
       for (const steer of STEERS) {
         const base = clone(demo.design);
         base.frontEnd = starterFrontEnd(base, frontEnd);
+        // As the design sheet does: a lean linkage (push links on split wishbones) goes with a switch to members.
+        if (frontEnd === 'centrePivot') delete base.leanLinkage;
         const d = withSteering(base, steer);
         // Spring and rear pair toggled against the demo's own choice, on alternate steering kinds.
         const flip = STEERS.indexOf(steer) % 2 === 1;
