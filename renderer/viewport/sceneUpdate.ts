@@ -329,18 +329,26 @@ function drawLean({ layout, snap, bodies, w }: Pose, label: LeanLabel | null): v
   label.object.visible = true;
 }
 
-/** The turn centre and each wheel's path about it (from core's slip analysis). */
+/**
+ * The turn centre and each wheel's path about it (from core's slip analysis; with a leaning rear
+ * pair, core's four-wheel turn centre and the rear tyres' solved contact points).
+ */
 function drawTurnPaths({ input, layout, snap, bodies, w }: Pose): void {
-  const centre = input.outcome.analysis?.slip.turnCentreMm;
+  const rear = input.outcome.analysis?.rear;
+  const centre = rear ? rear.turnCentre.centreMm : input.outcome.analysis?.slip.turnCentreMm;
   if (!centre) return;
   const contacts: [number, number][] = layout.frontWheels.map((fw) => {
     const c = snap.wheels[fw.side].contactPoint;
     return [c[0], c[1]];
   });
-  for (const rw of layout.rearWheels) {
-    if (!bodyPose(rw.body, snap, bodies, m4)) continue;
-    va.set(rw.centre[0], rw.centre[1], 0).applyMatrix4(m4);
-    contacts.push([va.x, va.y]);
+  if (rear) {
+    contacts.push([rear.left.contactPatchMm.x, rear.left.contactPatchMm.y], [rear.right.contactPatchMm.x, rear.right.contactPatchMm.y]);
+  } else {
+    for (const rw of layout.rearWheels) {
+      if (!bodyPose(rw.body, snap, bodies, m4)) continue;
+      va.set(rw.centre[0], rw.centre[1], 0).applyMatrix4(m4);
+      contacts.push([va.x, va.y]);
+    }
   }
   for (const [px, py] of contacts) {
     const radius = Math.hypot(px - centre.x, py - centre.y);
