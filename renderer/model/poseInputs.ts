@@ -85,3 +85,15 @@ export const POSE_LABELS: Record<PoseField, { label: string; unit: 'deg' | 'mm';
   travelRightMm: { label: 'Travel right', unit: 'mm', hint: 'right wheel-centre travel relative to the frame; positive up (bump)' },
   travelLeftMm: { label: 'Travel left', unit: 'mm', hint: 'left wheel-centre travel relative to the frame; positive up (bump)' },
 };
+
+/** With a lean linkage on the ground the heave input drives the spring (core's leanLinkage template), not the frame. */
+export const SPRING_TRAVEL_LABEL: (typeof POSE_LABELS)[PoseField] = {
+  label: 'Spring travel',
+  unit: 'mm',
+  hint: "lean linkage: the spring's extension with the tyres on the ground, positive longer; lean holds it, and the frame's height and sideways place come out of the solve",
+};
+
+/** The label of a pose input for this design. */
+export function poseLabel(field: PoseField, d: DesignFile): (typeof POSE_LABELS)[PoseField] {
+  return field === 'heaveMm' && d.leanLinkage && d.frontEnd.kind === 'splitWishbones' ? SPRING_TRAVEL_LABEL : POSE_LABELS[field];
+}

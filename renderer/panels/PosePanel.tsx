@@ -6,7 +6,7 @@
 import { useMemo } from 'react';
 import { useThrottledSlice } from '../app/useThrottled';
 import { useActions, useDocument, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
-import { POSE_LABELS, rideSpeedRange, sliderRanges, type PoseField, type SliderRange } from '../model/poseInputs';
+import { poseLabel, rideSpeedRange, sliderRanges, type PoseField, type SliderRange } from '../model/poseInputs';
 import { motion } from '../viewport/viewSignals';
 import { NumberField } from './NumberField';
 
@@ -113,7 +113,7 @@ function PoseSlider({ field, range }: { field: PoseField; range: SliderRange }) 
   const playing = useUi((s) => s.playback.playing);
   const value = useThrottledSlice(useWorkbenchApi().pose, (s) => s.pose[field], playing ? PLAYING_INTERVAL_MS : 0);
   const actions = useActions();
-  const meta = POSE_LABELS[field];
+  const meta = poseLabel(field, useDocument((s) => s.design));
   const set = (v: number) => {
     motion.emit();
     actions.setPose({ [field]: v });
