@@ -66,7 +66,7 @@ export function hardpointEntries(d: DesignFile): HardpointEntry[] {
       add(`vehicle.rear.${level}.pivot`, 'centre pivot', g, false);
       add(`vehicle.rear.${level}.outerJoint`, 'outer joint', g);
     }
-    add('vehicle.rear.wheelCentre', 'rear wheel centre', 'Rear upright');
+    add('vehicle.rear.wheelCentre', 'wheel centre', 'Rear upright');
   }
   if (d.spring) {
     add('spring.frameMount', 'frame mount', 'Spring');
