@@ -35,6 +35,7 @@ import { fourWheelTurnCentre, rearWheelAlignment, type RearPairMeasures } from '
 import type { WheelRef } from '../mechanism/MechanismGraph';
 import { RAD, normalize, sub } from './vec3';
 import { wheelHeading } from '../mechanism/wheelAxis';
+import { LEAN_IDS } from '../mechanism/templates/leanLinkage';
 
 export interface AnalyserOptions {
   /** Write human-readable findings for measures outside tolerance or in the warning band (default true). */
@@ -125,6 +126,8 @@ export class PoseAnalyser {
   private readonly lowerJointZ: { left: number; right: number };
   /** Straight-ahead threshold of the inner road-wheel angle (ackermann.ts), degrees. */
   private readonly straightDeg: number;
+  /** With a lean linkage: its rocker and carrier bodies (leanLinkage.ts); null otherwise. */
+  private readonly lean: { rocker: number; carrier: number; stopDeg: number; frameMount: Vec3; carrierMount: Vec3 } | null;
 
   constructor(design: ResolvedDesign, mechanism: CompiledMechanism, options: AnalyserOptions = {}) {
     this.design = design;
@@ -164,6 +167,18 @@ export class PoseAnalyser {
     this.rear = design.vehicle.rear.kind === 'pair' ? [rearTyre(design.vehicle.rear.trackMm / 2), rearTyre(-design.vehicle.rear.trackMm / 2)] : [rearTyre(0)];
     const drag = this.reader.designDragLink;
     const driven = drivenLever(design, null);
+    const rocker = mechanism.graph.bodies.findIndex((b) => b.id === LEAN_IDS.rocker);
+    const l = design.leanLinkage;
+    this.lean =
+      l && rocker >= 0
+        ? {
+            rocker,
+            carrier: mechanism.graph.bodies.findIndex((b) => b.id === LEAN_IDS.carrier),
+            stopDeg: l.rocker.stopDeg,
+            frameMount: [l.carrier.frameMount.x, l.carrier.frameMount.y, l.carrier.frameMount.z],
+            carrierMount: [l.carrier.carrierMount.x, l.carrier.carrierMount.y, l.carrier.carrierMount.z],
+          }
+        : null;
     this.dragSign = drag ? designSign(rawTransmission(drag.crankArm, drag.columnArm, driven?.point ?? axisPoint, driven?.axis ?? steerAxis, 'revolute')) : 1;
   }
 
@@ -247,6 +262,7 @@ export class PoseAnalyser {
       findings: [],
       findingSubjects: [],
     };
+    if (this.lean) analysis.leanLinkage = this.leanState();
     if (rearPair) analysis.rear = rearPair;
     // Judged on what one pose gives; relativeMeasures.ts judges again once the neighbours are known.
     return judge ? applyJudgement(analysis, d.tolerances, this.findings) : analysis;
@@ -267,6 +283,18 @@ export class PoseAnalyser {
   private rearTyres(r: RearPairMeasures): PlanTyre[] {
     const t = this.design.wheels.rear;
     return [r.left, r.right].map((a) => ({ x: a.contactPatchMm.x, y: a.contactPatchMm.y, heading: a.steerDeg / RAD, rollingRadiusMm: t.rollingRadiusMm, widthMm: t.tyreWidthMm }));
+  }
+
+  /** The rocker angle from its joint, the spring between its posed mounts. */
+  private leanState(): PoseAnalysis['leanLinkage'] {
+    const l = this.lean!;
+    const m = this.mechanism;
+    const rockerDeg = m.coord[l.rocker] * RAD;
+    const a: Vec3 = [0, 0, 0];
+    const b: Vec3 = [0, 0, 0];
+    m.worldPoint(m.graph.frameBody, l.frameMount, a);
+    m.worldPoint(l.carrier, l.carrierMount, b);
+    return { rockerDeg, stopMarginDeg: l.stopDeg - Math.abs(rockerDeg), springLengthMm: Math.hypot(a[0] - b[0], a[1] - b[1], a[2] - b[2]) };
   }
 
   private steering(g: PoseGeometry, inputs: PoseInputsReport, leftDeg: number, rightDeg: number): SteeringMeasures {

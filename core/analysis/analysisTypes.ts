@@ -253,10 +253,22 @@ export interface SolverReport {
   culprit?: string;
 }
 
+/** A balance-beam lean linkage's state at a pose (design block leanLinkage; see leanLinkageMeasures.ts for the rest). */
+export interface LeanLinkageState {
+  /** Rocker rotation relative to its carrier, right-handed about the rocker axis, degrees. */
+  rockerDeg: number;
+  /** The rocker's stop angle minus |rocker angle|: negative past a stop, degrees. */
+  stopMarginDeg: number;
+  /** Between the spring's frame and carrier mounts, mm. */
+  springLengthMm: number;
+}
+
 export interface PoseAnalysis {
   inputs: PoseInputsReport;
   /** Frame origin height change (equals heaveMm where heave is an input; solved for a centre-pivot front end on the ground). */
   frameHeaveMm: number;
+  /** With a lean linkage: the rocker and spring (absent otherwise). */
+  leanLinkage?: LeanLinkageState;
   solver: SolverReport;
   wheels: { left: WheelAlignment; right: WheelAlignment };
   steering: SteeringMeasures;

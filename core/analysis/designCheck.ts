@@ -12,7 +12,7 @@ import type { ResolvedDesign, Side } from '../design/types';
 import type { PoseAnalysis } from './analysisTypes';
 import { clearancePairs, crownCircleOf, tyreToTyreDistance } from './clearance';
 import { envelopeAxes, runSweep, type SweepAxes, type SweepCell, type SweepContact, type SweepSummary } from './sweep';
-import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from './tolerance';
+import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, WARNING_FRACTION, type Verdict } from './tolerance';
 import { JOINT_WORDS, PART_WORDS } from './words';
 import type { FindingSubject } from './poseVerdict';
 import { TIE_ROD_SPIN_TREATMENT } from './jointArticulation';
@@ -88,6 +88,17 @@ export interface DesignCheck {
   summary: SweepSummary;
 }
 
+/** The check item of a lean linkage's rocker against its stops. */
+export const LEAN_STOP_ID = 'linkage.leanStop';
+
+/**
+ * A rocker angle (magnitude) against its stop: over past it, close from WARNING_FRACTION of it
+ * (as every measure; no margin is asked of a stop).
+ */
+export function judgeLeanStop(rockerDeg: number, stopDeg: number): Verdict {
+  return rockerDeg > stopDeg ? 'over' : rockerDeg >= WARNING_FRACTION * stopDeg ? 'close' : 'within';
+}
+
 /** The check item that keeps the two front tyres apart (left to right). */
 export const ACROSS_ID = 'clearance.tyre-tyre.across';
 
@@ -132,6 +143,8 @@ export class CheckAccumulator {
     for (const p of clearancePairs(design)) add(`clearance.${p.id}.${p.side}`, 'clearance', `clearance ${PART_WORDS[p.a]} to ${PART_WORDS[p.b]}, ${p.side}`, 'mm', `>= ${tol.clearanceMm} mm`, { kind: 'clearance', pair: p.id, side: p.side });
     add(ACROSS_ID, 'clearance', 'clearance left tyre to right tyre (across the vehicle)', 'mm', `>= ${tol.clearanceMm} mm`, { kind: 'wheel', side: 'left' });
     add('deadCentre', 'linkage', 'dead-centre margin (smallest transmission angle)', 'deg', '> 0 deg', { kind: 'deadCentre' });
+    const lean = design.leanLinkage;
+    if (lean) add(LEAN_STOP_ID, 'linkage', 'lean stops (rocker angle relative to its carrier, either way)', 'deg', `<= ${lean.rocker.stopDeg} deg (the rocker's stops)`, null);
     add('assembly', 'linkage', 'poses that cannot be assembled', 'poses', '0', null);
   }
 
@@ -188,6 +201,10 @@ export class CheckAccumulator {
     const across = acrossClearance(a, this.design);
     this.update(ACROSS_ID, across, -across, where, judgeClearance(across, tol));
     this.update('deadCentre', a.worst.transmissionDeg, -a.worst.transmissionDeg, where, judgeTransmission(a.worst.transmissionDeg));
+    if (a.leanLinkage && this.design.leanLinkage) {
+      const r = Math.abs(a.leanLinkage.rockerDeg);
+      this.update(LEAN_STOP_ID, r, r, where, judgeLeanStop(r, this.design.leanLinkage.rocker.stopDeg));
+    }
     const tc = a.turningCircle;
     if (cell.leanDeg === 0 && cell.travelMm === 0 && tc.outerSide && tc.kerbToKerbMm !== null && tc.wallToWallMm !== null) {
       const turn: Side = tc.outerSide === 'right' ? 'left' : 'right';
@@ -248,6 +265,10 @@ export class CheckAccumulator {
         if (w < 0) it.detail = 'the modelled parts intersect';
       } else if (id === 'deadCentre') {
         it.verdict = judgeTransmission(w);
+      } else if (id === LEAN_STOP_ID && this.design.leanLinkage) {
+        const stop = this.design.leanLinkage.rocker.stopDeg;
+        it.verdict = judgeLeanStop(w, stop);
+        it.detail = `margin ${(stop - w).toFixed(1)} deg${w > stop ? ' (past its stop: the linkage cannot reach this pose)' : ''}`;
       }
       items.push(it);
     }
