@@ -187,8 +187,35 @@ export function camberOption(set: CurveSet, m: ChartMarker = NO_MARKER): ECharts
 
 const JOINT_OF = (id: string) => id.split('.')[1] ?? '';
 
-/** A joint series' legend words: its rating is on the limit lines, not repeated in the legend. */
-export const jointLegendName = (name: string) => name.replace(/\s*\(rated [^)]*\)/, '');
+/**
+ * A joint series' legend words: the joint alone. Its rating is on the limit lines and its side
+ * in the line style (the subtitle says solid left, dashed right), so both sides of a joint share
+ * one legend entry (one click shows or hides the pair) and the legend takes half the lines.
+ */
+export const jointLegendName = (name: string) => name.replace(/\s*\(rated [^)]*\)/, '').replace(/, (left|right)$/, '');
+
+/** Escapes a text for the tooltip's HTML. */
+const html = (t: string) => t.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+
+interface TooltipItem {
+  seriesId?: string;
+  seriesName?: string;
+  marker?: string;
+  value?: unknown;
+  axisValueLabel?: string;
+}
+
+/** The joints' tooltip names each line's side, which the shared legend entry no longer does. */
+function jointTooltip(items: TooltipItem | TooltipItem[]): string {
+  const list = Array.isArray(items) ? items : [items];
+  const rows = list
+    .filter((p) => p.seriesId && sideOf(p.seriesId))
+    .map((p) => {
+      const v = Array.isArray(p.value) ? p.value[1] : p.value;
+      return `${p.marker ?? ''}${html(p.seriesName ?? '')}, ${sideOf(p.seriesId!)}: ${typeof v === 'number' ? v.toFixed(3) : '—'}`;
+    });
+  return [html(list[0]?.axisValueLabel ?? ''), ...rows].join('<br>');
+}
 
 /** Where each limit line's words go, in turn from the lowest line up (the ends: the middle is where the 'now' line's word is): neighbouring lines never share an end. */
 const LABEL_SPOTS = ['insideEndTop', 'insideStartTop'] as const;
@@ -231,12 +258,12 @@ export function jointLimitLines(ratings: number[], margin: number): Record<strin
 function jointsOption(set: CurveSet, kind: 'jointsLean' | 'jointsSteer', title: string, x: number | null, sign: string): EChartsCoreOption {
   const c = set.curves[kind];
   if (!c) return unavailable(title, set.missing[kind] ?? 'not computed');
-  const series: Record<string, unknown>[] = c.series.map((s) => line(s.label, points(c, s), CHART_COLOURS.joints[JOINT_OF(s.id)] ?? CHART_COLOURS.ink, sideOf(s.id) === 'right'));
+  const series: Record<string, unknown>[] = c.series.map((s) => ({ ...line(jointLegendName(s.label), points(c, s), CHART_COLOURS.joints[JOINT_OF(s.id)] ?? CHART_COLOURS.ink, sideOf(s.id) === 'right'), id: s.id }));
   const margin = set.tolerances.jointMarginDeg;
   series.push({ type: 'line', name: 'rating and required margin', data: [], lineStyle: { color: CHART_COLOURS.limit, width: 1 }, itemStyle: { color: CHART_COLOURS.limit }, markLine: jointLimitLines(Object.values(set.ratedDeg), margin) });
   return {
     ...base(title, 'articulation of each ball joint and rod end (solid left, dashed right)' + failuresNote(c)),
-    legend: { ...(base('', '').legend as Record<string, unknown>), formatter: jointLegendName },
+    tooltip: { ...(base('', '').tooltip as Record<string, unknown>), formatter: jointTooltip },
     xAxis: axis(xName(c, sign)),
     yAxis: axis('articulation (deg)', { min: 0 }),
     series: withNow(series, x),

@@ -93,7 +93,7 @@ describe('curve charts a designer can read', () => {
           expect(overlaps(boxes), where).toEqual([]);
         }
       }
-    });
+    }, 60_000);
   }
 
   it('the overlap check finds what printed on top of each other before (negative control)', () => {
@@ -112,9 +112,29 @@ describe('curve charts a designer can read', () => {
     for (let i = 1; i < ml.data.length; i++) expect(ml.data[i].label.position).not.toBe(ml.data[i - 1].label.position);
   });
 
+  it("the joints' legend: one entry per joint for both sides, at most two lines in a 560 px wide strip chart (issue 11: three lines crowded the plot at 1280x800)", () => {
+    for (const demo of DEMOS) {
+      const set = computeCurves({ design: demoDesign(demo) });
+      for (const id of ['jointsLean', 'jointsSteer'] as const) {
+        // A vehicle that does not lean has no lean curves.
+        if (!set.curves[id]) continue;
+        const opt = curveOption(id, set) as { series: { id?: string; name?: string }[] };
+        const sided = opt.series.filter((s) => s.id && /\.(left|right)$/.test(s.id));
+        expect(sided.length, `${demo} ${id}`).toBeGreaterThan(3);
+        // Each left line has a right line of the same name (the legend's one entry toggles both).
+        for (const s of sided.filter((x) => x.id!.endsWith('.left'))) expect(sided.find((x) => x.id === s.id!.replace(/left$/, 'right'))?.name, `${demo} ${s.id}`).toBe(s.name);
+        const fitted = fitToSize(opt as never, 560, 300) as { grid: { top: number } };
+        // base(): legend at 40 px, 17 px a line, 8 px below it (fitLayout.ts).
+        expect(fitted.grid.top, `${demo} ${id}`).toBeLessThanOrEqual(40 + 2 * 17 + 8);
+      }
+    }
+  }, 60_000);
+
   it('short legend words where the title and axis already say it', () => {
     expect(camberLegendName('camber to ground (top out +), left')).toBe('to ground, left');
-    expect(jointLegendName('tie rod, outer end, right (rated 28 deg)')).toBe('tie rod, outer end, right');
+    // Both sides of a joint share one legend entry (the side is the line style: solid left, dashed right).
+    expect(jointLegendName('tie rod, outer end, right (rated 28 deg)')).toBe('tie rod, outer end');
+    expect(jointLegendName('upper outer joint, left (rated 30 deg)')).toBe('upper outer joint');
   });
 
   it('legend lines and y-axis names fitted to the room', () => {
