@@ -12,7 +12,9 @@ import type { ResolvedDesign, Side } from '../design/types';
 import type { PoseAnalysis } from './analysisTypes';
 import { clearancePairs, crownCircleOf, tyreToTyreDistance } from './clearance';
 import { envelopeAxes, runSweep, type SweepAxes, type SweepCell, type SweepContact, type SweepSummary } from './sweep';
-import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, WARNING_FRACTION, type Verdict } from './tolerance';
+import { judgeClearance, judgeJoint, judgeLeanStop, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from './tolerance';
+
+export { judgeLeanStop } from './tolerance';
 import { JOINT_WORDS, PART_WORDS } from './words';
 import type { FindingSubject } from './poseVerdict';
 import { TIE_ROD_SPIN_TREATMENT } from './jointArticulation';
@@ -90,14 +92,6 @@ export interface DesignCheck {
 
 /** The check item of a lean linkage's rocker against its stops. */
 export const LEAN_STOP_ID = 'linkage.leanStop';
-
-/**
- * A rocker angle (magnitude) against its stop: over past it, close from WARNING_FRACTION of it
- * (as every measure; no margin is asked of a stop).
- */
-export function judgeLeanStop(rockerDeg: number, stopDeg: number): Verdict {
-  return rockerDeg > stopDeg ? 'over' : rockerDeg >= WARNING_FRACTION * stopDeg ? 'close' : 'within';
-}
 
 /** The check item that keeps the two front tyres apart (left to right). */
 export const ACROSS_ID = 'clearance.tyre-tyre.across';

@@ -67,3 +67,11 @@ export function judgeClearance(distanceMm: number, tol: Tolerances): Verdict {
 export function judgeTransmission(deg: number): Verdict {
   return deg > 0 ? 'within' : 'over';
 }
+
+/**
+ * A lean linkage's rocker angle (magnitude) against its stop: over past it, close from
+ * WARNING_FRACTION of it (as every measure; no margin is asked of a stop).
+ */
+export function judgeLeanStop(rockerDeg: number, stopDeg: number): Verdict {
+  return rockerDeg > stopDeg ? 'over' : rockerDeg >= WARNING_FRACTION * stopDeg ? 'close' : 'within';
+}

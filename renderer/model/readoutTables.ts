@@ -6,7 +6,7 @@
 import type { ResolvedDesign, Side } from '../../core/design/types';
 import type { PoseAnalysis, WheelAlignment } from '../../core/analysis/analysisTypes';
 import { NOT_WHILE_PLAYING } from '../../core/analysis/PoseEngine';
-import { judgeClearance, judgeJoint, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from '../../core/analysis/tolerance';
+import { judgeClearance, judgeJoint, judgeLeanStop, judgeRatioChange, judgeSelfSteer, judgeSlip, judgeTransmission, type Verdict } from '../../core/analysis/tolerance';
 import { JOINT_WORDS, PART_WORDS } from '../../core/analysis/words';
 import type { SolveStatus } from '../../core/solver/PoseSolver';
 import { drawingPartsFor, type ClearancePartName, type DrawingCheck, type DrawingLayout, type DrawingPointRef } from '../../core/mechanism/drawingLayout';
@@ -152,7 +152,19 @@ function clearanceTable({ a, tol, markCheck }: TableContext): ReadoutTable {
   return { id: 'clearance', title: `Clearances (required ${tol.clearanceMm} mm)`, columns: ['Left', 'Right'], rows };
 }
 
-function overallTable({ a, tol }: TableContext): ReadoutTable {
+/** A lean linkage's rocker and spring (core's PoseAnalysis.leanLinkage), judged by core's stop verdict; none without one. */
+function leanLinkageRows(a: PoseAnalysis, design: ResolvedDesign): ReadoutRow[] {
+  const l = a.leanLinkage;
+  const stop = design.leanLinkage?.rocker.stopDeg;
+  if (!l || stop === undefined) return [];
+  return [
+    row('rocker', 'Rocker angle (to its carrier)', 'deg', 2, [c(l.rockerDeg, judgeLeanStop(Math.abs(l.rockerDeg), stop))], { hint: `right-handed about the rocker axis; stops at ±${stop} deg` }),
+    row('leanStopMargin', 'Lean stop margin', 'deg', 2, [c(l.stopMarginDeg)], { hint: 'stop − |rocker angle|' }),
+    row('springLength', 'Spring length (lean linkage)', 'mm', 1, [c(l.springLengthMm)], { hint: 'between the frame and carrier mounts; lean holds it' }),
+  ];
+}
+
+function overallTable({ a, tol, design }: TableContext): ReadoutTable {
   const st = a.steering;
   const ack = a.ackermann;
   const tc = a.turningCircle;
@@ -165,6 +177,7 @@ function overallTable({ a, tol }: TableContext): ReadoutTable {
       row('lean', 'Lean (right side down +)', 'deg', 2, [c(a.inputs.leanDeg)]),
       row('handlebar', 'Handlebar (left +)', 'deg', 2, [c(st.handlebarDeg)]),
       row('frameHeave', 'Frame heave', 'mm', 1, [c(a.frameHeaveMm)]),
+      ...leanLinkageRows(a, design),
       row('meanWheel', 'Mean road-wheel angle', 'deg', 2, [c(st.meanWheelDeg)]),
       row('ratio', 'Overall steering ratio', 'deg/deg', 2, [c(st.overallRatio)], st.reason ? { missing: st.reason } : {}),
       row('localRatio', 'Local steering ratio', 'deg/deg', 2, [c(st.localRatio)], { missing: playingWords(st.localRatioReason ?? '—') }),
