@@ -6,7 +6,9 @@
  * vehicle's outermost points.
  *
  * The turn centre is where the outer front wheel's axis line meets the rear axle line, so
- * the outer wheel rolls without slip (J695's "correct wheelbase" case). With the steering
+ * the outer wheel rolls without slip (J695's "correct wheelbase" case). With a leaning rear
+ * pair the rear axle line runs through the rear tyres' solved contact centres (their mean x),
+ * and those tyres, as solved, enter the wall-to-wall figure. With the steering
  * axis's ground point on the front axle line and zero trail, this gives J695's
  * TD = 2 (WB / sin(outer) + offset at ground).
  *
