@@ -27,6 +27,12 @@ const inputs = (p: Partial<PoseInputs>): PoseInputs => ({ ...zeroInputs(), ...p 
 type P = [number, number, number];
 
 /** The Pipit made planar in the front view: outer joints and wheel centre at x = 0, steering axis vertical. */
+function resolveDoc(d: DesignFile): ResolvedDesign {
+  const v = validateDesign(d);
+  if (!v.ok) throw new Error(v.issues.map((i) => i.message).join('\n'));
+  return resolveDesign(v.design);
+}
+
 function planarDoc(): DesignFile {
   const d = pipitDoc();
   if (d.frontEnd.kind !== 'splitWishbones') throw new Error('expected split wishbones');
@@ -131,6 +137,27 @@ describe('lean-linkage measures against closed forms', () => {
     }
     // The three positions are different cases (the construction moves with heave).
     expect(Math.abs(heights[0] - heights[2])).toBeGreaterThan(1);
+  });
+
+  it('a parallelogram whose uprights lean with the frame rolls about the crown circles: roll centre at the crown radius r', () => {
+    // Equal, parallel, level wishbones: the uprights stay parallel to the frame, each wishbone
+    // pair's instant centre is at infinity along the level arms, so each side's line runs level
+    // through its crown-circle centre, at height r; by symmetry the roll centre is on the centre
+    // line, at height r: a circle rolling on a line turns about its contact point, and the
+    // frame with the tyres' crowns about the crown centres' line (geometry, derived here).
+    for (const crown of [20, 5]) {
+      const d = planarDoc();
+      if (d.frontEnd.kind !== 'splitWishbones') throw new Error('expected split wishbones');
+      d.frontEnd.upper = { frontPivot: { x: 100, y: -60, z: 320 }, rearPivot: { x: -100, y: -60, z: 320 }, outerJoint: { x: 0, y: -330, z: 320 } };
+      d.frontEnd.lower = { frontPivot: { x: 120, y: -60, z: 150 }, rearPivot: { x: -120, y: -60, z: 150 }, outerJoint: { x: 0, y: -330, z: 150 } };
+      d.leanLinkage!.pushLinks.armJoint = { x: 0, y: -200, z: 150 };
+      d.wheels.front.crownRadiusMm = crown;
+      const r = resolveDoc(d);
+      const m = leanLinkageMeasures(r, GROUND, inputs({}))!;
+      // 1e-4 mm: the tool's finite step of 0.05 deg either side leaves about 1.2e-5 mm here (measured).
+      expect(Math.abs(m.rollAxis!.heightAtAxleMm! - crown)).toBeLessThan(1e-4);
+      expect(m.rollAxis!.lateralAtAxleMm!).toBeCloseTo(0, 6);
+    }
   });
 
   it('the spring length change over a spring-travel sweep is the motion ratio integrated over the wheel travel (trapezoid rule)', () => {
