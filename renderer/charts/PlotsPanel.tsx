@@ -7,9 +7,9 @@
 import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useActions, useDocument, useJobs, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { MAP_RESOLUTIONS, type JobProgress, type MapResolution } from '../state/jobsStore';
-import { setPlots } from '../state/uiStore';
+import { setPlots, type PlotTab } from '../state/uiStore';
 import type { Workbench } from '../state/workbench';
-import type { MapMetric } from '../../core/report/charts/chartData';
+import type { CurveSet, MapMetric } from '../../core/report/charts/chartData';
 import { ChartView } from './ChartView';
 import { CHART_CURVES, CURVE_CHARTS, curveOption, isLeanChart, NO_LEAN_REASON, type ChartMarker } from '../../core/report/charts/curveOptions';
 import { heatMapOption, MAP_METRICS } from '../../core/report/charts/heatMapOptions';
@@ -40,6 +40,31 @@ function markerOf(wb: Workbench): ChartMarker {
   };
 }
 
+/** `prev` when `next` shows the same point (so the chart is not drawn again), else `next`. */
+export function sameMarker(prev: ChartMarker, next: ChartMarker): ChartMarker {
+  const a = prev.ackermann;
+  const b = next.ackermann;
+  const sameAckermann = a === b || (a !== null && b !== null && a.innerDeg === b.innerDeg && a.outerDeg === b.outerDeg);
+  return prev.leanDeg === next.leanDeg && prev.handlebarDeg === next.handlebarDeg && prev.travelMm === next.travelMm && sameAckermann ? prev : next;
+}
+
+/**
+ * The curve set a tab draws: the one it drew before while the tab's own curves are the same
+ * objects of the same revision (the rest of the set arriving after the open chart's part does
+ * not redraw it). A chart draws at most two kinds (camber: lean and travel).
+ */
+export function useTabCurves(curves: CurveSet | null, revision: number, tab: PlotTab): CurveSet | null {
+  const kinds = tab === 'map' ? [] : CHART_CURVES[tab];
+  const [k0, k1] = kinds;
+  const c0 = k0 && curves ? (curves.curves[k0] ?? curves.missing[k0]) : undefined;
+  const c1 = k1 && curves ? (curves.curves[k1] ?? curves.missing[k1]) : undefined;
+  const whole = tab === 'map' || kinds.length > 2 ? curves : null;
+  const none = curves === null;
+  // The set is looked at only through the tab's own curves, which are the memo's inputs.
+  // eslint-disable-next-line react-hooks/exhaustive-deps
+  return useMemo(() => curves, [none, whole, revision, tab, c0, c1]);
+}
+
 /**
  * The current pose for the charts' marker, once the pose has been still for a moment:
  * re-rendering a chart costs more than a frame of the viewport, so it never competes with
@@ -53,7 +78,8 @@ function useSettledMarker(): ChartMarker {
     const settle = () => {
       clearTimeout(timer);
       timer = setTimeout(() => {
-        if (!wb.ui.getState().playback.playing) setMarker(markerOf(wb));
+        // Only a marker that moved redraws the chart (an edit re-solves the pose in place).
+        if (!wb.ui.getState().playback.playing) setMarker((m) => sameMarker(m, markerOf(wb)));
       }, MARKER_SETTLE_MS);
     };
     const offPose = wb.pose.subscribe((s, prev) => {
@@ -222,7 +248,9 @@ function PlotBody({ running }: { running: boolean }) {
   const revision = useDocument((s) => s.revision);
   const valid = usePose((s) => s.resolved !== null);
   const slot = useJobs((s) => (tab === 'map' ? s.map : s.curves));
-  const curves = useJobs((s) => s.curves.result);
+  const curvesRevision = useJobs((s) => s.curves.resultRevision);
+  const allCurves = useJobs((s) => s.curves.result);
+  const curves = useTabCurves(allCurves, curvesRevision, tab);
   const pendingKinds = useJobs((s) => s.curves.pendingKinds);
   const map = useJobs((s) => s.map.result);
   const marker = useSettledMarker();
@@ -260,7 +288,7 @@ function PlotBody({ running }: { running: boolean }) {
           <input
             type="checkbox"
             checked={heldCurves !== null}
-            onChange={(e) => setHeldCurves(e.target.checked ? curves : null)}
+            onChange={(e) => setHeldCurves(e.target.checked ? allCurves : null)}
             data-testid="hold-y"
           />{' '}
           hold the y-axis

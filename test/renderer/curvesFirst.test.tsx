@@ -3,18 +3,18 @@
 // set equals core's computeCurves of every kind at once (the reference: the same sweep the
 // report draws), for a leaning and a non-leaning demo; a newer job or a cancel in between
 // stops the second part.
-import { act, cleanup, render } from '@testing-library/react';
+import { act, cleanup, render, renderHook } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { PlotsPanel } from '../../renderer/charts/PlotsPanel';
+import { PlotsPanel, sameMarker, useTabCurves } from '../../renderer/charts/PlotsPanel';
 import { SweepClient } from '../../renderer/workers/sweepClient';
 import { computeCurves, type CurveRequest } from '../../renderer/workers/sweepJobs';
 import type { CurveSet } from '../../core/report/charts/chartData';
 import { CURVE_KINDS, type CurveKind } from '../../core/analysis/curves';
 import { CHART_CURVES } from '../../core/report/charts/curveOptions';
-import { Jobs } from '../../renderer/state/jobsStore';
+import { Jobs, mergeCurveSets } from '../../renderer/state/jobsStore';
 import { createWorkbench } from '../../renderer/state/workbench';
 import { designToText } from '../../renderer/model/designText';
-import { setPlots } from '../../renderer/state/uiStore';
+import { setPlots, type PlotTab } from '../../renderer/state/uiStore';
 import { demoDesign, withWorkbench } from './helpers';
 
 afterEach(cleanup);
@@ -93,5 +93,40 @@ describe('the open chart first', () => {
     render(withWorkbench(wb, <PlotsPanel />));
     expect(client.asked[0]).toEqual(CHART_CURVES.jointsSteer);
     act(() => wb.jobs.cancel());
+  });
+});
+
+describe('no redraw without a change', () => {
+  const design = demoDesign('heron-tilting-velomobile');
+  const part = computeCurves({ design, kinds: CHART_CURVES.camber });
+  const rest = computeCurves({ design, kinds: CURVE_KINDS.filter((k) => !CHART_CURVES.camber.includes(k)) });
+  const merged = mergeCurveSets(part, rest);
+
+  it('the rest of the set arriving keeps the open tab’s set (same curves, same revision)', () => {
+    const { result, rerender } = renderHook(({ set, rev, tab }: { set: CurveSet | null; rev: number; tab: PlotTab }) => useTabCurves(set, rev, tab), {
+      initialProps: { set: part as CurveSet | null, rev: 3, tab: 'camber' as PlotTab },
+    });
+    expect(result.current).toBe(part);
+    rerender({ set: merged, rev: 3, tab: 'camber' });
+    expect(result.current).toBe(part);
+    // Another tab, a new revision or no result: the set as it is.
+    rerender({ set: merged, rev: 3, tab: 'leanSteer' });
+    expect(result.current).toBe(merged);
+    const again = computeCurves({ design, kinds: CHART_CURVES.leanSteer });
+    rerender({ set: again, rev: 4, tab: 'leanSteer' });
+    expect(result.current).toBe(again);
+    rerender({ set: null, rev: 4, tab: 'leanSteer' });
+    expect(result.current).toBeNull();
+  });
+
+  it('a marker at the same point is the same object; a moved one is new', () => {
+    const m = { leanDeg: 5, handlebarDeg: -3, travelMm: 0, ackermann: { innerDeg: 10, outerDeg: 8 } };
+    expect(sameMarker(m, { ...m, ackermann: { ...m.ackermann } })).toBe(m);
+    const moved = { ...m, ackermann: { innerDeg: 10, outerDeg: 8.01 } };
+    expect(sameMarker(m, moved)).toBe(moved);
+    const leaned = { ...m, leanDeg: 6 };
+    expect(sameMarker(m, leaned)).toBe(leaned);
+    const none = { ...m, ackermann: null };
+    expect(sameMarker(m, none)).toBe(none);
   });
 });
