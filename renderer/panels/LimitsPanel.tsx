@@ -1,13 +1,13 @@
 /**
  * Limits over the operating region: core's check of the design (on a coarser grid than the
- * CLI's, in the worker), the items over or close to their limits first, each with its worst
+ * CLI's, in the worker), the items over or close to their limits, worst first, each with its worst
  * value and where it is first exceeded; clicking one goes to that pose, selects the part and
  * opens its fix under it. In the workbench the check runs by itself after each edit.
  */
 import type { CheckItem } from '../../core/analysis/designCheck';
 import { useActions, useDocument, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { useFixJobs } from '../app/fixJobs';
-import { regionFinding } from '../model/findings';
+import { regionFinding, worstFirst } from '../model/findings';
 import { FixSlot, openFinding, whereText } from './FixPanel';
 import { subjectHardpoint } from '../model/readoutTables';
 import { SEVERITY_STYLE } from '../model/severity';
@@ -58,7 +58,7 @@ export function LimitsPanel() {
             {data.poses} poses ({data.steps.leanDeg}° and {data.steps.travelMm} mm apart; the command-line check uses 1°), {(data.elapsedMs / 1000).toFixed(1)} s. {shown.length === 0 ? 'Everything within its limit.' : 'Click an item to go where it is first exceeded and see how to fix it.'}
           </p>
           <ul className="limits-list">
-            {shown.map((it) => {
+            {worstFirst(shown.map((it) => ({ it, severity: it.verdict, source: 'region' as const }))).map(({ it }) => {
               const hp = drawing && it.subject ? subjectHardpoint(drawing, it.subject) : null;
               const finding = regionFinding(it, hp);
               const open = finding !== null && openId === finding.id;

@@ -302,6 +302,7 @@ describe('workbench', () => {
 describe('gizmo', () => {
   it('drags a selected hardpoint in the viewport; the linkage re-solves and the drag is one undo step', async () => {
     await commitField('pose-handlebarDeg', '10');
+    await showColumn('hardpoints');
     await page.getByTestId('hp-upright.steeringArmJoint.right').locator('th').click();
     await page.getByTestId('gizmo-bar').waitFor();
     await waitForPicture(page);
