@@ -164,6 +164,26 @@ function leanLinkageRows(a: PoseAnalysis, design: ResolvedDesign): ReadoutRow[] 
   ];
 }
 
+/** A leaning rear pair's wheels and core's four-wheel turn centre; none for another rear. */
+function rearPairRows(a: PoseAnalysis, tol: ResolvedDesign['tolerances']): ReadoutRow[] {
+  const r = a.rear;
+  if (!r) return [];
+  const t = r.turnCentre;
+  const none = t.reason ? { missing: t.reason } : {};
+  return [
+    row('rearCamberLeft', 'Rear camber to ground, left (top out +)', 'deg', 2, [c(r.left.camberDeg)]),
+    row('rearCamberRight', 'Rear camber to ground, right (top out +)', 'deg', 2, [c(r.right.camberDeg)]),
+    row('rearToeLeft', 'Rear toe, left (toe-in +)', 'deg', 2, [c(r.left.toeDeg)]),
+    row('rearToeRight', 'Rear toe, right (toe-in +)', 'deg', 2, [c(r.right.toeDeg)]),
+    row('fourWheelCentreX', 'Four-wheel turn centre x', 'mm', 0, [c(t.centreMm?.x)], { ...none, hint: 'least-squares point of the four wheels\u2019 axis lines' }),
+    row('fourWheelCentreY', 'Four-wheel turn centre y', 'mm', 0, [c(t.centreMm?.y)], none),
+    row('fourWheelSlip', 'Worst slip of the four wheels', 'deg', 2, [c(t.worstSlipDeg, t.worstSlipDeg === null ? undefined : judgeSlip(t.worstSlipDeg, tol))], {
+      ...none,
+      hint: `ISO 8855 slip to the four-wheel turn centre; tolerance ${tol.slipDeg} deg`,
+    }),
+  ];
+}
+
 function overallTable({ a, tol, design }: TableContext): ReadoutTable {
   const st = a.steering;
   const ack = a.ackermann;
@@ -194,6 +214,7 @@ function overallTable({ a, tol, design }: TableContext): ReadoutTable {
       row('turnCentreX', 'Turn centre x', 'mm', 0, [c(a.slip.turnCentreMm?.x)], a.slip.reason ? { missing: a.slip.reason } : {}),
       row('turnCentreY', 'Turn centre y', 'mm', 0, [c(a.slip.turnCentreMm?.y)], a.slip.reason ? { missing: a.slip.reason } : {}),
       row('turnRadius', 'Turn radius (rear axle centre)', 'mm', 0, [c(a.slip.turnRadiusMm)], a.slip.reason ? { missing: a.slip.reason } : {}),
+      ...rearPairRows(a, tol),
       row('turningDiameter', 'Turning diameter (SAE J695, outer wheel)', 'mm', 0, [c(tc.turningDiameterMm)], tc.reason ? { missing: tc.reason } : {}),
       row('kerbToKerb', 'Kerb to kerb', 'mm', 0, [c(tc.kerbToKerbMm)], tc.reason ? { missing: tc.reason } : {}),
       row('wallToWall', `Wall to wall${tc.wallToWallFrom ? ` (${tc.wallToWallFrom})` : ''}`, 'mm', 0, [c(tc.wallToWallMm)], tc.reason ? { missing: tc.reason } : {}),
