@@ -75,9 +75,15 @@ export interface PoseReport {
   ride?: RideReport;
   /** With a lean linkage on the ground: its roll axis, spring, rocker and stops (leanLinkageMeasures.ts). */
   leanLinkage?: LeanLinkageMeasures;
+  /** Why a design with a lean linkage has no such measures at this pose. */
+  leanLinkageReason?: string;
   /** When the request was not reached: where the linkage stopped closing. */
   limit?: LimitReport;
 }
+
+/** The lean-linkage measures are those of the linkage on the ground (its spring travel and frame place). */
+export const LEAN_LINKAGE_OFF_GROUND =
+  'the lean-linkage measures (roll axis, spring, rocker and stops) are found with the tyres on the ground and the suspension free; this pose sets the wheel travel or holds the suspension';
 
 export function requestInputs(r: PoseRequest): PoseInputs {
   return {
@@ -138,6 +144,9 @@ export function solveSinglePose(
   const snapshot = pose.snapshot;
   const lean = leanLinkageMeasures(design, mode, inputs);
   if (lean) report.leanLinkage = lean;
+  else if (design.leanLinkage) {
+    report.leanLinkageReason = mode.contact === 'ground' && !mode.hold ? 'the pose did not close again from the design pose for the lean-linkage measures' : LEAN_LINKAGE_OFF_GROUND;
+  }
   report.inputs = snapshot.inputs;
   const wheel = (w: PoseSnapshot['wheels']['left']): WheelReport => ({
     toeDeg: w.toeDeg,
@@ -236,6 +245,7 @@ function poseText(design: ResolvedDesign, rep: PoseReport, r: SolveResult, label
   lines.push('  (toe-in positive; steer = road-wheel angle, positive left; camber top-outward positive)', '');
   if (rep.analysis) lines.push(formatPoseAnalysis(rep.analysis, design));
   if (rep.leanLinkage) lines.push(formatLeanLinkage(rep.leanLinkage));
+  else if (rep.leanLinkageReason) lines.push(`lean linkage: - (${rep.leanLinkageReason})`, '');
   lines.push('hardpoint                                   x(mm)      y(mm)      z(mm)');
   for (const [id, p] of Object.entries(rep.points!)) {
     lines.push(`${(labels[id] ?? id).padEnd(38)} ${f(p.x)}  ${f(p.y)}  ${f(p.z)}`);

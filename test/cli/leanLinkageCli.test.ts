@@ -75,3 +75,13 @@ describe('tiltbench on a lean linkage', () => {
     expect(r.out).toContain(SAFETY_CAUTION);
   }, SPAWN_TIMEOUT_MS);
 });
+
+describe('tiltbench pose on a lean linkage off the ground', () => {
+  it('says why there are no lean-linkage measures with the wheel travel set', () => {
+    const r = run(['pose', PIPIT, '--travel', '10', '--json']);
+    expect(r.code, r.err).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.leanLinkage).toBeUndefined();
+    expect(j.leanLinkageReason).toMatch(/tyres on the ground/);
+  }, SPAWN_TIMEOUT_MS);
+});
