@@ -125,8 +125,11 @@ const COLOURS = {
 };
 
 /** One view as an SVG element (width 100 %, user units mm). */
-export function drawView(view: ViewSpec, graph: MechanismGraph & { drawing: DrawingLayout }, points: readonly KeyedPoint[], figures: DrawingFigures): string {
+export function drawView(view: ViewSpec, graph: MechanismGraph & { drawing: DrawingLayout }, allPoints: readonly KeyedPoint[], figures: DrawingFigures): string {
   const d = graph.drawing;
+  // Drawings of the front end: a leaning rear pair's points (vehicle.rear.*), a wheelbase behind,
+  // would shrink it into a corner and number the rear joints over the front ones in front view.
+  const points = allPoints.filter((p) => !p.id.startsWith('vehicle.rear.'));
   const P = (p: Vec3) => view.project(p);
   // The front end: the hardpoints' box, widened a little; parts reaching far beyond it (the spine to the rear wheel) are left out.
   const hx = points.map((p) => p.at[0]);

@@ -35,6 +35,8 @@ import { PoseEngine } from '../../../core/analysis/PoseEngine';
 import { fourWheelTurnCentre } from '../../../core/analysis/rearPair';
 import { starterLeaningRear } from '../../../core/design/rearPairStarter';
 import { loadDemos } from '../reliability/demoDesigns';
+import { drawView, VIEWS, type DrawingFigures, type KeyedPoint } from '../../../core/report/drawings';
+import { hardpointTable } from '../../../core/design/hardpointCsv';
 import type { PoseAnalysis } from '../../../core/analysis/analysisTypes';
 import { report } from '../solver/report';
 
@@ -352,6 +354,27 @@ describe('leaning rear pair: the starter the design sheet offers', () => {
       expect(a, demo.file).not.toBeNull();
       expect(Math.abs(a!.rear!.left.contactPatchMm.z)).toBeLessThan(1e-9);
       expect(Math.abs(a!.rear!.right.contactPatchMm.z)).toBeLessThan(1e-9);
+    }
+  });
+});
+
+describe('leaning rear pair: the report drawings stay drawings of the front end', () => {
+  it('no rear hardpoint is numbered and the side view spans the front end only', () => {
+    const file = demoFile();
+    const graph = buildMechanism(resolved(file));
+    const points: KeyedPoint[] = hardpointTable(file).map((h, i) => ({ id: h.id, key: i + 1, label: h.id, side: h.side, at: [h.at.x, h.at.y, h.at.z] }));
+    // the rear points are rows of the table (so a filter is needed at all)
+    expect(points.some((p) => p.id.startsWith('vehicle.rear.'))).toBe(true);
+    const figures: DrawingFigures = { contactLeft: [0, 400, 0], contactRight: [0, -400, 0], axisGroundLeft: [30, 340, 0], kpiDeg: 0, casterDeg: 7, trailMm: 35, scrubRadiusMm: 60, wheelbaseMm: 1250 };
+    for (const view of VIEWS) {
+      const svg = drawView(view, graph, points, figures);
+      expect(svg, view.id).not.toMatch(/data-id="vehicle\.rear\./);
+      expect(svg).toMatch(/data-id="frontEnd\.upper\.outerJoint/);
+      if (view.id === 'side') {
+        // viewBox u0 v0 width height: the front end is well under the 1250 mm wheelbase long
+        const width = Number(/viewBox="[^ ]+ [^ ]+ ([^ ]+) /.exec(svg)![1]);
+        expect(width).toBeLessThan(1000);
+      }
     }
   });
 });
