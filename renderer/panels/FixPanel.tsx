@@ -200,7 +200,7 @@ function NoRate({ finding, rows, actions }: { finding: OpenFinding; rows: Hardpo
   );
 }
 
-/** The proposals that say what they do to the objective, improving ones first; found on request (they are the slower study). */
+/** The proposals that say what they do to the objective, improving ones first; found by themselves while the fix is open. */
 function FixProposals({ objective }: { objective: string }) {
   const design = useDocument((s) => s.design);
   const set = useStudies((s) => s.proposals);
@@ -213,6 +213,14 @@ function FixProposals({ objective }: { objective: string }) {
   }, [state, studies]);
   const live = set && set.forDesign === design ? set.list.filter((p) => !set.dismissed.includes(p.id)) : null;
   const list = live ? proposalsFor(live, objective) : [];
+  // While a fix is open, its proposals are found by themselves (about 1-2 s in the worker), again after each edit once typing pauses.
+  const { run } = job;
+  const need = live === null && state.phase !== 'running' && state.phase !== 'failed' && !(state.phase === 'done' && state.forDesign === design);
+  useEffect(() => {
+    if (!need) return;
+    const t = setTimeout(() => run({ design }), 600);
+    return () => clearTimeout(t);
+  }, [need, run, design]);
   return (
     <div className="fix-proposals" data-testid="fix-proposals">
       <h4>Proposals</h4>

@@ -113,7 +113,7 @@ describe("what's wrong -> fix", () => {
     await expect.poll(() => field.inputValue()).toBe(String(z));
   }, 240_000);
 
-  it('Finch at 1920x1080: a region finding goes to where it is first exceeded, shows its fix and the proposals for it', async () => {
+  it('Finch at 1920x1080: a region finding goes to where it is first exceeded, shows its fix and the proposals for it (found by themselves)', async () => {
     await open(1920, 1080, 'finch-knuckle-steered-trike');
     await page.getByTestId('limits-verdict').waitFor({ timeout: 90_000 });
     const item = page.locator('[data-testid=limits] li[data-testid^=limit-slip]').first();
@@ -127,7 +127,7 @@ describe("what's wrong -> fix", () => {
     expect(await evalIn<number>(page, 'window.__tiltbench.pose.getState().pose.handlebarDeg')).toBeCloseTo(num(m![2]), 6);
     await page.getByTestId('fix-points').waitFor({ timeout: 90_000 });
     expect(await text(page.getByTestId('fix'))).toMatch(/slip/);
-    await page.getByTestId('fix-find-proposals').click();
+    // The proposals are found by themselves while a fix is open.
     await pollFor(page, `Boolean(document.querySelector('[data-testid^=fix-proposal-]')) || /No proposal changes/.test(document.querySelector('[data-testid=fix-proposals]')?.textContent ?? '')`, 90_000, 'the proposals');
     await waitForPicture(page);
     await page.screenshot({ path: shotPath('arrange-finch-fix-1920') });
