@@ -59,20 +59,37 @@ export function nowLine(x: number | null, label = 'now'): Record<string, unknown
     silent: true,
     symbol: 'none',
     lineStyle: { color: CHART_COLOURS.marker, type: 'solid', width: 1.5 },
-    label: { formatter: label, color: CHART_COLOURS.marker, position: 'insideEndTop' },
+    // The word at the foot of the line: the limit lines' words are written near the top, at their ends.
+    label: { formatter: label, color: CHART_COLOURS.marker, position: 'insideStartTop' },
     data: [{ xAxis: x }],
   };
 }
 
+/** Where a horizontal limit line's words go: at the end of the line, or its start (away from a 'now' line near the end). */
+export type LimitLabelEnd = 'insideEndTop' | 'insideStartTop';
+
+/**
+ * The end of the x range a horizontal line's words should go to, away from the 'now' line at
+ * `x` (its word sits at the top of the chart, and a limit's words at the right end printed on
+ * top of it when the pose was near that end).
+ */
+export function labelEndAwayFrom(x: number | null, xs: readonly (number | null)[]): LimitLabelEnd {
+  if (x === null || !Number.isFinite(x)) return 'insideEndTop';
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of xs) if (v !== null && Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v));
+  return hi > lo && x > (lo + hi) / 2 ? 'insideStartTop' : 'insideEndTop';
+}
+
 /** Horizontal lines at ± a tolerance. */
-export function toleranceLines(limit: number, label: string, both = true): Record<string, unknown> {
+export function toleranceLines(limit: number, label: string, both = true, position: LimitLabelEnd = 'insideEndTop'): Record<string, unknown> {
   const data: Record<string, unknown>[] = [{ yAxis: limit, name: `+${label}` }];
   if (both) data.push({ yAxis: -limit, name: `−${label}` });
   return {
     silent: true,
     symbol: 'none',
     lineStyle: { color: CHART_COLOURS.limit, type: 'dashed', width: 1 },
-    label: { formatter: '{b}', color: CHART_COLOURS.limit, fontSize: 10, position: 'insideEndTop' },
+    label: { formatter: '{b}', color: CHART_COLOURS.limit, fontSize: 10, position },
     data,
   };
 }

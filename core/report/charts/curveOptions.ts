@@ -7,7 +7,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import { CURVE_KINDS, sweepsLean, type Curve, type CurveKind, type CurveSeries } from '../../analysis/curves';
 import type { CurveSet } from './chartData';
 import { keepLimitsInView } from './axisRange';
-import { CHART_COLOURS, axis, base, line, nowLine, toleranceLines, type Pair } from './chartStyle';
+import { CHART_COLOURS, axis, base, labelEndAwayFrom, line, nowLine, toleranceLines, type LimitLabelEnd, type Pair } from './chartStyle';
 
 export interface ChartMarker {
   leanDeg: number | null;
@@ -60,14 +60,14 @@ function withNow(series: Record<string, unknown>[], x: number | null): Record<st
 }
 
 /** The ± tolerance lines as a legend entry of their own, its icon drawn like the lines (dashed, the limit's colour). */
-function toleranceSeries(tol: number, unit: string): Record<string, unknown> {
+function toleranceSeries(tol: number, unit: string, position: LimitLabelEnd = 'insideEndTop'): Record<string, unknown> {
   return {
     type: 'line',
     name: `tolerance ±${tol} ${unit}`,
     data: [],
     lineStyle: { color: CHART_COLOURS.limit, type: 'dashed', width: 1 },
     itemStyle: { color: CHART_COLOURS.limit },
-    markLine: toleranceLines(tol, `${tol} ${unit}`),
+    markLine: toleranceLines(tol, `${tol} ${unit}`, true, position),
   };
 }
 
@@ -97,7 +97,7 @@ function toleranceChart(set: CurveSet, spec: ToleranceChart, x: number | null): 
   if (!c) return unavailable(spec.title, set.missing[spec.kind] ?? 'not computed');
   // A series with no side in its id takes the left colour.
   const series: Record<string, unknown>[] = pick(c, spec.series).map((s) => line(s.label, points(c, s), sideColour(s.id)));
-  series.push(toleranceSeries(spec.tolerance, spec.unit));
+  series.push(toleranceSeries(spec.tolerance, spec.unit, labelEndAwayFrom(x, c.x.values)));
   return {
     ...base(spec.title, spec.subtitle + failuresNote(c)),
     xAxis: axis(xName(c, spec.xSign)),
@@ -168,7 +168,8 @@ export function camberOption(set: CurveSet, m: ChartMarker = NO_MARKER): ECharts
     const half = panels.length === 2;
     grids.push(half ? (gi === 0 ? { left: 56, right: '53%', top: 66, bottom: 42 } : { left: '56%', right: 18, top: 66, bottom: 42 }) : { left: 60, right: 24, top: 66, bottom: 42 });
     xAxes.push(axis(xName(p.c), { gridIndex: gi }));
-    yAxes.push(axis('camber (deg, top out +)', { gridIndex: gi, nameGap: 30 }));
+    // The panel on the right measures the same camber: its axis is named once, on the left (its name sat in the gap, over the left panel's 'now').
+    yAxes.push(axis(gi === 0 ? 'camber (deg, top out +)' : '', { gridIndex: gi, nameGap: 30 }));
     const s = [...pick(p.c, 'camber'), ...pick(p.c, 'camberToFrame')].map((cs) =>
       line(cs.label, points(p.c, cs), sideColour(cs.id), cs.id.startsWith('camberToFrame'), { xAxisIndex: gi, yAxisIndex: gi }),
     );

@@ -71,12 +71,22 @@ describe('curve charts a designer can read', () => {
   for (const demo of DEMOS) {
     it(`${demo}: no paged or cut legend, no two texts overlapping, at ${SIZES.map((s) => s.join('x')).join(' and ')}`, () => {
       const set = computeCurves({ design: demoDesign(demo) });
-      for (const { id } of CURVE_CHARTS) {
-        const opt = curveOption(id, set, { leanDeg: 0, handlebarDeg: 0, travelMm: 0, ackermann: null });
+      // The 'now' line at the middle and near each end of the sweeps (its word sits at the top,
+      // where a limit line's words at that end printed on top of it at lean 25 on the Heron).
+      const ends = (...kinds: (keyof typeof set.curves)[]) => {
+        const xs = kinds.flatMap((k) => (set.curves[k]?.x.values ?? []).filter((v): v is number => v !== null));
+        return xs.length ? [Math.min(...xs) * 0.95, Math.max(...xs) * 0.95] : [0, 0];
+      };
+      const [lean, bar, travel] = [ends('leanSteer', 'camberLean'), ends('slipSteer'), ends('bumpSteer')];
+      const markers = [0, 1].map((k) => ({ leanDeg: lean[k], handlebarDeg: bar[k], travelMm: travel[k], ackermann: null }));
+      markers.unshift({ leanDeg: 0, handlebarDeg: 0, travelMm: 0, ackermann: null });
+      for (const { id } of CURVE_CHARTS)
+      for (const marker of markers) {
+        const opt = curveOption(id, set, marker);
         for (const [w, h] of SIZES) {
           const svg = renderOptionToSvg(opt, w, h);
           const boxes = textBoxes(svg);
-          const where = `${demo} ${id} ${w}x${h}`;
+          const where = `${demo} ${id} ${w}x${h} now at lean ${marker.leanDeg.toFixed(1)}, handlebar ${marker.handlebarDeg.toFixed(1)}, travel ${marker.travelMm.toFixed(1)}`;
           // No pager ("1/2") and no name cut with an ellipsis.
           expect(boxes.filter((b) => /^\d+\/\d+$/.test(b.text) || b.text.includes('…')).map((b) => b.text), where).toEqual([]);
           // Every series' legend words written whole.
@@ -90,7 +100,7 @@ describe('curve charts a designer can read', () => {
             expect(b.y0, `${where}: ${b.text}`).toBeGreaterThanOrEqual(-1);
             expect(b.y1, `${where}: ${b.text}`).toBeLessThanOrEqual(h + 1);
           }
-          expect(overlaps(boxes), where).toEqual([]);
+          expect(overlaps(boxes), `${where}: ${JSON.stringify(overlaps(boxes))}`).toEqual([]);
         }
       }
     }, 60_000);
