@@ -3,7 +3,8 @@
  * full hardpoint table: the operating region's check and the rates per mm (sensitivity), each
  * run in its own worker. After an edit they run by themselves, one after the other, once the
  * plots of that edit are drawn (or after a quiet spell when no plot is being computed), so
- * they never hold up the curves; the buttons stay as "run again".
+ * they never hold up the curves; an edit stops them if they are still running for the design
+ * before it. The buttons stay as "run again".
  */
 import { createContext, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import { useDocument, useJobs, usePose, useUi } from './workbenchContext';
@@ -56,6 +57,17 @@ export function FixJobsProvider({ children, auto = true }: { children: ReactNode
   const ratesRunning = rates.state.phase === 'running';
   const runCheck = check.run;
   const runRates = rates.run;
+  const cancelCheck = check.cancel;
+  const cancelRates = rates.cancel;
+  // An edit makes a running check or rates out of date: stop them, so they do not hold the CPU the plots of the edit need.
+  const running = useRef({ check: false, rates: false });
+  useEffect(() => {
+    running.current = { check: checkRunning, rates: ratesRunning };
+  }, [checkRunning, ratesRunning]);
+  useEffect(() => {
+    if (running.current.check) cancelCheck();
+    if (running.current.rates) cancelRates();
+  }, [revision, cancelCheck, cancelRates]);
 
   useEffect(() => {
     if (!auto || !valid || dragging) return;
