@@ -252,8 +252,14 @@ function PlotBody({ running }: { running: boolean }) {
   const allCurves = useJobs((s) => s.curves.result);
   const curves = useTabCurves(allCurves, curvesRevision, tab);
   const pendingKinds = useJobs((s) => s.curves.pendingKinds);
+  const tabPending = tab !== 'map' && CHART_CURVES[tab].some((k) => pendingKinds.includes(k));
   const map = useJobs((s) => s.map.result);
-  const marker = useSettledMarker();
+  const settled = useSettledMarker();
+  // Only the Ackermann chart draws the pose's Ackermann angles: on the other tabs an edit that
+  // moves them (but not the pose) does not redraw the chart.
+  const { leanDeg, handlebarDeg, travelMm } = settled;
+  const ackermann = tab === 'ackermann' ? settled.ackermann : null;
+  const marker = useMemo<ChartMarker>(() => ({ leanDeg, handlebarDeg, travelMm, ackermann }), [leanDeg, handlebarDeg, travelMm, ackermann]);
   const reference = useReferenceCurves();
   const mapRequest = useJobs((s) => s.map.request);
   const referenceMap = useReferenceMap(tab === 'map' && mapRequest ? mapRequest.angleStepDeg : null, mapRequest?.travelMm);
@@ -270,10 +276,10 @@ function PlotBody({ running }: { running: boolean }) {
       return referenceMap && mapsComparable ? withReferenceMap(own, referenceMap.map, metric, referenceMap.label) : own;
     }
     // A tab whose curves are still to come (another chart's came first) waits for them.
-    if (!curves || CHART_CURVES[tab].some((k) => pendingKinds.includes(k))) return null;
+    if (!curves || tabPending) return null;
     const own = curveOption(tab, curves, marker);
     return reference ? withReference(own, curveOption(tab, reference.curves), reference.label) : own;
-  }, [tab, curves, pendingKinds, map, metric, marker, reference, referenceMap, mapsComparable]);
+  }, [tab, curves, tabPending, map, metric, marker, reference, referenceMap, mapsComparable]);
   const ranges = useMemo(() => (heldCurves && tab !== 'map' ? heldRanges(curveOption(tab, heldCurves)) : null), [heldCurves, tab]);
   const option = shown && ranges ? withHeldRanges(shown, ranges) : shown;
   const stale = slot.result !== null && slot.resultRevision !== revision;
