@@ -17,6 +17,7 @@ import { pickedAxes, togglePoint } from '../model/tunePicks';
 import { acceptProposal, dismissProposal, previewProposal } from '../studies/ProposalsPanel';
 import type { Proposal } from '../../core/studies/geometricSuggestion';
 import { fmt } from '../model/format';
+import { fixPoints } from '../model/findings';
 
 export function HardpointTable() {
   const design = useDocument((s) => s.design);
@@ -38,6 +39,14 @@ export function HardpointTable() {
     if (headline && OBJECTIVE_CHOICES.some((o) => o.id === headline)) setObjective(headline);
   }
   const rates = sensitivity.state.phase === 'done' ? sensitivity.state.data : null;
+  // "Strongest first": the points in the order of their largest rate of the chosen measure (as the fix view lists them), the rest after.
+  const [strongestFirst, setStrongestFirst] = useState(false);
+  const order = useMemo(() => (strongestFirst && rates ? fixPoints(rates, objective, Infinity).map((p) => p.key) : null), [strongestFirst, rates, objective]);
+  const shownRows = useMemo(() => {
+    if (!order) return rows;
+    const rank = (key: string) => (order.includes(key) ? order.indexOf(key) : order.length);
+    return [...rows].sort((a, b) => rank(a.key) - rank(b.key));
+  }, [rows, order]);
   const studies = useWorkbenchApi().studies;
   const picks = useStudies((s) => s.picks);
   const proposalSet = useStudies((s) => s.proposals);
@@ -75,12 +84,17 @@ export function HardpointTable() {
         onRun={sensitivity.run}
         onCancel={sensitivity.cancel}
       />
+      {rates && (
+        <label className="hint sort-toggle">
+          <input type="checkbox" checked={strongestFirst} onChange={(e) => setStrongestFirst(e.target.checked)} data-testid="sort-by-rate" /> strongest first (by the rate of the chosen measure)
+        </label>
+      )}
       <table className="hardpoint-table" data-testid="hardpoint-table">
         <TableHead />
         <tbody ref={body}>
-          {rows.map((row, i) => {
-            // A group's first row carries its heading.
-            const header = i === 0 || row.group !== rows[i - 1].group;
+          {shownRows.map((row, i) => {
+            // A group's first row carries its heading (sorted by rate, each point names its group instead).
+            const header = !order && (i === 0 || row.group !== shownRows[i - 1].group);
             const messages = rowMessages(row, issues, typing);
             return (
               <Fragment key={row.id}>
@@ -93,6 +107,7 @@ export function HardpointTable() {
                 )}
                 <HardpointTableRow
                   row={row}
+                  withGroup={order !== null}
                   selected={selection === row.id}
                   invalidAxes={AXES.filter((a) => issuesOfCell(issues, row.key, row.side, a).length > 0)}
                   onSelect={() => actions.select(row.id)}
@@ -260,9 +275,11 @@ interface RowProps {
   onTyping(cell: string, message: string | null): void;
   /** The tune's "vary" tick: how many of the point's axes are picked; null on a mirrored left row. */
   vary: { picked: number; onToggle(): void } | null;
+  /** Name the point's group in its row (no group headings when sorted by rate). */
+  withGroup?: boolean;
 }
 
-function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnlink, onLink, onTyping, vary }: RowProps) {
+function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnlink, onLink, onTyping, vary, withGroup }: RowProps) {
   const name = rowName(row);
   return (
     <tr
@@ -274,7 +291,7 @@ function HardpointTableRow({ row, selected, invalidAxes, onSelect, onEdit, onUnl
       onClick={onSelect}
     >
       <th scope="row" title={name}>
-        {row.side !== 'left' ? row.label : ''}
+        {row.side !== 'left' ? (withGroup ? `${row.group.toLowerCase()} ${row.label}` : row.label) : ''}
       </th>
       <td className="side-cell">{row.side ?? 'centre'}</td>
       {AXES.map((axis) => (
