@@ -5,7 +5,7 @@
  * move. Pure reshaping of the design document.
  */
 import { resolveDesign } from '../../core/design/resolveDesign';
-import type { DesignFile, FrontEnd, Steering, CrankInput, SpringMount, Vec3Mm } from '../../core/design/types';
+import type { DesignFile, FrontEnd, Steering, CrankInput, LeanLinkage, SpringMount, Vec3Mm } from '../../core/design/types';
 
 const p = (x: number, y: number, z: number): Vec3Mm => ({ x, y, z });
 
@@ -92,3 +92,27 @@ export function starterSpring(d: DesignFile): SpringMount {
   const midY = Math.round((outer.y + inner.y) / 2);
   return { on: 'lower', frameMount: p(Math.round(outer.x), Math.min(-1, Math.round(inner.y) - 10), Math.round(upperZ + 50)), armMount: p(Math.round(outer.x), midY, Math.round(inner.z + 10)) };
 }
+
+/**
+ * A balance-beam lean linkage to start from (split wishbones): push links straight up from a
+ * point 45 % of the way out along each lower wishbone to a rocker 150 mm above the upper outer
+ * joints, on a carrier sliding up toward a frame mount 200 mm higher (the spring), stops at
+ * 30 deg. Plain numbers for the user to move; null for centre-pivot members.
+ */
+export function starterLeanLinkage(d: DesignFile): LeanLinkage | null {
+  const r = resolveDesign(d);
+  const fe = r.frontEnd;
+  if (fe.kind !== 'splitWishbones') return null;
+  const w = fe.lower;
+  const inner = p((w.frontPivot.right.x + w.rearPivot.right.x) / 2, (w.frontPivot.right.y + w.rearPivot.right.y) / 2, (w.frontPivot.right.z + w.rearPivot.right.z) / 2);
+  const outer = w.outerJoint.right;
+  const t = 0.45;
+  const arm = p(Math.round(inner.x + t * (outer.x - inner.x)), Math.round(inner.y + t * (outer.y - inner.y)), Math.round(inner.z + t * (outer.z - inner.z)));
+  const top = Math.round(Math.max(fe.upper.outerJoint.right.z, fe.upper.frontPivot.right.z, fe.upper.rearPivot.right.z) + 150);
+  return {
+    carrier: { frameMount: p(arm.x, 0, top + 230), carrierMount: p(arm.x, 0, top + 30) },
+    rocker: { pivot: p(arm.x, 0, top), axis: p(1, 0, 0), linkJoint: p(arm.x, arm.y, top), stopDeg: 30 },
+    pushLinks: { on: 'lower', armJoint: arm },
+  };
+}
+

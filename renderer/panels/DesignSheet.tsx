@@ -9,7 +9,7 @@ import { starterLeaningRear } from '../../core/design/rearPairStarter';
 import { DEFAULT_PART_SIZES, DEFAULT_TOLERANCES, type DesignFile, type Joints } from '../../core/design/types';
 import { useActions, useDocument, usePose } from '../app/workbenchContext';
 import { setField, setFields } from '../model/designActions';
-import { starterCrankInput, starterFrontEnd, starterSpring, starterSteering, starterTrackRodDrive } from '../model/designStarters';
+import { starterCrankInput, starterFrontEnd, starterLeanLinkage, starterSpring, starterSteering, starterTrackRodDrive } from '../model/designStarters';
 import { issuesAt } from '../model/fieldIssues';
 import { Choice, Num, Section, SidedNum, Vec } from './sheetFields';
 
@@ -132,6 +132,7 @@ function VehicleAndLayout({ design: d }: { design: DesignFile }) {
       {d.vehicle.rear.kind === 'pair' && <Num path="vehicle.rear.trackMm" label="Rear track" unit="mm" />}
       <FrontSuspension design={d} />
       <SpringMount design={d} />
+      <LeanLinkageBlock design={d} />
     </Section>
   );
 }
@@ -199,6 +200,30 @@ function SpringMount({ design: d }: { design: DesignFile }) {
           ]}
         />
       )}
+    </>
+  );
+}
+
+/** The balance-beam lean linkage: offered on split wishbones of a tilting vehicle (where the validator accepts it). */
+function LeanLinkageBlock({ design: d }: { design: DesignFile }) {
+  const replace = useReplace();
+  const possible = d.frontEnd.kind === 'splitWishbones' && d.vehicle.tilting;
+  if (!possible && !d.leanLinkage) return null;
+  return (
+    <>
+      <div className="sheet-row">
+        <label className="check">
+          <input
+            type="checkbox"
+            checked={d.leanLinkage !== undefined}
+            onChange={(e) =>
+              replace([{ path: 'leanLinkage', value: e.target.checked ? (starterLeanLinkage(d) ?? undefined) : undefined }], e.target.checked ? 'add a lean linkage' : 'remove the lean linkage')
+            }
+          />
+          Balance-beam lean linkage (rocker, push links, spring on a carrier)
+        </label>
+      </div>
+      {d.leanLinkage && <Num path="leanLinkage.rocker.stopDeg" label="Rocker stops (each way)" unit="deg" />}
     </>
   );
 }
