@@ -35,7 +35,7 @@
  * so both meet the same machine load, and printed side by side.
  *
  * Usage: tsx test/bench/viewport.ts [--no-build | --dir BUILT_RENDERER] [--baseline BUILT_RENDERER]
- *          [--seconds N] [--trials N] [--config brief|software] [--only speed|frames]
+ *          [--seconds N] [--trials N] [--config brief|software] [--only speed|frames] [--loads N] [--edits N]
  */
 import os from 'node:os';
 import { chromium, type Browser, type Page } from 'playwright-core';
@@ -69,10 +69,13 @@ interface Args {
   baseline: string | null;
   /** Only the responsiveness figures, or only the frames and slider latency. */
   only: 'speed' | 'frames' | null;
+  /** Loads per build for the first frame, and edits per build and tab (0: first frames only). */
+  loads: number;
+  edits: number;
 }
 
 function parseArgs(argv: string[]): Args {
-  const a: Args = { build: true, dir: null, seconds: 5, configs: ['brief', 'software'], trials: 20, baseline: null, only: null };
+  const a: Args = { build: true, dir: null, seconds: 5, configs: ['brief', 'software'], trials: 20, baseline: null, only: null, loads: SPEED_LOADS, edits: SPEED_EDITS };
   for (let i = 0; i < argv.length; i++) {
     if (argv[i] === '--no-build') a.build = false;
     else if (argv[i] === '--seconds') a.seconds = Number(argv[++i]);
@@ -80,6 +83,8 @@ function parseArgs(argv: string[]): Args {
     else if (argv[i] === '--config') a.configs = [argv[++i]];
     else if (argv[i] === '--dir') a.dir = argv[++i];
     else if (argv[i] === '--baseline') a.baseline = argv[++i];
+    else if (argv[i] === '--loads') a.loads = Number(argv[++i]);
+    else if (argv[i] === '--edits') a.edits = Number(argv[++i]);
     else if (argv[i] === '--only') {
       const o = argv[++i];
       if (o !== 'speed' && o !== 'frames') throw new Error(`--only takes speed or frames, not ${o}`);
@@ -289,8 +294,8 @@ async function waitPlotsIdle(page: Page): Promise<void> {
   await waitFor(page, `(() => { const j = window.__tiltbench.jobs.store.getState(); return j.curves.progress === null && j.map.progress === null && !document.querySelector('[data-testid=sweep-progress]'); })()`);
 }
 
-/** One load: its first-frame time, and (with `edits`) edit-to-plots times on the curves tab and the coarse map. */
-async function speedRound(browser: Browser, url: string, edits: number, into: Speed): Promise<void> {
+/** One load: its first-frame time. */
+async function loadRound(browser: Browser, url: string, into: Speed): Promise<void> {
   const page = await browser.newPage({ viewport: { width: WIDTH, height: HEIGHT } });
   const errors: string[] = [];
   page.on('pageerror', (e) => errors.push(e.message));
@@ -298,34 +303,57 @@ async function speedRound(browser: Browser, url: string, edits: number, into: Sp
   await page.goto(url);
   await waitFor(page, 'window.__speedBench && window.__speedBench.firstFrame !== null');
   into.firstFrameMs.push(await js<number>(page, 'window.__speedBench.firstFrame'));
-  if (edits > 0) {
-    await waitFor(page, `window.__tiltbench.jobs.store.getState().curves.resultRevision >= 0`);
+  if (errors.length) throw new Error(`page errors: ${errors.join('; ')}`);
+  await page.close();
+}
+
+/**
+ * Edit-to-plots times on the curves tab and the coarse map: one page per build, open side by
+ * side, edited in turn (the order alternating edit by edit) so the machine's load lands on all.
+ */
+async function editRounds(browser: Browser, urls: string[], edits: number, into: Speed[]): Promise<void> {
+  const errors: string[] = [];
+  const pages: { page: Page; v0: number; tab: string }[] = [];
+  for (const url of urls) {
+    const page = await browser.newPage({ viewport: { width: WIDTH, height: HEIGHT } });
+    page.on('pageerror', (e) => errors.push(e.message));
+    await page.addInitScript(SPEED_INIT);
+    await page.goto(url);
+    await waitFor(page, `window.__tiltbench && window.__tiltbench.jobs.store.getState().curves.resultRevision >= 0`);
     await waitPlotsIdle(page);
-    await page.waitForTimeout(1500);
-    const field = page.getByTestId(EDIT_FIELD);
-    const v0 = Number(await field.inputValue());
-    const tab = await js<string>(page, 'window.__tiltbench.ui.getState().plots.tab');
-    for (const [slot, out] of [['curves', into.curvesMs], ['map', into.mapMs]] as const) {
+    // A build whose hardpoint table sits behind a column tab: open it first.
+    const tableTab = page.getByTestId('column-tab-hardpoints');
+    if ((await tableTab.count()) > 0) await tableTab.click();
+    const v0 = Number(await page.getByTestId(EDIT_FIELD).inputValue());
+    pages.push({ page, v0, tab: await js<string>(page, 'window.__tiltbench.ui.getState().plots.tab') });
+  }
+  for (const slot of ['curves', 'map'] as const) {
+    for (const { page } of pages) {
       if (slot === 'map') {
         await page.getByTestId('tab-map').click();
         await waitFor(page, `window.__tiltbench.jobs.store.getState().map.resultRevision === window.__tiltbench.document.getState().revision`);
-        await waitPlotsIdle(page);
-        await page.waitForTimeout(1500);
       }
-      const chart = slot === 'map' ? 'chart-map' : `chart-${tab}`;
-      for (let k = 0; k < edits; k++) {
-        await js(page, ARM_EDIT(slot, chart));
+      await waitPlotsIdle(page);
+    }
+    await new Promise((r) => setTimeout(r, 1500));
+    for (let k = 0; k < edits; k++) {
+      const order = pages.map((_, b) => b);
+      if (k % 2 === 1) order.reverse();
+      for (const b of order) {
+        const { page, v0, tab } = pages[b];
+        const field = page.getByTestId(EDIT_FIELD);
+        await js(page, ARM_EDIT(slot, slot === 'map' ? 'chart-map' : `chart-${tab}`));
         await field.fill((v0 + (k % 2 === 0 ? EDIT_STEP_MM : 0)).toFixed(1));
         await field.press('Enter');
         await waitFor(page, 'window.__speedBench.editMs !== null', 20_000);
-        out.push(await js<number>(page, 'window.__speedBench.editMs'));
+        (slot === 'map' ? into[b].mapMs : into[b].curvesMs).push(await js<number>(page, 'window.__speedBench.editMs'));
         await waitPlotsIdle(page);
         await page.waitForTimeout(700); // a designer's pause between edits
       }
     }
   }
   if (errors.length) throw new Error(`page errors: ${errors.join('; ')}`);
-  await page.close();
+  for (const { page } of pages) await page.close();
 }
 
 const med = (xs: number[]) => (xs.length ? quantile(xs, 0.5) : NaN);
@@ -337,15 +365,15 @@ async function speedFigures(args: Args, builds: { label: string; url: string }[]
     const figures = builds.map(() => ({ firstFrameMs: [], curvesMs: [], mapMs: [] }) as Speed);
     // The browser's first page pays for starting its GPU process (a second or more on
     // SwiftShader): one load, not counted, before any measured one.
-    await speedRound(browser, builds[0].url, 0, { firstFrameMs: [], curvesMs: [], mapMs: [] });
+    await loadRound(browser, builds[0].url, { firstFrameMs: [], curvesMs: [], mapMs: [] });
     // Interleaved, the order alternating round by round, so both builds meet the same load:
-    // loads first, then the edits.
-    for (let r = 0; r < SPEED_LOADS; r++) {
+    // loads first, then the edits (the builds' pages open together, edited in turn).
+    for (let r = 0; r < args.loads; r++) {
       const order = builds.map((_, b) => b);
       if (r % 2 === 1) order.reverse();
-      for (const b of order) await speedRound(browser, builds[b].url, 0, figures[b]);
+      for (const b of order) await loadRound(browser, builds[b].url, figures[b]);
     }
-    for (let b = 0; b < builds.length; b++) await speedRound(browser, builds[b].url, SPEED_EDITS, figures[b]);
+    if (args.edits > 0) await editRounds(browser, builds.map((b) => b.url), args.edits, figures);
     console.log(`== responsiveness (${CONFIGS.brief.label}), median (min-max, n)`);
     const rows: [string, (f: Speed) => number[], number][] = [
       ['first frame after load', (f) => f.firstFrameMs, TARGET_FIRST_FRAME_MS],
@@ -353,7 +381,7 @@ async function speedFigures(args: Args, builds: { label: string; url: string }[]
       ['edit to plots, coarse map', (f) => f.mapMs, TARGET_EDIT_TO_PLOTS_MS],
     ];
     console.log(`   ${''.padEnd(28)}${builds.map((b) => b.label.padEnd(34)).join('')}target`);
-    for (const [name, pick, target] of rows) {
+    for (const [name, pick, target] of rows.filter(([, pick]) => pick(figures[0]).length > 0)) {
       const cells = figures.map((f) => `${spread(pick(f))} ${verdict(med(pick(f)) <= target)}`.padEnd(34)).join('');
       console.log(`   ${name.padEnd(28)}${cells}<= ${target} ms`);
     }
