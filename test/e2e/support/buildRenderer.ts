@@ -9,10 +9,21 @@ export const ARTIFACTS_DIR = path.join(ROOT, 'test-artifacts');
 
 export async function buildRenderer(outDir = BUILD_DIR): Promise<string> {
   const { build } = await import('vite');
-  await build({
-    configFile: path.join(ROOT, 'vite.config.ts'),
-    logLevel: 'warn',
-    build: { outDir, emptyOutDir: true, sourcemap: false },
-  });
+  // What users get, whoever builds: under vitest NODE_ENV is 'test', which made this React's
+  // development build (StrictMode's double mount, slower renders, the dev JSX transform). Vite
+  // and the React plugin read NODE_ENV, so it is 'production' for the build and put back after.
+  const nodeEnv = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({
+      configFile: path.join(ROOT, 'vite.config.ts'),
+      logLevel: 'warn',
+      mode: 'production',
+      build: { outDir, emptyOutDir: true, sourcemap: false },
+    });
+  } finally {
+    if (nodeEnv === undefined) delete process.env.NODE_ENV;
+    else process.env.NODE_ENV = nodeEnv;
+  }
   return outDir;
 }
