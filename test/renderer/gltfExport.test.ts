@@ -164,7 +164,7 @@ describe('glTF export of the posed mechanism', () => {
     }
   }, 60_000);
 
-  it.each(['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'plover-tilting-quad'])('every demo (%s): the pose and a 21-pose sweep are valid, with no warnings either', async (name) => {
+  it.each(['heron-tilting-velomobile', 'swift-parallelogram-trike', 'wren-rack-trike', 'plover-tilting-quad', 'pipit-balance-beam-trike'])('every demo (%s): the pose and a 21-pose sweep are valid, with no warnings either', async (name) => {
     const demo = demoWorkbench(name).pose.getState();
     const pose = await poseGlb(demo.drawing!, demo.outcome.snapshot!, name);
     const sweep = sweepPoses(demo.resolved!, demo.pose, 21);
