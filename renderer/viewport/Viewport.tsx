@@ -24,7 +24,7 @@ const VIEWS: { view: ViewName; label: string; title: string }[] = [
   { view: 'threeQuarter', label: '3D', title: 'Perspective from the front left; drag to orbit' },
   { view: 'front', label: 'Front', title: 'Front elevation, true to scale (looking along −x; the vehicle’s left on the right); shows the lean angle' },
   { view: 'side', label: 'Side', title: 'Side elevation from the left, true to scale (looking along −y); the near wheel see-through' },
-  { view: 'top', label: 'Top', title: 'Plan, true to scale (looking down along −z; forward up)' },
+  { view: 'top', label: 'Top', title: 'Plan, true to scale (looking down along −z; forward to the left as in Side, the left side at the bottom)' },
   { view: 'fit', label: 'Fit', title: 'Fit everything, every wheel included, in this view' },
 ];
 

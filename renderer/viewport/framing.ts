@@ -18,8 +18,10 @@ export const VIEW_AXES: Record<CameraViewName, { toCamera: [number, number, numb
   front: { toCamera: [1, 0, 0], up: [0, 0, 1] },
   // Looking from the left side (along -y): forward is to the screen's left.
   side: { toCamera: [0, 1, 0], up: [0, 0, 1] },
-  // Looking down (along -z), forward up the screen, left to the screen's left.
-  top: { toCamera: [0, 0, 1], up: [1, 0, 0] },
+  // Looking down (along -z), forward to the screen's left as in the Side view, the vehicle's left
+  // at the bottom (the plan drawn above the side elevation). The vehicle's length then lies
+  // along the canvas's long side: forward up the screen drew it at about half the size at 1280x800.
+  top: { toCamera: [0, 0, 1], up: [0, -1, 0] },
   threeQuarter: { toCamera: [1, 0.85, 0.62], up: [0, 0, 1] },
 };
 

@@ -20,7 +20,7 @@ import {
 } from 'three';
 import type { PoseSnapshot } from '../../core/analysis/poseSnapshot';
 import type { DrawingLayout } from '../../core/mechanism/drawingLayout';
-import { applyFraming, framingFor, scenePoints, type CameraViewName } from '../../renderer/viewport/framing';
+import { applyFraming, framingFor, orthographicFraming, scenePoints, type CameraViewName } from '../../renderer/viewport/framing';
 import { JOINT_CAPACITY, LINE_CAPACITY, TUBE_CAPACITY, updateScene, type SceneObjects } from '../../renderer/viewport/sceneUpdate';
 import { markGeometries } from '../../renderer/viewport/markGeometry';
 import { createWheelSlots, type MadeSlot } from '../../renderer/viewport/wheelSlots';
@@ -188,12 +188,20 @@ describe('elevations', () => {
       const u = px(p.clone().addScaledVector(up, 100));
       expect(Math.hypot(r[0] - o[0], r[1] - o[1])).toBeCloseTo(Math.hypot(u[0] - o[0], u[1] - o[1]), 6);
     }
-    // Top: forward is up the screen, left is to the left (ISO 8855 seen from above).
+    // Top: forward to the screen's left as in the Side view, the vehicle's left at the bottom
+    // (ISO 8855 seen from above, the plan drawn over the side elevation).
     const top = cameraFor('top', box, 700, 470);
-    const ahead = new Vector3(500, 0, 0).project(top).y - new Vector3(0, 0, 0).project(top).y;
-    const left = new Vector3(0, 500, 0).project(top).x - new Vector3(0, 0, 0).project(top).x;
-    expect(ahead).toBeGreaterThan(0);
+    const side = cameraFor('side', box, 700, 470);
+    const o = new Vector3(0, 0, 0);
+    const ahead = new Vector3(500, 0, 0).project(top).x - o.clone().project(top).x;
+    const aheadSide = new Vector3(500, 0, 0).project(side).x - o.clone().project(side).x;
+    const left = new Vector3(0, 500, 0).project(top).y - o.clone().project(top).y;
+    expect(ahead).toBeLessThan(0);
+    expect(Math.sign(ahead)).toBe(Math.sign(aheadSide));
     expect(left).toBeLessThan(0);
+    // On a landscape canvas the plan of a vehicle longer than wide is drawn larger than with forward up the screen.
+    const forwardUp = orthographicFraming(box, new Vector3(0, 0, 1), new Vector3(1, 0, 0), 700, 470);
+    expect((top as OrthographicCamera).zoom / forwardUp.zoom).toBeGreaterThan(1.2);
   });
 });
 
