@@ -13,7 +13,8 @@ import { SelectedPoint } from '../panels/SelectedPoint';
 import { OrphanFix } from '../panels/FixPanel';
 import type { FixColumnTab } from '../state/uiStore';
 import { StudiesPanel } from '../studies/StudiesPanel';
-import { useUi, useWorkbenchApi } from './workbenchContext';
+import { usePose, useUi, useWorkbenchApi } from './workbenchContext';
+import { useFixJobs } from './fixJobs';
 
 const TABS: { id: FixColumnTab; label: string; title: string }[] = [
   { id: 'findings', label: "What's wrong", title: 'This pose and the operating region: what is over or close to a limit, worst first; click one to see where it is and how to fix it' },
@@ -31,15 +32,28 @@ function Tab({ id, children }: { id: FixColumnTab; children: ReactNode }) {
   );
 }
 
+/** How many findings there are now (this pose's alerts and the last check's items over or close), for the tab's label. */
+function useFindingCount(): number {
+  const alerts = usePose((s) => s.outcome.alerts.length + s.issues.length);
+  const region = useFixJobs()?.lastCheck?.data.items.filter((i) => i.verdict !== 'within').length ?? 0;
+  return alerts + region;
+}
+
 export function FixColumn() {
   const { ui } = useWorkbenchApi();
   const tab = useUi((s) => s.fixColumn);
+  const count = useFindingCount();
   return (
     <aside className="side right-side fix-column" aria-label="What's wrong and how to fix it">
       <div className="column-tabs" role="tablist" aria-label="What's wrong, hardpoints, studies, settings">
         {TABS.map((t) => (
           <button key={t.id} type="button" role="tab" aria-selected={tab === t.id} aria-controls={`column-${t.id}`} title={t.title} onClick={() => ui.setState({ fixColumn: t.id })} data-testid={`column-tab-${t.id}`}>
             {t.label}
+            {t.id === 'findings' && count > 0 && (
+              <span className="tab-count" data-testid="findings-count" aria-label={`${count} findings`}>
+                {count}
+              </span>
+            )}
           </button>
         ))}
       </div>
