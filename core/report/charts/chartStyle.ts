@@ -77,7 +77,11 @@ export function labelEndAwayFrom(x: number | null, xs: readonly (number | null)[
   if (x === null || !Number.isFinite(x)) return 'insideEndTop';
   let lo = Infinity;
   let hi = -Infinity;
-  for (const v of xs) if (v !== null && Number.isFinite(v)) (lo = Math.min(lo, v)), (hi = Math.max(hi, v));
+  for (const v of xs) {
+    if (v === null || !Number.isFinite(v)) continue;
+    lo = Math.min(lo, v);
+    hi = Math.max(hi, v);
+  }
   return hi > lo && x > (lo + hi) / 2 ? 'insideStartTop' : 'insideEndTop';
 }
 
