@@ -22,7 +22,7 @@ for (const dir of dirs) {
   for (let k = 0; k < 4; k++) {
     await page.evaluate(`(() => {
       const node = document.querySelector('.plots .chart svg') || document.querySelector('.plots .chart');
-      window.__draws = []; window.__t0 = performance.now(); const wb = window.__tiltbench; window.__offJ = wb.jobs.store.subscribe((st, pr) => { if (st.curves.resultRevision !== pr.curves.resultRevision || st.curves.result !== pr.curves.result) window.__draws.push('result@' + Math.round(performance.now() - window.__t0)); });
+      window.__draws = []; window.__t0 = performance.now(); const wb = window.__tiltbench; window.__offJ = wb.jobs.store.subscribe((st, pr) => { if (st.curves.resultRevision !== pr.curves.resultRevision || st.curves.result !== pr.curves.result) window.__draws.push('result@' + Math.round(performance.now() - window.__t0) + '(worker ' + st.curves.result.elapsedMs + ' ms)'); });
       const mo = new MutationObserver((recs) => { window.__draws.push(Math.round(performance.now() - window.__t0) + ':' + recs.length); });
       mo.observe(document.querySelector('.plots .chart'), { subtree: true, childList: true, attributes: true, characterData: true });
       window.__mo = mo;
