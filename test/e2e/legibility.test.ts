@@ -313,8 +313,14 @@ async function alertProblems(page: Page, size: WindowSize, pose: { leanDeg: numb
 const BEYOND_REACH: [number, number][] = [
   [60, 80],
   [80, 170],
-  [0, 400],
 ];
+/**
+ * Demos where one of those poses is known not to close (the Heron's left tie rod at lean 60,
+ * handlebar 80), so the status message's place is always checked there; on the others (a
+ * parallelogram leans 60 deg; a handlebar turned past a full turn comes round again) a pose
+ * may close, and then there is no message to place.
+ */
+const STATUS_SHOWN_ON = ['heron'];
 
 /** The triad's square in the canvas's top right corner (AxisTriad.ts draws it TRIAD_PX = 110 px wide, 6 px from the edges). */
 const TRIAD = { px: 110, inset: 6 };
@@ -323,7 +329,7 @@ const TRIAD = { px: 110, inset: 6 };
  * With a hardpoint selected, the gizmo bar keeps clear of the axis triad; and a pose the linkage
  * cannot reach puts its status message under the gizmo bar, not over it.
  */
-async function overlayProblems(page: Page, where: string, shotName: string): Promise<string[]> {
+async function overlayProblems(page: Page, demoId: string, where: string, shotName: string): Promise<string[]> {
   const problems: string[] = [];
   const row = await evalIn<string | null>(page, `(() => { const d = window.__tiltbench.pose.getState().drawing; const j = d && d.joints.find((x) => x.hardpoint); return j ? j.hardpoint : null; })()`);
   if (!row) return [`${where}: no hardpoint to select`];
@@ -342,14 +348,14 @@ async function overlayProblems(page: Page, where: string, shotName: string): Pro
   let shown = false;
   for (const [leanDeg, handlebarDeg] of BEYOND_REACH) {
     await evalIn(page, `window.__tiltbench.actions.setPose({ leanDeg: ${leanDeg}, handlebarDeg: ${handlebarDeg} })`);
-    shown = await pollFor(page, `Boolean(document.querySelector('[data-testid=viewport-status]'))`, 6_000, 'the status message of a pose beyond reach').then(
+    shown = await pollFor(page, `Boolean(document.querySelector('[data-testid=viewport-status]'))`, 5_000, 'the status message of a pose beyond reach').then(
       () => true,
       () => false,
     );
     if (shown) break;
   }
   const second = await evalIn<{ bar: Box | null; status: Box | null }>(page, boxes);
-  if (!shown) problems.push(`${where}: no status message at any of the poses ${JSON.stringify(BEYOND_REACH)} (lean, handlebar), so its place could not be checked`);
+  if (!shown && STATUS_SHOWN_ON.includes(demoId)) problems.push(`${where}: no status message at any of the poses ${JSON.stringify(BEYOND_REACH)} (lean, handlebar), so its place could not be checked`);
   if (meets(second.bar, second.status)) problems.push(`${where}: the status message (${JSON.stringify(second.status)}) lies over the gizmo bar (${JSON.stringify(second.bar)})`);
   await page.screenshot({ path: shotPath(`legibility-${shotName}-gizmo`) });
   await evalIn(page, `window.__tiltbench.actions.setPose({ leanDeg: 0, handlebarDeg: 0 })`);
@@ -383,7 +389,7 @@ for (const size of WINDOW_SIZES)
         if (k > 0) problems.push(...(await openFromRecent(page, demo.fileName, where)));
         // The alerts first, as the workbench opens (the studies may share their place behind tabs).
         if (pose) problems.push(...(await alertProblems(page, size, pose, where, shotName)));
-        problems.push(...(await overlayProblems(page, where, shotName)));
+        problems.push(...(await overlayProblems(page, demo.id, where, shotName)));
         problems.push(...(await studyTabProblems(page, where)));
         problems.push(...(await plotTabProblems(page, where, shotName)));
         expect(problems, problems.join('\n')).toEqual([]);
