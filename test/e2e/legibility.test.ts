@@ -58,7 +58,9 @@ export const TEXT_BOXES = `(() => {
     if (!el || el === document.body) return true;
     if (visibleCache.has(el)) return visibleCache.get(el);
     const s = style(el);
-    const v = s.display !== 'none' && s.visibility !== 'hidden' && s.visibility !== 'collapse' && Number(s.opacity) !== 0 && visible(el.parentElement);
+    // A closed <details> keeps its content laid out (content-visibility), unseen: checkVisibility says so.
+    const seen = typeof el.checkVisibility !== 'function' || el.checkVisibility({ contentVisibilityAuto: true });
+    const v = seen && s.display !== 'none' && s.visibility !== 'hidden' && s.visibility !== 'collapse' && Number(s.opacity) !== 0 && !el.closest('details:not([open]) > :not(summary)') && visible(el.parentElement);
     visibleCache.set(el, v);
     return v;
   };
@@ -69,7 +71,9 @@ export const TEXT_BOXES = `(() => {
     let c = clipOf(el.parentElement);
     const s = style(el);
     const svgInner = el instanceof SVGElement && !(el instanceof SVGSVGElement);
-    if (!svgInner && s.display !== 'inline' && s.display !== 'contents' && (s.overflowX !== 'visible' || s.overflowY !== 'visible')) {
+    // Overflow other than visible, and paint containment (the panels' contain: layout paint), clip what is inside.
+    const paint = /paint|strict|content/.test(s.contain || '');
+    if (!svgInner && s.display !== 'inline' && s.display !== 'contents' && (s.overflowX !== 'visible' || s.overflowY !== 'visible' || paint)) {
       const b = el.getBoundingClientRect();
       const l = b.left + el.clientLeft, t = b.top + el.clientTop;
       const w = el.clientWidth || b.width, h = el.clientHeight || b.height;
@@ -161,7 +165,7 @@ const REACH = (selector: string) => `(() => {
   let inClip = true;
   for (let e = b.parentElement; e && e !== document.body; e = e.parentElement) {
     const s = getComputedStyle(e);
-    if (s.overflowX === 'visible' && s.overflowY === 'visible') continue;
+    if (s.overflowX === 'visible' && s.overflowY === 'visible' && !/paint|strict|content/.test(s.contain || '')) continue;
     const c = e.getBoundingClientRect();
     const l = c.left + e.clientLeft, t = c.top + e.clientTop;
     if (r.left < l - 0.5 || r.top < t - 0.5 || r.right > l + e.clientWidth + 0.5 || r.bottom > t + e.clientHeight + 0.5) inClip = false;
