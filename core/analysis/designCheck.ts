@@ -65,10 +65,39 @@ export interface CheckSection {
 /** 'operating': the poses balanced turns reach (ridingRegion.ts); 'full': the whole grid. */
 export type CheckRegion = 'operating' | 'full';
 
+/**
+ * What the grid's travel axis is. Wheel-centre travel relative to the frame (bump +) on most
+ * designs; on a design with a lean linkage and the tyres on the ground it is the spring's
+ * travel instead (the heave input drives the carrier there: a grid value t sets heave -t, the
+ * spring compressed t mm), which is not the wheels' travel (the motion ratio lies between), so
+ * every place that prints a travel value names it as spring travel.
+ */
+export interface TravelAxis {
+  kind: 'wheel' | 'spring';
+  /** The axis's name in a where-column or "first exceeded at" text: "travel" or "spring travel". */
+  name: string;
+  /** One sentence for notes and headers; null for plain wheel travel. */
+  note: string | null;
+}
+
+export function travelAxisOf(design: ResolvedDesign, contact: SweepContact): TravelAxis {
+  if (contact === 'ground' && design.leanLinkage) {
+    return {
+      kind: 'spring',
+      name: 'spring travel',
+      note:
+        'the travel axis is the lean linkage\'s spring travel (compression +, mm of spring, not of wheel travel: the motion ratio lies between; `tiltbench pose` prints it), because on the ground the heave input drives the carrier',
+    };
+  }
+  return { kind: 'wheel', name: 'travel', note: null };
+}
+
 export interface DesignCheck {
   design: string;
   contact: SweepContact;
   axes: SweepAxes;
+  /** What the axes' travel values are (wheel-centre or, with a lean linkage, spring travel). */
+  travelAxis: TravelAxis;
   /** Which section decides `passed` (and whose items `items` are). */
   judged: CheckRegion;
   operating: CheckSection;
@@ -320,11 +349,14 @@ export function checkDesign(design: ResolvedDesign, options: CheckOptions = {}):
   if (contact === 'ground' && design.frontEnd.kind === 'centrePivot' && (design.envelope.bumpMm > 0 || design.envelope.reboundMm > 0)) {
     info.unshift('travel not swept: a centre-pivot front end on the ground has its ride height set by the linkage');
   }
+  const travelAxis = travelAxisOf(design, contact);
+  if (travelAxis.note) info.unshift(travelAxis.note);
   const decides = judged === 'operating' ? operating : full;
   return {
     design: design.name,
     contact,
     axes,
+    travelAxis,
     judged,
     operating,
     full,

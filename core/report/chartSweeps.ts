@@ -10,6 +10,7 @@ import type { DesignFile, ResolvedDesign } from '../design/types';
 import { runSweep, type SweepAxes } from '../analysis/sweep';
 import { CURVE_KINDS, curve, type CurveKind } from '../analysis/curves';
 import { balancedLines, envelopeMap } from '../analysis/envelopeMap';
+import { travelAxisOf } from '../analysis/designCheck';
 import type { Verdict } from '../analysis/tolerance';
 import type { CurveSet, EnvelopeMapData, MapBalancedLine, MapCell } from './charts/chartData';
 import { LEAN_CURVES, NO_LEAN_REASON } from './charts/curveOptions';
@@ -106,6 +107,7 @@ export function computeMap(req: MapRequest, progress?: Progress): EnvelopeMapDat
     lean: axes.leanDeg,
     handlebar: axes.handlebarDeg,
     travelMm: axes.travelMm[0],
+    travelName: travelAxisOf(d, 'ground').name,
     contact: 'ground',
     cells,
     balancedLines: balancedTurnLines(d, axes.handlebarDeg, map.balancedLines),

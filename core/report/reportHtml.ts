@@ -210,9 +210,9 @@ function limitsSheet(r: ReportData): string {
   const region = c.judged === 'operating' ? 'operating region' : 'full rectangle';
   const otherName = c.judged === 'operating' ? 'full rectangle' : 'operating region';
   const table =
-    `<table class="grid limits" id="limits"><colgroup>${[48, 11, 6, 24, 22, 33, 14, 13, 15].map((w) => `<col style="width:${w}mm">`).join('')}</colgroup><thead><tr><th>item</th><th>worst</th><th></th><th>where (lean, handlebar, travel)</th><th>first over at</th><th>allowed</th><th>${escapeHtml(region)} (judged)</th><th>${escapeHtml(otherName === 'full rectangle' ? 'full grid' : otherName)} worst</th><th></th></tr></thead><tbody>${body}</tbody></table>`;
+    `<table class="grid limits" id="limits"><colgroup>${[48, 11, 6, 24, 22, 33, 14, 13, 15].map((w) => `<col style="width:${w}mm">`).join('')}</colgroup><thead><tr><th>item</th><th>worst</th><th></th><th>where (lean, handlebar, ${escapeHtml(c.travelAxis.name)})</th><th>first over at</th><th>allowed</th><th>${escapeHtml(region)} (judged)</th><th>${escapeHtml(otherName === 'full rectangle' ? 'full grid' : otherName)} worst</th><th></th></tr></thead><tbody>${body}</tbody></table>`;
   const a = c.axes;
-  const grid = `grid: lean ${a.leanDeg.length} x handlebar ${a.handlebarDeg.length} x travel ${a.travelMm.length} values, tyres on the ground; ${judged.poses} poses in the ${region}, ${other.poses} in the ${otherName}.`;
+  const grid = `grid: lean ${a.leanDeg.length} x handlebar ${a.handlebarDeg.length} x ${c.travelAxis.name} ${a.travelMm.length} values, tyres on the ground; ${judged.poses} poses in the ${region}, ${other.poses} in the ${otherName}.${c.travelAxis.note ? ` Note: ${c.travelAxis.note}.` : ''}`;
   return sheet('limits-sheet', `Limits: result ${c.passed ? 'PASS' : 'FAIL'}`, `<p class="small">${escapeHtml(grid)} As <code>tiltbench check</code> prints them.</p>${table}`);
 }
 

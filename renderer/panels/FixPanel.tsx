@@ -23,7 +23,12 @@ import { rateText } from '../studies/useSensitivity';
 import { useStudyJob } from '../studies/useStudyJob';
 import { NumberField } from './NumberField';
 
-export const whereText = (w: CheckWhere) => `lean ${fmt(w.leanDeg, 1)}°, handlebar ${fmt(w.handlebarDeg, 1)}°${w.travelMm !== 0 ? `, travel ${fmt(w.travelMm, 0)} mm` : ''}`;
+/**
+ * A check pose in words. On a design with a lean linkage the check's travel is the spring's
+ * (compression +; core's travelAxisOf), not the wheels', and is named so.
+ */
+export const whereText = (w: CheckWhere, design?: { leanLinkage?: unknown }) =>
+  `lean ${fmt(w.leanDeg, 1)}°, handlebar ${fmt(w.handlebarDeg, 1)}°${w.travelMm !== 0 ? `, ${design?.leanLinkage ? 'spring travel' : 'travel'} ${fmt(w.travelMm, 0)} mm` : ''}`;
 
 /**
  * Open a finding: it becomes the fix view's, its part is selected (the view rings it, the
@@ -113,7 +118,7 @@ export function FixView({ finding }: { finding: OpenFinding }) {
           close
         </button>
       </div>
-      {finding.where && <p className="hint">First exceeded at {whereText(finding.where)} (the pose on screen now).</p>}
+      {finding.where && <p className="hint">First exceeded at {whereText(finding.where, design)} (the pose on screen now).</p>}
       {finding.objective === null ? (
         <NoRate finding={finding} rows={rows} actions={actions} />
       ) : (

@@ -66,7 +66,7 @@ export function LimitsPanel() {
                 <li key={it.id} className={`alert sev-${it.verdict} ${open ? 'is-open' : ''}`} data-testid={`limit-${it.id}`}>
                   <button type="button" className="alert-button" aria-expanded={open} onClick={() => finding && openFinding(ui, actions, finding)}>
                     <span style={{ color: SEVERITY_STYLE[it.verdict].colour }}>{SEVERITY_STYLE[it.verdict].glyph}</span> {it.label}: worst {worstText(it)} ({it.limit})
-                    {it.firstOver ? `; first exceeded at ${whereText(it.firstOver)}` : it.where ? `; worst at ${whereText(it.where)}` : ''}
+                    {it.firstOver ? `; first exceeded at ${whereText(it.firstOver, design)}` : it.where ? `; worst at ${whereText(it.where, design)}` : ''}
                   </button>
                   {finding && <FixSlot id={finding.id} />}
                 </li>

@@ -5,7 +5,7 @@ import { ArgError, numberOption, parseArgs } from '../args';
 import { MAX_GRID_POSES, requireGridSize } from '../inputLimits';
 import { clip, MAX_ECHOED_NAME, quoted } from '../safeText';
 // The analysis modules are loaded when the command runs, so other commands start faster.
-import type { CheckItem, CheckRegion, CheckSection, DesignCheck } from '../../analysis/designCheck';
+import type { CheckItem, CheckRegion, CheckSection, DesignCheck, TravelAxis } from '../../analysis/designCheck';
 import type { LeanLimits, LimitKind } from '../../analysis/limits';
 import type { SweepAxes } from '../../analysis/sweep';
 import { parseContact, progressBar, summaryLine } from './sweep';
@@ -47,8 +47,8 @@ function whereText(it: CheckItem): string {
 }
 
 /** The detail column: core's words, then where the item is first exceeded (nearest the design pose). */
-function detailText(it: CheckItem): string {
-  const first = it.firstOver ? `first exceeded at ${poseText(it.firstOver)}` : '';
+function detailText(it: CheckItem, travel: TravelAxis): string {
+  const first = it.firstOver ? `first exceeded at ${poseText(it.firstOver)}${travel.kind === 'spring' ? ' (lean, handlebar, spring travel)' : ''}` : '';
   return [it.detail ?? '', first].filter((x) => x).join('; ');
 }
 
@@ -63,9 +63,9 @@ function axisText(values: number[], unit: string): string {
   return `${values[0]}..${values[values.length - 1]} ${unit} (${values.length} values)`;
 }
 
-function sectionTable(sec: CheckSection): string[] {
-  const rows: string[][] = [['item', 'worst', 'where (lean, handlebar, travel)', 'allowed', 'verdict', '']];
-  for (const it of sec.items) rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), detailText(it)]);
+function sectionTable(sec: CheckSection, travel: TravelAxis): string[] {
+  const rows: string[][] = [['item', 'worst', `where (lean, handlebar, ${travel.name})`, 'allowed', 'verdict', '']];
+  for (const it of sec.items) rows.push([it.label, worstText(it), whereText(it), it.limit, it.verdict.toUpperCase(), detailText(it, travel)]);
   const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
   return rows.map((r) => r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]) : cell.padEnd(widths[i]))).join('  ').trimEnd());
 }
@@ -88,7 +88,7 @@ export function formatCheck(c: DesignCheck): string {
   const r = c.riding;
   const header = [
     `${clip(c.design, MAX_ECHOED_NAME)}: check over the envelope, ${c.contact === 'ground' ? 'tyres on the ground' : 'wheel travel relative to the frame'}`,
-    `  grid: lean ${axisText(a.leanDeg, 'deg')} x handlebar ${axisText(a.handlebarDeg, 'deg')} x travel ${axisText(a.travelMm, 'mm')}: ${summaryLine(c.summary)}`,
+    `  grid: lean ${axisText(a.leanDeg, 'deg')} x handlebar ${axisText(a.handlebarDeg, 'deg')} x ${c.travelAxis.kind === 'spring' ? 'spring travel (compression +)' : 'travel'} ${axisText(a.travelMm, 'mm')}: ${summaryLine(c.summary)}`,
     `  riding: ${r.minKmh}..${r.maxKmh} km/h, lean limit ${r.maxLeanDeg} deg, transient band ${r.transientBandDeg} deg, grip ${r.gripG} g ` +
       '(balanced turn: tan(lean) = v^2 / (g R), R the rear axle centre path radius)',
     '',
@@ -98,7 +98,7 @@ export function formatCheck(c: DesignCheck): string {
   for (const region of order) {
     const sec = region === 'operating' ? c.operating : c.full;
     const role = region === c.judged ? 'judged' : 'for information';
-    sections.push(`== ${SECTION_TITLE[region]} (${sec.poses} poses; ${role})`, ...sectionTable(sec), `section verdict: ${sectionVerdict(sec)}`, '');
+    sections.push(`== ${SECTION_TITLE[region]} (${sec.poses} poses; ${role})`, ...sectionTable(sec, c.travelAxis), `section verdict: ${sectionVerdict(sec)}`, '');
   }
   const limits = ['steering limits (first limit met each way, zero travel; handlebar deg, road-wheel L/R deg):'];
   const lim = (l: LeanLimits['left']) =>
@@ -178,6 +178,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
       judged: result.judged,
       contact: result.contact,
       axes: result.axes,
+      travelAxis: result.travelAxis,
       riding: result.riding,
       items: result.items,
       operating: result.operating,

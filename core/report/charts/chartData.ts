@@ -49,6 +49,11 @@ export interface EnvelopeMapData {
   lean: number[];
   handlebar: number[];
   travelMm: number;
+  /**
+   * What travelMm is: "travel" (wheel-centre travel, bump +) or, on a lean-linkage design on
+   * the ground, "spring travel" (compression +); absent: wheel travel.
+   */
+  travelName?: string;
   contact: 'ground' | 'travel';
   cells: MapCell[];
   /** One per riding speed core picked; none for a vehicle that does not lean. */

@@ -352,7 +352,7 @@ export function heatMapOption(map: EnvelopeMapData, metric: MapMetric, marker: {
     title: [
       {
         text: `Envelope map: ${meta.label.toLowerCase()}`,
-        subtext: `lean × handlebar, tyres on the ground, travel ${map.travelMm} mm${leans}; click a cell to go there`,
+        subtext: `lean × handlebar, tyres on the ground, ${map.travelName ?? 'travel'} ${map.travelMm} mm${leans}; click a cell to go there`,
         left: 8,
         top: 4,
         textStyle: { fontSize: 13 },
