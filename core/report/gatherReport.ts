@@ -56,6 +56,20 @@ export interface FullLock {
   pose: PoseReport;
 }
 
+/** One pose of the lean-linkage sheet: its inputs and `tiltbench pose --json`'s leanLinkage there. */
+export interface LeanLinkageRow {
+  leanDeg: number;
+  /** Spring compression, mm (+ = compressed; the pose's heave is minus this). */
+  springTravelMm: number;
+  pose: PoseReport;
+}
+
+/** The lean-linkage sheet: the rocker against lean (spring held) and the spring against its travel (upright). */
+export interface LeanLinkageSheetData {
+  byLean: LeanLinkageRow[];
+  byTravel: LeanLinkageRow[];
+}
+
 export interface ReportData {
   source: Omit<ReportSource, 'file' | 'design'> & { name: string; notes: string };
   design: ResolvedDesign;
@@ -72,6 +86,8 @@ export interface ReportData {
   sensitivity: SensitivityReport | null;
   tolerance: ToleranceReport | null;
   tune: (TuneReport & { planName: string }) | null;
+  /** With a lean linkage: its sheet's poses (null without one). */
+  leanLinkage: LeanLinkageSheetData | null;
 }
 
 /** The request `tiltbench pose` makes by default: lean 0, handlebar 0, on the ground. */
@@ -112,6 +128,22 @@ export function gatherReport(src: ReportSource, options: ReportOptions = {}): Re
     const handlebarDeg = turn === 'left' ? d.envelope.handlebarDeg : -d.envelope.handlebarDeg;
     return { turn, handlebarDeg, pose: solveSinglePose(d, { ...DESIGN_POSE_REQUEST, handlebarDeg }).report };
   });
+
+  let leanLinkage: LeanLinkageSheetData | null = null;
+  if (d.leanLinkage) {
+    stage('lean linkage');
+    const at = (leanDeg: number, springTravelMm: number): LeanLinkageRow => ({
+      leanDeg,
+      springTravelMm,
+      pose: solveSinglePose(d, { ...DESIGN_POSE_REQUEST, leanDeg, heaveMm: -springTravelMm }).report,
+    });
+    const L = d.envelope.leanDeg;
+    const e = d.envelope;
+    leanLinkage = {
+      byLean: [-L, -L / 2, 0, L / 2, L].map((lean) => at(lean, 0)),
+      byTravel: [-e.reboundMm, -e.reboundMm / 2, 0, e.bumpMm / 2, e.bumpMm].map((t) => at(0, t)),
+    };
+  }
 
   // The drawing at design position: the template's graph, its points at their design places.
   const graph = buildMechanism(d, { contact: 'travel', steerBy: 'handlebar' });
@@ -161,5 +193,6 @@ export function gatherReport(src: ReportSource, options: ReportOptions = {}): Re
     sensitivity,
     tolerance,
     tune,
+    leanLinkage,
   };
 }

@@ -14,7 +14,7 @@ import { CURVE_CHARTS } from './charts/curveOptions';
 import { renderPlots } from './plots';
 import { drawView, VIEWS } from './drawings';
 import { escapeHtml, fixed, htmlTable, mm1, num, td } from './html';
-import type { ReportData } from './gatherReport';
+import type { LeanLinkageRow, ReportData } from './gatherReport';
 
 /** The sign conventions printed on the first sheet: core's own definitions, in this order. */
 const CONVENTIONS: (keyof typeof ANALYSIS_DEFINITIONS)[] = ['axes', 'lean', 'handlebar', 'steer', 'toe', 'camber', 'caster', 'kpi', 'trail', 'scrubRadius', 'travel', 'selfSteer', 'ratioChange', 'ackermann', 'turningCircle', 'verdict'];
@@ -314,6 +314,59 @@ function studySheets(r: ReportData): string[] {
 }
 
 /** The whole report, one HTML document. */
+/**
+ * The lean linkage (balance beam): the rocker against lean with the spring held, and the spring
+ * against its travel upright, each pose's figures as `tiltbench pose --json` gives them
+ * (leanLinkage); a pose that did not give them shows its reason.
+ */
+function leanLinkageSheet(r: ReportData): string | null {
+  const l = r.leanLinkage;
+  if (!l) return null;
+  const f = (x: number) => fixed(x, 1);
+  const why = (row: LeanLinkageRow) => row.pose.leanLinkageReason ?? row.pose.message ?? 'no lean-linkage figures';
+  const leanRows = l.byLean.map((row) => {
+    const m = row.pose.leanLinkage;
+    const k = `lean.${f(row.leanDeg)}`;
+    if (!m) return [num(row.leanDeg, 1), `<td colspan="5">${escapeHtml(why(row))}</td>`];
+    return [
+      num(row.leanDeg, 1),
+      num(m.rockerDeg, 2, `${k}.rockerDeg`),
+      num(m.stopMarginDeg, 2, `${k}.stopMarginDeg`),
+      num(m.springLengthMm, 2, `${k}.springLengthMm`),
+      num(m.actuatorLengthMm ?? null, 1, `${k}.actuatorLengthMm`),
+      num(m.rollAxis?.heightAtAxleMm ?? null, 1, `${k}.rollAxis.heightAtAxleMm`),
+      num(m.rollAxis?.lateralAtAxleMm ?? null, 1, `${k}.rollAxis.lateralAtAxleMm`),
+    ];
+  });
+  const travelRows = l.byTravel.map((row) => {
+    const m = row.pose.leanLinkage;
+    const k = `travel.${f(row.springTravelMm)}`;
+    if (!m) return [num(row.springTravelMm, 1), `<td colspan="4">${escapeHtml(why(row))}</td>`];
+    const wheel = row.pose.analysis?.wheels.left.travelMm ?? null;
+    return [
+      num(row.springTravelMm, 1),
+      num(m.springLengthMm, 2, `${k}.springLengthMm`),
+      num(m.motionRatio ?? null, 3, `${k}.motionRatio`),
+      num(wheel, 1, `${k}.wheelTravelMm`),
+      num(m.rollAxis?.heightAtAxleMm ?? null, 1, `${k}.rollAxis.heightAtAxleMm`),
+    ];
+  });
+  const upright = l.byLean.find((row) => row.leanDeg === 0)?.pose.leanLinkage;
+  const stops = upright
+    ? `<p id="lean-at-stops">Lean at the stops (rocker driven to each stop, handlebar and spring held, from upright): ` +
+      `<span data-field="leanAtStop.positive"${upright.leanAtStopDeg?.positive == null ? '' : ` data-value="${String(upright.leanAtStopDeg.positive)}"`}>${fixed(upright.leanAtStopDeg?.positive ?? null, 1)}</span> deg at +${fixed(upright.stopDeg, 1)} deg of rocker, ` +
+      `<span data-field="leanAtStop.negative"${upright.leanAtStopDeg?.negative == null ? '' : ` data-value="${String(upright.leanAtStopDeg.negative)}"`}>${fixed(upright.leanAtStopDeg?.negative ?? null, 1)}</span> deg at -${fixed(upright.stopDeg, 1)} deg.</p>`
+    : '';
+  const body =
+    `<h3>Against lean (spring travel 0, handlebar 0, tyres on the ground)</h3>` +
+    htmlTable(['lean deg', 'rocker deg', 'stop margin deg', 'spring length mm', 'actuator length mm', 'roll axis height at x = 0 mm', 'roll axis sideways at x = 0 mm'], leanRows, 'grid lean-linkage').replace('<table', '<table id="lean-linkage-lean"') +
+    stops +
+    `<h3>Against spring travel (lean 0, handlebar 0)</h3>` +
+    htmlTable(['spring travel mm (compression +)', 'spring length mm', 'motion ratio (spring per wheel)', 'wheel-centre travel mm (bump +)', 'roll axis height mm'], travelRows, 'grid lean-linkage').replace('<table', '<table id="lean-linkage-travel"') +
+    `<p class="small">Figures as <code>tiltbench pose --json</code> gives them (leanLinkage). ${escapeHtml(ANALYSIS_DEFINITIONS.leanLinkage)} Roll axis: ${escapeHtml(ANALYSIS_DEFINITIONS.rollAxis)}.</p>`;
+  return sheet('lean-linkage-sheet', 'Lean linkage (balance beam)', body);
+}
+
 export function reportHtml(r: ReportData): string {
   const studies = studySheets(r);
   const last = sheet(
@@ -324,7 +377,8 @@ export function reportHtml(r: ReportData): string {
       (studies.length ? '' : `<p class="small">No studies were run for this report (tiltbench report --with-sensitivity, --with-tolerance N).</p>`) +
       `<p class="caution">${escapeHtml(SAFETY_CAUTION)}</p>`,
   );
-  const sheets = [coverSheet(r), hardpointSheet(r), drawingSheet(r), ...curveSheets(r), limitsSheet(r), last, ...studies];
+  const lean = leanLinkageSheet(r);
+  const sheets = [coverSheet(r), hardpointSheet(r), drawingSheet(r), ...curveSheets(r), limitsSheet(r), ...(lean ? [lean] : []), last, ...studies];
   return (
     `<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><meta name="generator" content="Tiltbench report">` +
     `<meta name="viewport" content="width=device-width, initial-scale=1">` +
