@@ -70,6 +70,19 @@ export interface LeanLinkageSheetData {
   byTravel: LeanLinkageRow[];
 }
 
+/** One pose of the rear-pair sheet and `tiltbench pose --json` there (its analysis.rear). */
+export interface RearPairRow {
+  leanDeg: number;
+  handlebarDeg: number;
+  pose: PoseReport;
+}
+
+/** The leaning rear pair's sheet: rear camber and toe against lean (straight ahead); the four-wheel turn centre and slips in turns. */
+export interface RearPairSheetData {
+  byLean: RearPairRow[];
+  turns: RearPairRow[];
+}
+
 export interface ReportData {
   source: Omit<ReportSource, 'file' | 'design'> & { name: string; notes: string };
   design: ResolvedDesign;
@@ -88,6 +101,8 @@ export interface ReportData {
   tune: (TuneReport & { planName: string }) | null;
   /** With a lean linkage: its sheet's poses (null without one). */
   leanLinkage: LeanLinkageSheetData | null;
+  /** With a leaning rear pair: its sheet's poses (null for other rears). */
+  rearPair: RearPairSheetData | null;
 }
 
 /** The request `tiltbench pose` makes by default: lean 0, handlebar 0, on the ground. */
@@ -145,6 +160,23 @@ export function gatherReport(src: ReportSource, options: ReportOptions = {}): Re
     };
   }
 
+  let rearPair: RearPairSheetData | null = null;
+  if (d.vehicle.rear.kind === 'leaningPair') {
+    stage('rear pair');
+    const at = (leanDeg: number, handlebarDeg: number): RearPairRow => ({
+      leanDeg,
+      handlebarDeg,
+      pose: solveSinglePose(d, { ...DESIGN_POSE_REQUEST, leanDeg, handlebarDeg }).report,
+    });
+    const L = d.vehicle.tilting ? d.envelope.leanDeg : 0;
+    const H = d.envelope.handlebarDeg;
+    rearPair = {
+      byLean: [-L, -L / 2, 0, L / 2, L].map((lean) => at(lean, 0)),
+      // Upright at half and full handlebar each way, and leaning into each turn by half the envelope.
+      turns: [at(0, H), at(0, H / 2), at(0, -H / 2), at(0, -H), at(L / 2, -H / 2), at(-L / 2, H / 2)],
+    };
+  }
+
   // The drawing at design position: the template's graph, its points at their design places.
   const graph = buildMechanism(d, { contact: 'travel', steerBy: 'handlebar' });
   const drawingPoints: KeyedPoint[] = hardpoints.map((h) => ({ id: h.id, key: h.key, label: `${h.group ? h.group.toLowerCase() + ' ' : ''}${h.label}${h.side === 'centre' ? '' : `, ${h.side}`}`, side: h.side, at: [h.at.x, h.at.y, h.at.z] }));
@@ -194,5 +226,6 @@ export function gatherReport(src: ReportSource, options: ReportOptions = {}): Re
     tolerance,
     tune,
     leanLinkage,
+    rearPair,
   };
 }

@@ -14,7 +14,7 @@ import { CURVE_CHARTS } from './charts/curveOptions';
 import { renderPlots } from './plots';
 import { drawView, VIEWS } from './drawings';
 import { escapeHtml, fixed, htmlTable, mm1, num, td } from './html';
-import type { LeanLinkageRow, ReportData } from './gatherReport';
+import type { LeanLinkageRow, RearPairRow, ReportData } from './gatherReport';
 
 /** The sign conventions printed on the first sheet: core's own definitions, in this order. */
 const CONVENTIONS: (keyof typeof ANALYSIS_DEFINITIONS)[] = ['axes', 'lean', 'handlebar', 'steer', 'toe', 'camber', 'caster', 'kpi', 'trail', 'scrubRadius', 'travel', 'selfSteer', 'ratioChange', 'ackermann', 'turningCircle', 'verdict'];
@@ -367,6 +367,56 @@ function leanLinkageSheet(r: ReportData): string | null {
   return sheet('lean-linkage-sheet', 'Lean linkage (balance beam)', body);
 }
 
+/**
+ * The leaning rear pair: each rear wheel's camber (to the ground and to the frame) and toe
+ * against lean, straight ahead; then the four-wheel turn centre and each wheel's slip angle in
+ * turns. Each figure is `tiltbench pose --json`'s analysis.rear at that pose.
+ */
+function rearPairSheet(r: ReportData): string | null {
+  const rp = r.rearPair;
+  if (!rp) return null;
+  const f = (x: number) => fixed(x, 1);
+  const failed = (row: RearPairRow, cols: number) => [num(row.leanDeg, 1), num(row.handlebarDeg, 1), `<td colspan="${cols}">${escapeHtml(`not solved: ${row.pose.message}`)}</td>`];
+  const leanRows = rp.byLean.map((row) => {
+    const rear = row.pose.analysis?.rear;
+    if (!rear) return failed(row, 6);
+    const k = `rear.lean.${f(row.leanDeg)}`;
+    return [
+      num(row.leanDeg, 1),
+      num(rear.left.camberDeg, 2, `${k}.left.camberDeg`),
+      num(rear.right.camberDeg, 2, `${k}.right.camberDeg`),
+      num(rear.left.camberToFrameDeg, 2, `${k}.left.camberToFrameDeg`),
+      num(rear.right.camberToFrameDeg, 2, `${k}.right.camberToFrameDeg`),
+      num(rear.left.toeDeg, 2, `${k}.left.toeDeg`),
+      num(rear.right.toeDeg, 2, `${k}.right.toeDeg`),
+    ];
+  });
+  const turnRows = rp.turns.map((row) => {
+    const tc = row.pose.analysis?.rear?.turnCentre;
+    const k = `rear.turn.${f(row.leanDeg)}.${f(row.handlebarDeg)}`;
+    if (!row.pose.analysis?.rear) return failed(row, 7);
+    if (!tc || !tc.centreMm || !tc.slipDeg) return [num(row.leanDeg, 1), num(row.handlebarDeg, 1), td(`no turn centre: ${tc?.reason ?? 'straight ahead'}`, 'colspan="7"')];
+    return [
+      num(row.leanDeg, 1),
+      num(row.handlebarDeg, 1),
+      num(tc.centreMm.y / 1000, 3, `${k}.centreYM`),
+      num(tc.lineSpreadMm, 1, `${k}.lineSpreadMm`),
+      num(tc.slipDeg.frontLeftDeg, 2, `${k}.slip.frontLeftDeg`),
+      num(tc.slipDeg.frontRightDeg, 2, `${k}.slip.frontRightDeg`),
+      num(tc.slipDeg.rearLeftDeg, 2, `${k}.slip.rearLeftDeg`),
+      num(tc.slipDeg.rearRightDeg, 2, `${k}.slip.rearRightDeg`),
+      num(tc.worstSlipDeg, 2, `${k}.worstSlipDeg`),
+    ];
+  });
+  const body =
+    `<h3>Rear wheels against lean (handlebar 0, tyres on the ground)</h3>` +
+    htmlTable(['lean deg', 'camber L deg', 'camber R deg', 'camber to frame L deg', 'camber to frame R deg', 'toe L deg', 'toe R deg'], leanRows, 'grid rear-pair').replace('<table', '<table id="rear-pair-lean"') +
+    `<h3>Four-wheel turn centre and slip angles</h3>` +
+    htmlTable(['lean deg', 'handlebar deg', 'turn centre y m (left +)', 'axis lines spread mm', 'slip FL deg', 'slip FR deg', 'slip RL deg', 'slip RR deg', 'worst slip deg'], turnRows, 'grid rear-pair').replace('<table', '<table id="rear-pair-turns"') +
+    `<p class="small">Figures as <code>tiltbench pose --json</code> gives them (analysis.rear). Camber top-outward positive; toe-in positive; the turn centre is the point nearest all four wheels' axis lines on the ground, the spread how far those lines miss it.</p>`;
+  return sheet('rear-pair-sheet', 'Leaning rear pair: alignment and the four-wheel turn centre', body);
+}
+
 export function reportHtml(r: ReportData): string {
   const studies = studySheets(r);
   const last = sheet(
@@ -377,8 +427,8 @@ export function reportHtml(r: ReportData): string {
       (studies.length ? '' : `<p class="small">No studies were run for this report (tiltbench report --with-sensitivity, --with-tolerance N).</p>`) +
       `<p class="caution">${escapeHtml(SAFETY_CAUTION)}</p>`,
   );
-  const lean = leanLinkageSheet(r);
-  const sheets = [coverSheet(r), hardpointSheet(r), drawingSheet(r), ...curveSheets(r), limitsSheet(r), ...(lean ? [lean] : []), last, ...studies];
+  const extra = [leanLinkageSheet(r), rearPairSheet(r)].filter((x): x is string => x !== null);
+  const sheets = [coverSheet(r), hardpointSheet(r), drawingSheet(r), ...curveSheets(r), limitsSheet(r), ...extra, last, ...studies];
   return (
     `<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><meta name="generator" content="Tiltbench report">` +
     `<meta name="viewport" content="width=device-width, initial-scale=1">` +

@@ -5,7 +5,7 @@
  * back with a general-purpose HTML parser (jsdom) and compared with `tiltbench pose --json`
  * (its leanLinkage block) at the same poses. A design without a lean linkage has no such sheet.
  */
-import { mkdtempSync } from 'node:fs';
+import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { JSDOM } from 'jsdom';
@@ -37,11 +37,11 @@ describe('report: lean-linkage sheet, read back', () => {
     const out = join(dir, 'pipit.html');
     const r = await run(['report', PIPIT, '--out', out, '--lean-step', '5', '--steer-step', '5', '--map-step', '5']);
     expect(r.code, r.err).toBe(0);
-    doc = (await JSDOM.fromFile(out)).window.document;
+    doc = new JSDOM(readFileSync(out, 'utf8')).window.document;
     const heronOut = join(dir, 'heron.html');
     const h = await run(['report', HERON, '--out', heronOut, '--lean-step', '5', '--steer-step', '5', '--map-step', '5']);
     expect(h.code, h.err).toBe(0);
-    heronDoc = (await JSDOM.fromFile(heronOut)).window.document;
+    heronDoc = new JSDOM(readFileSync(heronOut, 'utf8')).window.document;
   }, 240_000);
 
   it('the sheet is there on the Pipit, with the caution in the report, and absent on the Heron', () => {
