@@ -13,7 +13,8 @@
  * line, positive = a longer rod.
  */
 
-import type { DesignFile } from '../design/types';
+import type { DesignFile, Vec3Mm } from '../design/types';
+import { isTwoSided, resolveSidedVec } from '../design/resolveDesign';
 import { studyCoordinates, type StudyCoordinate } from './studyCoordinates';
 import type { StudyPose } from './studyPoses';
 
@@ -128,7 +129,37 @@ export function resolveVariable(file: DesignFile, v: TuneVariable, field: string
     const hint = near.length > 0 ? `; did you mean ${near.slice(0, 3).join(', ')}` : '; `tiltbench tune --list-variables <design>` lists them';
     throw new TunePlanError(`${field}.id: "${v.id.slice(0, 80)}" is not a hardpoint coordinate of this design${hint}`);
   }
+  const inward = inwardRoom(file, c);
+  if (inward !== null && lo < -inward.allowed) {
+    // A sided point moved inward past the centre line would end on the other side, and the
+    // optimiser could write a design the validator refuses: the range stops 1 mm short of it.
+    const limited = -inward.allowed;
+    if (!(hi - limited > 0)) {
+      throw new TunePlanError(`${field}.rangeMm: the ${c.point} is ${inward.distance.toFixed(1)} mm from the centre line, too close to move it inward; give a range from 0 outward`);
+    }
+    return { kind: 'coordinate', id: v.id, coordinate: c, lo: limited, hi, words: `${c.point}, ${c.direction} (inward at most ${inward.allowed.toFixed(1)} mm: the centre line)` };
+  }
   return { kind: 'coordinate', id: v.id, coordinate: c, lo, hi, words: `${c.point}, ${c.direction}` };
+}
+
+/** Clearance kept between a sided point and the centre line when a tune moves it inward (mm). */
+const CENTRE_LINE_CLEARANCE_MM = 1;
+
+/**
+ * How far a sided point's y coordinate may move inward (toward y = 0) and still stay on its
+ * side with CENTRE_LINE_CLEARANCE_MM to spare: the nearer side's distance when the pair moves
+ * together. Null for x, z and points on the centre line.
+ */
+function inwardRoom(file: DesignFile, c: StudyCoordinate): { distance: number; allowed: number } | null {
+  if (c.axis !== 'y' || c.side === null) return null;
+  let value: unknown = file;
+  for (const k of c.key.split('.')) value = (value as Record<string, unknown> | undefined)?.[k];
+  if (value === undefined || value === null || typeof value !== 'object') return null;
+  const both = isTwoSided(value as Vec3Mm | { right: Vec3Mm; left: Vec3Mm }) ? (value as { right: Vec3Mm; left: Vec3Mm }) : resolveSidedVec(value as Vec3Mm);
+  const sides = c.side === 'both' ? (['right', 'left'] as const) : [c.side];
+  const distance = Math.min(...sides.map((s) => (s === 'right' ? -both[s].y : both[s].y)));
+  if (!Number.isFinite(distance)) return null;
+  return { distance, allowed: Math.max(0, distance - CENTRE_LINE_CLEARANCE_MM) };
 }
 
 function readVariable(x: unknown, field: string): TuneVariable {
