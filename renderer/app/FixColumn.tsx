@@ -14,7 +14,7 @@ import { OrphanFix } from '../panels/FixPanel';
 import type { FixColumnTab } from '../state/uiStore';
 import { StudiesPanel } from '../studies/StudiesPanel';
 import { usePose, useUi, useWorkbenchApi } from './workbenchContext';
-import { useFixJobs } from './fixJobs';
+import { useLastCheck } from './fixJobs';
 
 const TABS: { id: FixColumnTab; label: string; title: string }[] = [
   { id: 'findings', label: "What's wrong", title: 'This pose and the operating region: what is over or close to a limit, worst first; click one to see where it is and how to fix it' },
@@ -35,9 +35,24 @@ function Tab({ id, children }: { id: FixColumnTab; children: ReactNode }) {
 /** How many findings there are now (this pose's alerts and the last check's items over or close), for the tab's label. */
 function useFindingCount(): number {
   const alerts = usePose((s) => s.outcome.alerts.length + s.issues.length);
-  const region = useFixJobs()?.lastCheck?.data.items.filter((i) => i.verdict !== 'within').length ?? 0;
+  const region = useLastCheck()?.data.items.filter((i) => i.verdict !== 'within').length ?? 0;
   return alerts + region;
 }
+
+// The tabs' contents as elements made once: when the column renders again (its count or tab
+// changed) React skips every tab whose element is the same, so the hidden tabs (the hardpoint
+// table's hundreds of inputs, the studies' forms) are not rendered again for nothing.
+const FINDINGS = (
+  <>
+    <SelectedPoint />
+    <OrphanFix />
+    <AlertsPanel />
+    <LimitsPanel />
+  </>
+);
+const HARDPOINTS = <HardpointTable />;
+const STUDIES = <StudiesPanel />;
+const SETTINGS = <DesignSheet />;
 
 export function FixColumn() {
   const { ui } = useWorkbenchApi();
@@ -57,21 +72,10 @@ export function FixColumn() {
           </button>
         ))}
       </div>
-      <Tab id="findings">
-        <SelectedPoint />
-        <OrphanFix />
-        <AlertsPanel />
-        <LimitsPanel />
-      </Tab>
-      <Tab id="hardpoints">
-        <HardpointTable />
-      </Tab>
-      <Tab id="studies">
-        <StudiesPanel />
-      </Tab>
-      <Tab id="settings">
-        <DesignSheet />
-      </Tab>
+      <Tab id="findings">{FINDINGS}</Tab>
+      <Tab id="hardpoints">{HARDPOINTS}</Tab>
+      <Tab id="studies">{STUDIES}</Tab>
+      <Tab id="settings">{SETTINGS}</Tab>
     </aside>
   );
 }

@@ -6,7 +6,7 @@
  * they never hold up the curves; an edit stops them if they are still running for the design
  * before it. The buttons stay as "run again".
  */
-import { createContext, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
+import { createContext, useContext, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useDocument, useJobs, usePose, useUi } from './workbenchContext';
 import { useStudyJob } from '../studies/useStudyJob';
 import { useSensitivity } from '../studies/useSensitivity';
@@ -27,10 +27,24 @@ export interface FixJobs {
 }
 
 const FixJobsContext = createContext<FixJobs | null>(null);
+// Narrower slices, so a panel that needs only the rates (the hardpoint table) or only the last
+// finished check (the findings count) is not rendered again at each progress step of the other job.
+const FixRatesContext = createContext<RatesJob | null>(null);
+const LastCheckContext = createContext<FixJobs['lastCheck'] | undefined>(undefined);
 
 /** The shared jobs, or null outside the provider (a panel then runs its own on request). */
 export function useFixJobs(): FixJobs | null {
   return useContext(FixJobsContext);
+}
+
+/** The shared rates job alone, or null outside the provider. */
+export function useFixRates(): RatesJob | null {
+  return useContext(FixRatesContext);
+}
+
+/** The last check that finished (null before the first), or undefined outside the provider. */
+export function useLastCheck(): FixJobs['lastCheck'] | undefined {
+  return useContext(LastCheckContext);
 }
 
 export function FixJobsProvider({ children, auto = true }: { children: ReactNode; auto?: boolean }) {
@@ -39,8 +53,13 @@ export function FixJobsProvider({ children, auto = true }: { children: ReactNode
   const valid = usePose((s) => s.resolved !== null);
   const dragging = useUi((s) => s.dragging);
   const plotsBusy = useJobs((s) => s.curves.progress !== null || s.map.progress !== null);
-  const check = useStudyJob('check', design);
-  const rates = useSensitivity(design);
+  const checkJob = useStudyJob('check', design);
+  const ratesJob = useSensitivity(design);
+  // The same objects while nothing in them changed, so the contexts' consumers render only when they must.
+  const { state: cState, run: cRun, cancel: cCancel, reset: cReset, stale: cStale } = checkJob;
+  const check: CheckJob = useMemo(() => ({ state: cState, run: cRun, cancel: cCancel, reset: cReset, stale: cStale }), [cState, cRun, cCancel, cReset, cStale]);
+  const { state: rState, run: rRun, cancel: rCancel, stale: rStale } = ratesJob;
+  const rates: RatesJob = useMemo(() => ({ state: rState, run: rRun, cancel: rCancel, stale: rStale }), [rState, rRun, rCancel, rStale]);
   // The design each job was last started for by this provider (a user's own run counts too via the job's state).
   const started = useRef<{ check: unknown; rates: unknown }>({ check: null, rates: null });
   // When the design on screen was first seen (for the fallback wait).
@@ -91,5 +110,12 @@ export function FixJobsProvider({ children, auto = true }: { children: ReactNode
     return undefined;
   }, [auto, valid, dragging, plotsBusy, design, checkFor, ratesFor, checkRunning, ratesRunning, runCheck, runRates]);
 
-  return <FixJobsContext.Provider value={{ check, rates, lastCheck }}>{children}</FixJobsContext.Provider>;
+  const all = useMemo(() => ({ check, rates, lastCheck }), [check, rates, lastCheck]);
+  return (
+    <FixJobsContext.Provider value={all}>
+      <FixRatesContext.Provider value={rates}>
+        <LastCheckContext.Provider value={lastCheck}>{children}</LastCheckContext.Provider>
+      </FixRatesContext.Provider>
+    </FixJobsContext.Provider>
+  );
 }

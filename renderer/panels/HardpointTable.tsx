@@ -3,7 +3,7 @@
  * right (edit either, both move); "unlink" makes the sides independent. Selection is shared
  * with the viewport.
  */
-import { Fragment, useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { Fragment, memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useActions, useDocument, usePose, useStudies, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { linkPoint, setCoordinate, unlinkPoint } from '../model/designActions';
 import { issuesOfCell, issuesOfPoint } from '../model/fieldIssues';
@@ -11,9 +11,11 @@ import { AXES, hardpointRows, rowName, type HardpointRow } from '../model/hardpo
 import type { DesignIssue } from '../../core/design/validateDesign';
 import { NumberField } from './NumberField';
 import { rateText, useSensitivity } from '../studies/useSensitivity';
-import { useFixJobs } from '../app/fixJobs';
+import { useFixRates } from '../app/fixJobs';
 import type { SensitivityData } from '../workers/sensitivityJob';
 import { pickedAxes, togglePoint } from '../model/tunePicks';
+import type { TunePick } from '../state/studyStore';
+import type { DesignFile } from '../../core/design/types';
 import { acceptProposal, dismissProposal, previewProposal } from '../studies/ProposalsPanel';
 import type { Proposal } from '../../core/studies/geometricSuggestion';
 import { fmt } from '../model/format';
@@ -23,12 +25,11 @@ export function HardpointTable() {
   const design = useDocument((s) => s.design);
   const issues = usePose((s) => s.issues);
   const selection = useUi((s) => s.selection);
-  const actions = useActions();
   const rows = useMemo(() => hardpointRows(design), [design]);
   // The workbench shares one run of the rates with the fix view (renderer/app/fixJobs.tsx); alone, the table runs its own.
-  const shared = useFixJobs();
+  const shared = useFixRates();
   const own = useSensitivity(design);
-  const sensitivity = shared?.rates ?? own;
+  const sensitivity = shared ?? own;
   const [objective, setObjective] = useState('selfSteer');
   // The rate column follows the measure of the finding opened in the fix view.
   const findingObjective = useUi((s) => s.finding?.objective ?? null);
@@ -47,11 +48,13 @@ export function HardpointTable() {
     const rank = (key: string) => (order.includes(key) ? order.indexOf(key) : order.length);
     return [...rows].sort((a, b) => rank(a.key) - rank(b.key));
   }, [rows, order]);
-  const studies = useWorkbenchApi().studies;
   const picks = useStudies((s) => s.picks);
   const proposalSet = useStudies((s) => s.proposals);
   // Proposals found for this very design, not dismissed, shown under the points they move.
-  const proposals = proposalSet && proposalSet.forDesign === design ? proposalSet.list.filter((p) => p.design !== null && !proposalSet.dismissed.includes(p.id)) : [];
+  const proposals = useMemo(
+    () => (proposalSet && proposalSet.forDesign === design ? proposalSet.list.filter((p) => p.design !== null && !proposalSet.dismissed.includes(p.id)) : NO_PROPOSALS),
+    [proposalSet, design],
+  );
   const body = useRef<HTMLTableSectionElement>(null);
   /** Cells whose text is not a number yet: "rowId:axis" -> message. */
   const [typing, setTyping] = useState<Record<string, string>>({});
@@ -92,47 +95,7 @@ export function HardpointTable() {
       <table className="hardpoint-table" data-testid="hardpoint-table">
         <TableHead />
         <tbody ref={body}>
-          {shownRows.map((row, i) => {
-            // A group's first row carries its heading (sorted by rate, each point names its group instead).
-            const header = !order && (i === 0 || row.group !== shownRows[i - 1].group);
-            const messages = rowMessages(row, issues, typing);
-            return (
-              <Fragment key={row.id}>
-                {header && (
-                  <tr className="group-row">
-                    <th colSpan={6} scope="rowgroup">
-                      {row.group}
-                    </th>
-                  </tr>
-                )}
-                <HardpointTableRow
-                  row={row}
-                  withGroup={order !== null}
-                  selected={selection === row.id}
-                  invalidAxes={AXES.filter((a) => issuesOfCell(issues, row.key, row.side, a).length > 0)}
-                  onSelect={() => actions.select(row.id)}
-                  onEdit={(axis, value) => actions.perform(setCoordinate, { rowId: row.id, axis, value })}
-                  onUnlink={() => actions.perform(unlinkPoint, { key: row.key })}
-                  onLink={(keep) => actions.perform(linkPoint, { key: row.key, keep })}
-                  onTyping={reportTyping}
-                  vary={row.side === 'left' && row.linked ? null : { picked: pickedAxes(picks, row).length, onToggle: () => studies.setState({ picks: togglePoint(studies.getState().picks, row) }) }}
-                />
-                {rates && row.side !== 'left' && <RateRow rowKey={row.key} rates={rates} objective={objective} />}
-                {proposals
-                  .filter((p) => p.moves.some((m) => m.key === row.key && m.side === row.side))
-                  .map((p) => (
-                    <ProposalRow key={p.id} proposal={p} row={row} onPreview={() => previewProposal(studies, p)} onAccept={() => acceptProposal(actions, studies, design, p)} onDismiss={() => dismissProposal(studies, p.id)} />
-                  ))}
-                {messages.length > 0 && (
-                  <tr className="issue-row">
-                    <td colSpan={6} role="alert" className="field-error" data-testid={`issue-${row.id}`}>
-                      {messages.join(' ')}
-                    </td>
-                  </tr>
-                )}
-              </Fragment>
-            );
-          })}
+          <TableRows shownRows={shownRows} grouped={!order} issues={issues} typing={typing} selection={selection} rates={rates} objective={objective} proposals={proposals} picks={picks} design={design} onTyping={reportTyping} />
         </tbody>
       </table>
     </section>
@@ -357,3 +320,74 @@ function CellField(p: {
     />
   );
 }
+
+const NO_PROPOSALS: Proposal[] = [];
+
+interface TableRowsProps {
+  shownRows: HardpointRow[];
+  /** Group headings shown (not sorted by rate). */
+  grouped: boolean;
+  issues: DesignIssue[];
+  typing: Record<string, string>;
+  selection: string | null;
+  rates: SensitivityData | null;
+  objective: string;
+  proposals: Proposal[];
+  picks: TunePick[];
+  design: DesignFile;
+  onTyping: (cell: string, message: string | null) => void;
+}
+
+/**
+ * The table's rows, rendered only when something they show changes: not at each progress step of
+ * the rates (the bar above says it), so hundreds of inputs are not written again for nothing.
+ */
+const TableRows = memo(function TableRows({ shownRows, grouped, issues, typing, selection, rates, objective, proposals, picks, design, onTyping: reportTyping }: TableRowsProps) {
+  const actions = useActions();
+  const studies = useWorkbenchApi().studies;
+  return (
+    <>
+      {shownRows.map((row, i) => {
+        // A group's first row carries its heading (sorted by rate, each point names its group instead).
+        const header = grouped && (i === 0 || row.group !== shownRows[i - 1].group);
+        const messages = rowMessages(row, issues, typing);
+        return (
+          <Fragment key={row.id}>
+            {header && (
+              <tr className="group-row">
+                <th colSpan={6} scope="rowgroup">
+                  {row.group}
+                </th>
+              </tr>
+            )}
+            <HardpointTableRow
+              row={row}
+              withGroup={!grouped}
+              selected={selection === row.id}
+              invalidAxes={AXES.filter((a) => issuesOfCell(issues, row.key, row.side, a).length > 0)}
+              onSelect={() => actions.select(row.id)}
+              onEdit={(axis, value) => actions.perform(setCoordinate, { rowId: row.id, axis, value })}
+              onUnlink={() => actions.perform(unlinkPoint, { key: row.key })}
+              onLink={(keep) => actions.perform(linkPoint, { key: row.key, keep })}
+              onTyping={reportTyping}
+              vary={row.side === 'left' && row.linked ? null : { picked: pickedAxes(picks, row).length, onToggle: () => studies.setState({ picks: togglePoint(studies.getState().picks, row) }) }}
+            />
+            {rates && row.side !== 'left' && <RateRow rowKey={row.key} rates={rates} objective={objective} />}
+            {proposals
+              .filter((p) => p.moves.some((m) => m.key === row.key && m.side === row.side))
+              .map((p) => (
+                <ProposalRow key={p.id} proposal={p} row={row} onPreview={() => previewProposal(studies, p)} onAccept={() => acceptProposal(actions, studies, design, p)} onDismiss={() => dismissProposal(studies, p.id)} />
+              ))}
+            {messages.length > 0 && (
+              <tr className="issue-row">
+                <td colSpan={6} role="alert" className="field-error" data-testid={`issue-${row.id}`}>
+                  {messages.join(' ')}
+                </td>
+              </tr>
+            )}
+          </Fragment>
+        );
+      })}
+    </>
+  );
+});
