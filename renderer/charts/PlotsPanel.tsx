@@ -4,7 +4,7 @@
  * current pose; clicking a map cell moves the sliders there. The tab and the map's choices
  * are the UI store's `plots`; the results are the jobs store's.
  */
-import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { Activity, useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useActions, useDocument, useJobs, usePose, useUi, useWorkbenchApi } from '../app/workbenchContext';
 import { MAP_RESOLUTIONS, type JobProgress, type MapResolution } from '../state/jobsStore';
 import { setPlots, type PlotTab } from '../state/uiStore';
@@ -354,7 +354,9 @@ export function PlotsPanel({ numbers }: { numbers?: ReactNode } = {}) {
           )}
           {numbers && (
             <div className="numbers-body" hidden={!numbersShown} data-testid="numbers-body">
-              {numbers}
+              {/* Hidden, the Numbers tab keeps its state but its updates wait for idle time (React's
+                  Activity), so playback's poses and an edit do not render its hundreds of cells first. */}
+              <Activity mode={numbersShown ? 'visible' : 'hidden'}>{numbers}</Activity>
             </div>
           )}
         </div>

@@ -125,3 +125,35 @@ describe('fix column renders', () => {
     expect(commits.table).toBeGreaterThan(0);
   }, 120_000);
 });
+
+describe('hidden Numbers tab', () => {
+  it('does not commit while its tab is closed and the pose changes, and shows the current pose when opened', async () => {
+    const { PlotsPanel } = await import('../../renderer/charts/PlotsPanel');
+    const { ReadoutPanel } = await import('../../renderer/panels/ReadoutPanel');
+    const wb = demoWorkbench();
+    let numbers = 0;
+    render(
+      withWorkbench(
+        wb,
+        <PlotsPanel
+          numbers={
+            <Profiler id="numbers" onRender={() => (numbers += 1)}>
+              <ReadoutPanel />
+            </Profiler>
+          }
+        />,
+      ),
+    );
+    const body = document.querySelector('[data-testid="readouts"]')!;
+    const before = body.textContent;
+    numbers = 0;
+    // Updates of a hidden Activity wait for idle time; act() would flush them, so the poses are set outside it.
+    for (let i = 1; i <= 10; i++) wb.actions.setPose({ leanDeg: 2 * i, handlebarDeg: i }, true);
+    await new Promise((r) => setTimeout(r, 0));
+    expect(numbers).toBe(0);
+    // Opened, the tab renders the pose now (its text differs from the design pose's).
+    act(() => wb.ui.setState({ plots: { ...wb.ui.getState().plots, open: true, numbers: true } }));
+    expect(numbers).toBeGreaterThan(0);
+    expect(document.querySelector('[data-testid="readouts"]')!.textContent).not.toBe(before);
+  });
+});
